@@ -1,0 +1,255 @@
+// E-mail notifications of the job workflow (product.md, step 6): the submitter hears when a
+// job ends and when a checker decides; checkers hear when a review is waiting. Each mail has
+// plain text and a simple HTML part, and a link to the job page. A mail failure never reaches
+// the caller (the queue and the review action go on); it is logged with the job it was for.
+import { and, eq, ne } from "drizzle-orm";
+import { db } from "~/db/client.server";
+import { jobs, models, projects, reviews, user } from "~/db/schema";
+import { config } from "~/lib/config.server";
+import { sendMail, type Mail } from "~/lib/mail.server";
+
+interface JobFacts {
+  id: string;
+  status: string;
+  outcome: string | null;
+  error: string | null;
+  finishedAt: Date | null;
+  modelName: string;
+  projectCode: string;
+  projectName: string;
+  submitter: { id: string; name: string; email: string } | null;
+  summary: { objectiveKind?: string; objectiveInitial?: number; objectiveFinal?: number; iterations?: number } | null;
+}
+
+async function jobFacts(jobId: string): Promise<JobFacts | null> {
+  const rows = await db()
+    .select({
+      id: jobs.id,
+      status: jobs.status,
+      outcome: jobs.outcome,
+      error: jobs.error,
+      finishedAt: jobs.finishedAt,
+      summary: jobs.summary,
+      modelName: models.name,
+      projectCode: projects.code,
+      projectName: projects.name,
+      submitterId: user.id,
+      submitterName: user.name,
+      submitterEmail: user.email,
+    })
+    .from(jobs)
+    .innerJoin(models, eq(models.id, jobs.modelId))
+    .innerJoin(projects, eq(projects.id, jobs.projectId))
+    .leftJoin(user, eq(user.id, jobs.submittedBy))
+    .where(eq(jobs.id, jobId))
+    .limit(1);
+  const r = rows[0];
+  if (!r) return null;
+  return {
+    id: r.id,
+    status: r.status,
+    outcome: r.outcome,
+    error: r.error,
+    finishedAt: r.finishedAt,
+    modelName: r.modelName,
+    projectCode: r.projectCode,
+    projectName: r.projectName,
+    submitter: r.submitterId && r.submitterEmail ? { id: r.submitterId, name: r.submitterName ?? "", email: r.submitterEmail } : null,
+    summary: (r.summary as JobFacts["summary"]) ?? null,
+  };
+}
+
+export function jobLink(jobId: string): string {
+  return `${config().APP_URL.replace(/\/+$/, "")}/jobs/${encodeURIComponent(jobId)}`;
+}
+
+function escapeHtml(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+}
+
+const OUTCOME_WORDS: Record<string, string> = {
+  optimal: "an optimum was found",
+  "not-converged": "the solver stopped before converging",
+  infeasible: "no design meets every limit",
+  failed: "the solver failed",
+};
+
+/** A mail with a greeting, paragraphs, a key/value list and the job link; text and HTML agree. */
+export function composeMail(opts: {
+  to: string | string[];
+  subject: string;
+  greeting: string;
+  paragraphs: string[];
+  facts: [string, string][];
+  link: string;
+  linkLabel: string;
+}): Mail {
+  const factText = opts.facts.map(([k, v]) => `  ${k}: ${v}`).join("\n");
+  const text = [
+    opts.greeting,
+    "",
+    ...opts.paragraphs.flatMap((p) => [p, ""]),
+    factText,
+    "",
+    `${opts.linkLabel}: ${opts.link}`,
+    "",
+    "— Strutwise desk",
+  ].join("\n");
+  const html = [
+    `<div style="font-family:'IBM Plex Sans',Arial,sans-serif;color:#16202c;font-size:14px;line-height:1.5">`,
+    `<p>${escapeHtml(opts.greeting)}</p>`,
+    ...opts.paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
+    `<table style="border-collapse:collapse;margin:8px 0">`,
+    ...opts.facts.map(
+      ([k, v]) =>
+        `<tr><td style="padding:2px 12px 2px 0;color:#6b7683">${escapeHtml(k)}</td><td style="padding:2px 0">${escapeHtml(v)}</td></tr>`,
+    ),
+    `</table>`,
+    `<p><a href="${escapeHtml(opts.link)}" style="color:#9c6314">${escapeHtml(opts.linkLabel)}</a></p>`,
+    `<p style="color:#6b7683;font-size:12px">Strutwise desk. Results are a design aid, not a design.</p>`,
+    `</div>`,
+  ].join("\n");
+  return { to: opts.to, subject: opts.subject, text, html };
+}
+
+function jobFactRows(j: JobFacts): [string, string][] {
+  return [
+    ["Project", `${j.projectCode} ${j.projectName}`],
+    ["Model", j.modelName],
+    ["Job", j.id],
+  ];
+}
+
+/** Runs one notification; logs instead of throwing, so the caller's work goes on. */
+async function guarded(what: string, fn: () => Promise<void>): Promise<void> {
+  try {
+    await fn();
+  } catch (e) {
+    const reason = e instanceof Error ? e.message : String(e);
+    console.error(`[notify] could not send the ${what} mail: ${reason}`);
+  }
+}
+
+function formatNumber(v: number | undefined): string {
+  if (v === undefined || !Number.isFinite(v)) return "–";
+  return Math.abs(v) >= 1e-3 && Math.abs(v) < 1e6 ? String(Number(v.toPrecision(5))) : v.toExponential(3);
+}
+
+/** To the submitter: the job finished (with its solver outcome), failed or was cancelled. */
+export async function notifyJobFinished(jobId: string): Promise<void> {
+  await guarded(`job-finished (job ${jobId})`, async () => {
+    const j = await jobFacts(jobId);
+    if (!j) throw new Error(`job ${jobId} does not exist`);
+    if (!j.submitter) return console.warn(`[notify] job ${jobId} has no submitter to tell`);
+    if (j.status !== "succeeded" && j.status !== "failed" && j.status !== "cancelled")
+      return console.warn(`[notify] job ${jobId} is still ${j.status}; no finished mail sent`);
+    const facts = jobFactRows(j);
+    let subject: string;
+    let paragraphs: string[];
+    if (j.status === "succeeded") {
+      const outcome = j.outcome ?? "optimal";
+      subject = `Job finished: ${j.modelName} (${outcome})`;
+      paragraphs = [`Your optimization run of "${j.modelName}" has finished: ${OUTCOME_WORDS[outcome] ?? outcome}.`];
+      const s = j.summary;
+      if (s) {
+        facts.push([`Objective (${s.objectiveKind ?? "mass"})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
+        if (s.iterations !== undefined) facts.push(["Iterations", String(s.iterations)]);
+      }
+      paragraphs.push("A checker still has to review it before the report is approved.");
+    } else if (j.status === "failed") {
+      subject = `Job failed: ${j.modelName}`;
+      paragraphs = [`Your optimization run of "${j.modelName}" failed.`, j.error ? `Reason: ${j.error}` : "No reason was recorded."];
+    } else {
+      subject = `Job cancelled: ${j.modelName}`;
+      paragraphs = [`Your optimization run of "${j.modelName}" was cancelled before it finished.`];
+    }
+    await sendMail(
+      composeMail({
+        to: j.submitter.email,
+        subject,
+        greeting: `Hello ${j.submitter.name || j.submitter.email},`,
+        paragraphs,
+        facts,
+        link: jobLink(j.id),
+        linkLabel: "Open the job",
+      }),
+    );
+  });
+}
+
+/** To every checker except the submitter (four-eyes rule): a finished job waits for review. */
+export async function notifyReviewWaiting(jobId: string): Promise<void> {
+  await guarded(`review-waiting (job ${jobId})`, async () => {
+    const j = await jobFacts(jobId);
+    if (!j) throw new Error(`job ${jobId} does not exist`);
+    const checkers = await db()
+      .select({ email: user.email, name: user.name, banned: user.banned })
+      .from(user)
+      .where(j.submitter ? and(eq(user.role, "checker"), ne(user.id, j.submitter.id)) : eq(user.role, "checker"));
+    const to = checkers.filter((c) => !c.banned).map((c) => c.email);
+    if (to.length === 0) return console.warn(`[notify] no checker to tell about job ${jobId}`);
+    const by = j.submitter ? j.submitter.name || j.submitter.email : "an engineer";
+    // one mail per checker: nobody sees the other recipients, and one bad address does not
+    // hold back the rest
+    for (const email of to) {
+      await guarded(`review-waiting to ${email} (job ${jobId})`, () =>
+        sendMail(
+          composeMail({
+            to: email,
+            subject: `Review waiting: ${j.modelName}`,
+            greeting: "Hello,",
+            paragraphs: [
+              `${by} has finished an optimization run of "${j.modelName}" and it is waiting for an independent check.`,
+              "Approve it, or return it with comments, from the job page.",
+            ],
+            facts: [...jobFactRows(j), ["Submitted by", by]],
+            link: jobLink(j.id),
+            linkLabel: "Review the job",
+          }),
+        ),
+      );
+    }
+  });
+}
+
+/** To the submitter: a checker approved the job or asked for changes. */
+export async function notifyDecision(reviewId: string): Promise<void> {
+  await guarded(`decision (review ${reviewId})`, async () => {
+    const rows = await db()
+      .select({
+        jobId: reviews.jobId,
+        decision: reviews.decision,
+        comment: reviews.comment,
+        createdAt: reviews.createdAt,
+        reviewerName: user.name,
+        reviewerEmail: user.email,
+      })
+      .from(reviews)
+      .innerJoin(user, eq(user.id, reviews.reviewerId))
+      .where(eq(reviews.id, reviewId))
+      .limit(1);
+    const r = rows[0];
+    if (!r) throw new Error(`review ${reviewId} does not exist`);
+    const j = await jobFacts(r.jobId);
+    if (!j) throw new Error(`job ${r.jobId} of review ${reviewId} does not exist`);
+    if (!j.submitter) return console.warn(`[notify] job ${j.id} has no submitter to tell`);
+    const reviewer = r.reviewerName || r.reviewerEmail;
+    const approved = r.decision === "approved";
+    await sendMail(
+      composeMail({
+        to: j.submitter.email,
+        subject: approved ? `Approved: ${j.modelName}` : `Changes requested: ${j.modelName}`,
+        greeting: `Hello ${j.submitter.name || j.submitter.email},`,
+        paragraphs: [
+          approved
+            ? `${reviewer} has checked and approved your optimization run of "${j.modelName}". The report now carries the approval.`
+            : `${reviewer} has checked your optimization run of "${j.modelName}" and requests changes.`,
+          `Comment: ${r.comment || "(none)"}`,
+        ],
+        facts: [...jobFactRows(j), ["Checked by", reviewer], ["Decided", r.createdAt.toISOString().replace("T", " ").slice(0, 16) + " UTC"]],
+        link: jobLink(j.id),
+        linkLabel: "Open the job",
+      }),
+    );
+  });
+}
