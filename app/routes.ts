@@ -5,8 +5,14 @@ import { type RouteConfig, index, layout, prefix, route } from "@react-router/de
 export default [
   layout("routes/shell.tsx", [
     index("routes/home.tsx"),
+    route("sign-in", "routes/sign-in.tsx"),
+    route("sign-up", "routes/sign-up.tsx"),
+    route("sign-out", "routes/sign-out.tsx"),
+    route("forgot-password", "routes/forgot-password.tsx"),
+    route("reset-password", "routes/reset-password.tsx"),
   ]),
   ...prefix("api", [
     route("health", "routes/api/health.ts"),
+    route("auth/*", "routes/api/auth.$.ts"),
   ]),
 ] satisfies RouteConfig;

@@ -1,0 +1,170 @@
+// The better-auth instance: e-mail + password accounts, database sessions through the Drizzle
+// adapter, the admin plugin for the role column and bans, sign-in throttling stored in the
+// database (so it holds across processes), password reset by e-mail.
+import { betterAuth } from "better-auth";
+import { drizzleAdapter } from "better-auth/adapters/drizzle";
+import { admin } from "better-auth/plugins";
+import { eq } from "drizzle-orm";
+import { db as defaultDb, type Db } from "~/db/client.server";
+import * as schema from "~/db/schema";
+import { config } from "~/lib/config.server";
+import { sendMail } from "~/lib/mail.server";
+import { audit } from "./audit.server";
+
+/**
+ * Sign-in throttle: at most `max` attempts per client address within `window` seconds.
+ * AUTH_SIGN_IN_LIMIT="max/windowSeconds" overrides it (e.g. for an end-to-end harness that
+ * signs in many times from one address); the default slows brute force to 10 a minute.
+ */
+export function signInLimit(env = process.env): { max: number; window: number } {
+  const m = /^(\d+)\/(\d+)$/.exec(env.AUTH_SIGN_IN_LIMIT ?? "");
+  return m ? { max: Number(m[1]), window: Number(m[2]) } : { max: 10, window: 60 };
+}
+
+function createAuth(database: Db) {
+  const c = config();
+  const secure = c.APP_URL.startsWith("https://");
+  const limit = signInLimit();
+  return betterAuth({
+    appName: "Strutwise",
+    baseURL: c.APP_URL,
+    basePath: "/api/auth",
+    secret: c.BETTER_AUTH_SECRET,
+    trustedOrigins: [new URL(c.APP_URL).origin],
+    database: drizzleAdapter(database, { provider: "sqlite", schema }),
+    emailAndPassword: {
+      enabled: true,
+      minPasswordLength: 10,
+      maxPasswordLength: 128,
+      autoSignIn: true,
+      revokeSessionsOnPasswordReset: true,
+      resetPasswordTokenExpiresIn: 60 * 60,
+      sendResetPassword: async ({ user, url }) => {
+        await sendMail({
+          to: user.email,
+          subject: "Strutwise: choose a new password",
+          text:
+            `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset the password of your Strutwise account.\n` +
+            `Open this link within the hour to choose a new one:\n\n${url}\n\n` +
+            `If you did not ask for this, ignore this message; your password stays as it is.\n`,
+        });
+      },
+    },
+    session: {
+      expiresIn: 60 * 60 * 24 * 7,
+      updateAge: 60 * 60 * 24,
+    },
+    advanced: {
+      useSecureCookies: secure,
+      cookiePrefix: "strutwise",
+      defaultCookieAttributes: { httpOnly: true, sameSite: "lax", secure, path: "/" },
+      ipAddress: { ipAddressHeaders: ["x-forwarded-for"] },
+    },
+    rateLimit: {
+      enabled: true,
+      storage: "database",
+      modelName: "rateLimit",
+      window: 60,
+      max: 200,
+      customRules: {
+        "/sign-in/email": { window: limit.window, max: limit.max },
+        "/sign-up/email": { window: 60, max: 10 },
+        "/request-password-reset": { window: 60, max: 5 },
+      },
+    },
+    plugins: [admin({ defaultRole: "viewer", adminRoles: ["admin"] })],
+    databaseHooks: {
+      user: {
+        create: {
+          // An invitation decides the role of a new account; everyone else starts as viewer.
+          before: async (user) => {
+            const invite = await database.query.invitations.findFirst({
+              where: eq(schema.invitations.email, user.email.toLowerCase()),
+            });
+            return { data: { ...user, role: invite && !invite.acceptedAt ? invite.role : "viewer" } };
+          },
+          after: async (user) => {
+            await database
+              .update(schema.invitations)
+              .set({ acceptedAt: new Date() })
+              .where(eq(schema.invitations.email, user.email.toLowerCase()));
+            await audit({
+              actor: { id: user.id, email: user.email },
+              action: "user.sign-up",
+              entityType: "user",
+              entityId: user.id,
+              detail: { role: (user as { role?: string }).role ?? "viewer" },
+            }, database);
+          },
+        },
+      },
+      session: {
+        create: {
+          after: async (session) => {
+            const u = await database.query.user.findFirst({ where: eq(schema.user.id, session.userId) });
+            await audit({
+              actor: { id: session.userId, email: u?.email ?? null },
+              action: "auth.sign-in",
+              entityType: "session",
+              entityId: session.id,
+              ip: session.ipAddress ?? null,
+            }, database);
+          },
+        },
+      },
+    },
+  });
+}
+
+export type Auth = ReturnType<typeof createAuth>;
+
+let instance: { db: Db; auth: Auth } | undefined;
+
+/** The process's auth instance, bound to db() (or to the handle given, for tests and scripts). */
+export function auth(database: Db = defaultDb()): Auth {
+  if (!instance || instance.db !== database) instance = { db: database, auth: createAuth(database) };
+  return instance.auth;
+}
+
+/**
+ * Call one of better-auth's HTTP endpoints from a page action, through its full handler so
+ * that throttling, origin checks and cookie handling apply exactly as for /api/auth/*.
+ * Returns the status, the parsed JSON body and the Set-Cookie headers to pass on.
+ */
+export async function callAuthEndpoint(
+  request: Request,
+  path: string,
+  body: Record<string, unknown> | null,
+): Promise<{ status: number; data: any; setCookies: string[]; retryAfter: number | null }> {
+  const base = config().APP_URL.replace(/\/$/, "");
+  const headers = new Headers({ "content-type": "application/json" });
+  const origin = request.headers.get("origin") ?? new URL(base).origin;
+  headers.set("origin", origin);
+  for (const h of ["cookie", "user-agent", "x-forwarded-for"]) {
+    const v = request.headers.get(h);
+    if (v) headers.set(h, v);
+  }
+  const res = await auth().handler(
+    new Request(`${base}/api/auth${path}`, {
+      method: body ? "POST" : "GET",
+      headers,
+      body: body ? JSON.stringify(body) : undefined,
+    }),
+  );
+  const text = await res.text();
+  let data: any = null;
+  try {
+    data = text ? JSON.parse(text) : null;
+  } catch {
+    data = { message: text };
+  }
+  const retry = res.headers.get("x-retry-after");
+  return { status: res.status, data, setCookies: res.headers.getSetCookie(), retryAfter: retry ? Number(retry) : null };
+}
+
+/** Headers carrying the Set-Cookie lines of an auth response onward (redirects, data()). */
+export function cookieHeaders(setCookies: string[]): Headers {
+  const h = new Headers();
+  for (const c of setCookies) h.append("set-cookie", c);
+  return h;
+}

@@ -1,0 +1,90 @@
+// The one place that decides who the caller is and what they may do. Every loader, action and
+// resource route calls requireUser / requirePermission; anything not granted is refused.
+import { redirect } from "react-router";
+import { jsonError } from "~/lib/http.server";
+import { auth } from "./auth.server";
+import { ownerOfApiKey } from "./api-keys.server";
+import { can, isRole, rolesWith, type Permission, type Role } from "./permissions";
+
+export interface SessionUser {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  via: "session" | "api-key";
+}
+
+function isApi(request: Request): boolean {
+  return new URL(request.url).pathname.startsWith("/api/");
+}
+
+function bearerToken(request: Request): string | null {
+  const h = request.headers.get("authorization");
+  if (!h) return null;
+  const m = /^Bearer\s+(\S+)\s*$/i.exec(h);
+  return m ? m[1]! : "";
+}
+
+type UserRow = { id: string; email: string; name: string; role?: string | null; banned?: boolean | null };
+
+function toSessionUser(u: UserRow, via: SessionUser["via"]): SessionUser | null {
+  if (u.banned) return null;
+  // a role outside the known four gets nothing: deny by default
+  if (!isRole(u.role)) return null;
+  return { id: u.id, email: u.email, name: u.name, role: u.role, via };
+}
+
+/** The caller from a Bearer API key or the session cookie; null when neither is valid. */
+export async function getUser(request: Request): Promise<SessionUser | null> {
+  const token = bearerToken(request);
+  if (token !== null) {
+    const owner = token ? await ownerOfApiKey(token) : null;
+    return owner ? toSessionUser(owner, "api-key") : null;
+  }
+  if (!request.headers.get("cookie")) return null;
+  // better-auth checks the cookie's signature and the session row's expiry
+  const session = await auth().api.getSession({ headers: request.headers });
+  if (!session) return null;
+  return toSessionUser(session.user as UserRow, "session");
+}
+
+/** The signed-in caller; pages redirect to sign-in, /api/* answers 401 JSON. */
+export async function requireUser(request: Request): Promise<SessionUser> {
+  const user = await getUser(request);
+  if (user) return user;
+  if (isApi(request)) {
+    const sentKey = bearerToken(request) !== null;
+    throw jsonError(
+      401,
+      sentKey
+        ? "The API key is unknown or revoked; create a new one on your account page"
+        : "Sign in first, or send an API key as 'Authorization: Bearer <key>'",
+    );
+  }
+  const url = new URL(request.url);
+  throw redirect(`/sign-in?redirectTo=${encodeURIComponent(url.pathname + url.search)}`);
+}
+
+function deniedMessage(user: SessionUser, permission: Permission): string {
+  return `This needs permission ${permission}; your role is ${user.role} (it is granted to ${rolesWith(permission).join(", ")})`;
+}
+
+export function forbidden(message: string): Response {
+  return jsonError(403, message);
+}
+
+/** The caller, if their role grants the permission; otherwise a 403 naming what was missing. */
+export async function requirePermission(request: Request, permission: Permission): Promise<SessionUser> {
+  const user = await requireUser(request);
+  if (!can(user.role, permission)) {
+    throw forbidden(deniedMessage(user, permission));
+  }
+  return user;
+}
+
+/** For a loader that must check a permission it already has a user for. */
+export function assertPermission(user: SessionUser, permission: Permission): void {
+  if (!can(user.role, permission)) {
+    throw forbidden(deniedMessage(user, permission));
+  }
+}
