@@ -1,0 +1,52 @@
+// The limits that shape the design, with their shadow prices: how much objective each one
+// costs per unit it is relaxed (the Lagrange multipliers of the active constraints).
+import type { TrussResult } from "~/engine/design/result-types";
+import { fmtSci } from "~/components/ui/format";
+import { EmptyState } from "~/components/ui/States";
+import { describeConstraint } from "./constraint-words";
+
+export function GoverningConstraints({ result, limit = 12 }: { result: TrussResult; limit?: number }) {
+  const rows =
+    result.shadowPrices && result.shadowPrices.length
+      ? result.shadowPrices.map((p) => ({ id: p.constraint, multiplier: p.multiplier, unit: p.unit, sentence: p.sentence }))
+      : result.activeConstraints.map((a) => ({
+          id: a.id,
+          multiplier: a.multiplier,
+          unit: "",
+          sentence: `Relaxing the ${describeConstraint(a.id)} by one unit would change the ${result.objective.kind} by about ${fmtSci(a.multiplier)}.`,
+        }));
+  rows.sort((a, b) => Math.abs(b.multiplier) - Math.abs(a.multiplier));
+  if (rows.length === 0)
+    return <EmptyState title="No limit is active">At this design no limit is binding; the area bounds or the objective alone decide the sizes.</EmptyState>;
+  const shown = rows.slice(0, limit);
+  return (
+    <div data-testid="governing">
+      <ol className="space-y-2">
+        {shown.map((r) => (
+          <li key={r.id} className="flex flex-col gap-1 rounded-md border border-rule px-3 py-2 sm:flex-row sm:items-baseline sm:gap-4">
+            <code className="shrink-0 font-mono text-xs text-ink-muted sm:w-56 sm:truncate" title={r.id}>
+              {r.id}
+            </code>
+            <span className="flex-1 text-sm text-ink-soft">{r.sentence}</span>
+            <span className="num shrink-0 text-sm text-ink" title="shadow price (Lagrange multiplier)">
+              {fmtSci(r.multiplier)} {r.unit}
+            </span>
+          </li>
+        ))}
+      </ol>
+      {rows.length > shown.length && (
+        <details className="mt-2 text-sm">
+          <summary className="cursor-pointer text-ink-muted">{rows.length - shown.length} more active limits</summary>
+          <ul className="mt-2 space-y-1">
+            {rows.slice(limit).map((r) => (
+              <li key={r.id} className="flex gap-3">
+                <code className="font-mono text-xs text-ink-muted">{r.id}</code>
+                <span className="num">{fmtSci(r.multiplier)} {r.unit}</span>
+              </li>
+            ))}
+          </ul>
+        </details>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,149 @@
+// A sortable, filterable, paginated table over rows already on the page (headless
+// @tanstack/react-table, our own markup). Column headers are buttons, so sorting works from
+// the keyboard; aria-sort tells screen readers the order.
+import {
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getPaginationRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type ColumnDef,
+  type SortingState,
+} from "@tanstack/react-table";
+import { useState, type ReactNode } from "react";
+import { EmptyState } from "~/components/ui/States";
+
+export interface DataTableProps<T> {
+  data: T[];
+  columns: ColumnDef<T, any>[];
+  label: string;
+  pageSize?: number;
+  filterPlaceholder?: string; // shows a quick filter box when given
+  initialSort?: SortingState;
+  empty?: ReactNode;
+  toolbar?: ReactNode;
+  rowTestId?: string;
+  getRowId?: (row: T) => string;
+}
+
+export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceholder, initialSort = [], empty, toolbar, rowTestId, getRowId }: DataTableProps<T>) {
+  const [sorting, setSorting] = useState<SortingState>(initialSort);
+  const [globalFilter, setGlobalFilter] = useState("");
+  const table = useReactTable({
+    data,
+    columns,
+    state: { sorting, globalFilter },
+    onSortingChange: setSorting,
+    onGlobalFilterChange: setGlobalFilter,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+    getPaginationRowModel: getPaginationRowModel(),
+    getRowId: getRowId ? (r) => getRowId(r) : undefined,
+    initialState: { pagination: { pageSize } },
+    autoResetPageIndex: false,
+  });
+  const rows = table.getRowModel().rows;
+  const filtered = table.getFilteredRowModel().rows.length;
+  const { pageIndex } = table.getState().pagination;
+  const pages = table.getPageCount();
+
+  return (
+    <div>
+      {(filterPlaceholder || toolbar) && (
+        <div className="mb-3 flex flex-wrap items-center gap-2">
+          {filterPlaceholder && (
+            <input
+              type="search"
+              className="field-input max-w-xs"
+              placeholder={filterPlaceholder}
+              aria-label={`Filter ${label}`}
+              value={globalFilter}
+              onChange={(e) => {
+                setGlobalFilter(e.target.value);
+                table.setPageIndex(0);
+              }}
+            />
+          )}
+          <div className="ml-auto flex flex-wrap gap-2">{toolbar}</div>
+        </div>
+      )}
+      {data.length === 0 ? (
+        (empty ?? <EmptyState title="Nothing to show" />)
+      ) : (
+        <>
+          <div className="overflow-x-auto rounded-md border border-rule">
+            <table className="data-table" aria-label={label}>
+              <thead>
+                {table.getHeaderGroups().map((hg) => (
+                  <tr key={hg.id}>
+                    {hg.headers.map((h) => {
+                      const sorted = h.column.getIsSorted();
+                      const numeric = (h.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
+                      return (
+                        <th
+                          key={h.id}
+                          className={numeric ? "num" : undefined}
+                          aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
+                        >
+                          {h.isPlaceholder ? null : h.column.getCanSort() ? (
+                            <button
+                              type="button"
+                              className={`inline-flex items-center gap-1 uppercase ${numeric ? "flex-row-reverse" : ""} hover:text-ink`}
+                              onClick={h.column.getToggleSortingHandler()}
+                            >
+                              {flexRender(h.column.columnDef.header, h.getContext())}
+                              <span aria-hidden className="w-2 text-ink-soft">
+                                {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
+                              </span>
+                            </button>
+                          ) : (
+                            flexRender(h.column.columnDef.header, h.getContext())
+                          )}
+                        </th>
+                      );
+                    })}
+                  </tr>
+                ))}
+              </thead>
+              <tbody>
+                {rows.map((r) => (
+                  <tr key={r.id} className="hover:bg-paper" data-testid={rowTestId}>
+                    {r.getVisibleCells().map((c) => (
+                      <td key={c.id} className={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? "num" : undefined}>
+                        {flexRender(c.column.columnDef.cell, c.getContext())}
+                      </td>
+                    ))}
+                  </tr>
+                ))}
+                {rows.length === 0 && (
+                  <tr>
+                    <td colSpan={columns.length} className="py-6 text-center text-ink-muted">
+                      No rows match the filter.
+                    </td>
+                  </tr>
+                )}
+              </tbody>
+            </table>
+          </div>
+          {pages > 1 && (
+            <nav className="mt-2 flex items-center justify-between gap-2 text-sm text-ink-muted" aria-label={`${label} pages`}>
+              <span>
+                {filtered} rows · page {pageIndex + 1} of {pages}
+              </span>
+              <span className="flex gap-1">
+                <button type="button" className="btn btn-secondary px-3 py-1" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
+                  Previous
+                </button>
+                <button type="button" className="btn btn-secondary px-3 py-1" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
+                  Next
+                </button>
+              </span>
+            </nav>
+          )}
+        </>
+      )}
+    </div>
+  );
+}

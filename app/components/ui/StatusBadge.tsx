@@ -1,0 +1,38 @@
+// Job status and solver outcome as a small coloured label. The words are the API's own
+// status values, so what a script reads is what the page shows.
+const JOB_STYLE: Record<string, string> = {
+  queued: "bg-paper-sunk text-ink-soft",
+  running: "bg-info-wash text-info",
+  succeeded: "bg-ok-wash text-ok",
+  failed: "bg-bad-wash text-bad",
+  cancelled: "bg-paper-sunk text-ink-muted line-through decoration-ink-muted/40",
+};
+
+const OUTCOME_STYLE: Record<string, string> = {
+  optimal: "bg-ok-wash text-ok",
+  "not-converged": "bg-warn-wash text-warn",
+  infeasible: "bg-bad-wash text-bad",
+  failed: "bg-bad-wash text-bad",
+};
+
+export function StatusBadge({ status }: { status: string }) {
+  return (
+    <span className={`badge ${JOB_STYLE[status] ?? "bg-paper-sunk text-ink-soft"}`} data-status={status}>
+      {status}
+    </span>
+  );
+}
+
+export function OutcomeBadge({ outcome }: { outcome: string | null | undefined }) {
+  if (!outcome) return null;
+  return <span className={`badge ${OUTCOME_STYLE[outcome] ?? "bg-paper-sunk text-ink-soft"}`}>{outcome}</span>;
+}
+
+export function ReviewBadge({ decision }: { decision: string | null | undefined }) {
+  if (!decision) return <span className="badge bg-paper-sunk text-ink-muted">not reviewed</span>;
+  return decision === "approved" ? (
+    <span className="badge bg-ok-wash text-ok">approved</span>
+  ) : (
+    <span className="badge bg-warn-wash text-warn">changes requested</span>
+  );
+}

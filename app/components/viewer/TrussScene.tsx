@@ -1,0 +1,333 @@
+// The three.js scene of the viewer (client only: loaded lazily after mount). Members are one
+// InstancedMesh of unit cylinders, so a 2,500-member truss is a single draw call; overlays
+// (initial geometry, deformed shape) are line segments; supports are instanced cones and
+// loads arrows. The camera frames the truss on demand ("fit"); planar trusses get a 2D
+// projection (orthographic, pan and zoom only) unless the user asks for 3D.
+import { OrbitControls, OrthographicCamera, PerspectiveCamera } from "@react-three/drei";
+import { Canvas, useThree, type ThreeEvent } from "@react-three/fiber";
+import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
+import * as THREE from "three";
+import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
+import { cssColor, forceSense, SENSE_TOKENS, UTIL_BANDS, utilBandIndex } from "./palette";
+import { deformedPositions, upAxis, visualRadii, type TrussView, type Vec3 } from "./truss-view";
+
+export type ColourMode = "utilization" | "force" | "plain";
+
+export interface SceneSettings {
+  colourMode: ColourMode;
+  loadCase: number;
+  showInitial: boolean;
+  showDeformed: boolean;
+  deformationScale: number;
+  showLoads: boolean;
+  showSupports: boolean;
+  projection2d: boolean;
+  fitNonce: number; // bump to re-frame the camera
+}
+
+interface Props {
+  view: TrussView;
+  settings: SceneSettings;
+  onSelectMember?: (index: number | null) => void;
+  onContextLost?: () => void;
+}
+
+const Y_AXIS = new THREE.Vector3(0, 1, 0);
+
+export default function TrussScene({ view, settings, onSelectMember, onContextLost }: Props) {
+  const up = upAxis(view);
+  const ortho = view.planar && settings.projection2d;
+  const span = view.bounds.span;
+  return (
+    <Canvas
+      key={ortho ? "ortho" : "persp"}
+      frameloop="demand"
+      dpr={[1, 2]}
+      gl={{ antialias: true, preserveDrawingBuffer: true }}
+      onCreated={({ gl }) => {
+        gl.setClearColor(new THREE.Color(cssColor("--color-paper-raised", "#ffffff")));
+        gl.domElement.addEventListener("webglcontextlost", () => onContextLost?.());
+      }}
+      onPointerMissed={() => onSelectMember?.(null)}
+      data-testid="truss-canvas"
+    >
+      {ortho ? (
+        <OrthographicCamera makeDefault near={-span * 10} far={span * 10} position={[0, 0, span]} up={[0, 1, 0]} />
+      ) : (
+        <PerspectiveCamera makeDefault fov={40} near={span / 1000} far={span * 100} up={up === "z" ? [0, 0, 1] : [0, 1, 0]} />
+      )}
+      <ambientLight intensity={0.85} />
+      <directionalLight position={[1, 2, 3]} intensity={1.6} />
+      <directionalLight position={[-2, -1, -1]} intensity={0.5} />
+      <Members view={view} settings={settings} onSelect={onSelectMember} />
+      <Joints view={view} />
+      {settings.showInitial && view.hasResult && <InitialOverlay view={view} />}
+      {settings.showDeformed && view.hasResult && <DeformedOverlay view={view} settings={settings} />}
+      {settings.showSupports && <Supports view={view} />}
+      {settings.showLoads && <Loads view={view} loadCase={settings.loadCase} />}
+      <Framing view={view} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
+    </Canvas>
+  );
+}
+
+function memberColours(view: TrussView, settings: SceneSettings): THREE.Color[] {
+  const lc = view.loadCases[settings.loadCase];
+  const plain = new THREE.Color(cssColor("--color-ink-soft", "#3b4757"));
+  if (!view.hasResult || settings.colourMode === "plain") return view.members.map(() => plain);
+  if (settings.colourMode === "force") {
+    const cache = Object.fromEntries(
+      (Object.keys(SENSE_TOKENS) as (keyof typeof SENSE_TOKENS)[]).map((k) => [k, new THREE.Color(cssColor(SENSE_TOKENS[k].token))]),
+    );
+    return view.members.map((m) => cache[forceSense(m.force?.[lc?.id ?? ""] ?? 0, lc?.maxAbsForce ?? 0)]!);
+  }
+  const bands = UTIL_BANDS.map((b) => new THREE.Color(cssColor(b.token)));
+  return view.members.map((m) => (m.utilization === null ? plain : bands[utilBandIndex(m.utilization)]!));
+}
+
+/** Instance matrix of a unit cylinder (radius 1, height 1 along y) stretched from p to q. */
+function placeCylinder(target: THREE.Matrix4, p: Vec3, q: Vec3, radius: number) {
+  const a = new THREE.Vector3(...p);
+  const b = new THREE.Vector3(...q);
+  const dir = b.clone().sub(a);
+  const length = dir.length();
+  const rot = new THREE.Quaternion().setFromUnitVectors(Y_AXIS, length > 0 ? dir.divideScalar(length) : Y_AXIS);
+  target.compose(a.add(b).multiplyScalar(0.5), rot, new THREE.Vector3(radius, length || 1e-9, radius));
+}
+
+function Members({ view, settings, onSelect }: { view: TrussView; settings: SceneSettings; onSelect?: (i: number | null) => void }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const mesh = useMemo(() => {
+    // few radial segments: at 2,500 members the triangle count stays modest and members still read as round
+    const geometry = new THREE.CylinderGeometry(1, 1, 1, view.members.length > 1500 ? 6 : 10, 1, false);
+    const material = new THREE.MeshLambertMaterial({ color: 0xffffff });
+    const m = new THREE.InstancedMesh(geometry, material, Math.max(1, view.members.length));
+    m.count = view.members.length;
+    return m;
+  }, [view]);
+
+  useEffect(
+    () => () => {
+      mesh.geometry.dispose();
+      (mesh.material as THREE.Material).dispose();
+      mesh.dispose();
+    },
+    [mesh],
+  );
+
+  useLayoutEffect(() => {
+    const radii = visualRadii(view);
+    const mat = new THREE.Matrix4();
+    view.members.forEach((m, i) => {
+      placeCylinder(mat, view.nodes[m.a]!.position, view.nodes[m.b]!.position, radii[i]!);
+      mesh.setMatrixAt(i, mat);
+    });
+    mesh.instanceMatrix.needsUpdate = true;
+    mesh.computeBoundingSphere();
+    invalidate();
+  }, [mesh, view, invalidate]);
+
+  const colourKey = `${settings.colourMode}:${settings.loadCase}`;
+  useLayoutEffect(() => {
+    memberColours(view, settings).forEach((c, i) => mesh.setColorAt(i, c));
+    if (mesh.instanceColor) mesh.instanceColor.needsUpdate = true;
+    invalidate();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [mesh, view, colourKey, invalidate]);
+
+  return (
+    <primitive
+      object={mesh}
+      onClick={(e: ThreeEvent<MouseEvent>) => {
+        e.stopPropagation();
+        onSelect?.(e.instanceId ?? null);
+      }}
+    />
+  );
+}
+
+function Joints({ view }: { view: TrussView }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const mesh = useMemo(() => {
+    const m = new THREE.InstancedMesh(
+      new THREE.SphereGeometry(1, 8, 6),
+      new THREE.MeshLambertMaterial({ color: new THREE.Color(cssColor("--color-ink", "#16202c")) }),
+      Math.max(1, view.nodes.length),
+    );
+    m.count = view.nodes.length;
+    return m;
+  }, [view]);
+  useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
+  useLayoutEffect(() => {
+    const radii = visualRadii(view);
+    const r = (radii.length ? Math.max(...radii) : view.bounds.span * 0.005) * 1.25;
+    const mat = new THREE.Matrix4();
+    view.nodes.forEach((n, i) => {
+      mat.makeScale(r, r, r).setPosition(...n.position);
+      mesh.setMatrixAt(i, mat);
+    });
+    mesh.instanceMatrix.needsUpdate = true;
+    mesh.computeBoundingSphere();
+    invalidate();
+  }, [mesh, view, invalidate]);
+  return <primitive object={mesh} raycast={() => null} />;
+}
+
+function segmentsGeometry(view: TrussView, positions: Vec3[]): THREE.BufferGeometry {
+  const arr = new Float32Array(view.members.length * 6);
+  view.members.forEach((m, i) => {
+    arr.set(positions[m.a]!, i * 6);
+    arr.set(positions[m.b]!, i * 6 + 3);
+  });
+  const g = new THREE.BufferGeometry();
+  g.setAttribute("position", new THREE.BufferAttribute(arr, 3));
+  return g;
+}
+
+function InitialOverlay({ view }: { view: TrussView }) {
+  const obj = useMemo(() => {
+    const g = segmentsGeometry(view, view.nodes.map((n) => n.initial));
+    const line = new THREE.LineSegments(
+      g,
+      new THREE.LineDashedMaterial({ color: new THREE.Color(cssColor("--color-ink-muted")), dashSize: view.medianLength * 0.06, gapSize: view.medianLength * 0.04, transparent: true, opacity: 0.8 }),
+    );
+    line.computeLineDistances();
+    return line;
+  }, [view]);
+  useEffect(() => () => { obj.geometry.dispose(); (obj.material as THREE.Material).dispose(); }, [obj]);
+  return <primitive object={obj} raycast={() => null} />;
+}
+
+function DeformedOverlay({ view, settings }: { view: TrussView; settings: SceneSettings }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const obj = useMemo(
+    () => new THREE.LineSegments(segmentsGeometry(view, deformedPositions(view, settings.loadCase, settings.deformationScale)), new THREE.LineBasicMaterial({ color: new THREE.Color(cssColor("--color-brass-strong", "#9c6314")) })),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [view],
+  );
+  useEffect(() => () => { obj.geometry.dispose(); (obj.material as THREE.Material).dispose(); }, [obj]);
+  useLayoutEffect(() => {
+    const pos = deformedPositions(view, settings.loadCase, settings.deformationScale);
+    const attr = obj.geometry.getAttribute("position") as THREE.BufferAttribute;
+    view.members.forEach((m, i) => {
+      attr.setXYZ(i * 2, ...pos[m.a]!);
+      attr.setXYZ(i * 2 + 1, ...pos[m.b]!);
+    });
+    attr.needsUpdate = true;
+    obj.geometry.computeBoundingSphere();
+    invalidate();
+  }, [obj, view, settings.loadCase, settings.deformationScale, invalidate]);
+  return <primitive object={obj} raycast={() => null} />;
+}
+
+const AXIS_VECTORS: Record<string, THREE.Vector3> = {
+  x: new THREE.Vector3(1, 0, 0),
+  y: new THREE.Vector3(0, 1, 0),
+  z: new THREE.Vector3(0, 0, 1),
+};
+
+/** One small cone per restrained axis, its tip on the node, pointing along that axis. */
+function Supports({ view }: { view: TrussView }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const items = useMemo(() => view.nodes.flatMap((n) => n.fixed.map((axis) => ({ node: n, axis }))), [view]);
+  const mesh = useMemo(() => {
+    const geo = new THREE.ConeGeometry(0.5, 1, 12);
+    geo.translate(0, -0.5, 0); // tip at the origin, body below it
+    const m = new THREE.InstancedMesh(geo, new THREE.MeshLambertMaterial({ color: new THREE.Color(cssColor("--color-ok", "#2f7d5b")) }), Math.max(1, items.length));
+    m.count = items.length;
+    return m;
+  }, [items]);
+  useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
+  useLayoutEffect(() => {
+    const size = Math.min(view.bounds.span * 0.035, view.medianLength * 0.3);
+    const mat = new THREE.Matrix4();
+    items.forEach((it, i) => {
+      const q = new THREE.Quaternion().setFromUnitVectors(Y_AXIS, AXIS_VECTORS[it.axis]!);
+      mat.compose(new THREE.Vector3(...it.node.position), q, new THREE.Vector3(size, size, size));
+      mesh.setMatrixAt(i, mat);
+    });
+    mesh.instanceMatrix.needsUpdate = true;
+    mesh.computeBoundingSphere();
+    invalidate();
+  }, [mesh, items, view, invalidate]);
+  return <primitive object={mesh} raycast={() => null} />;
+}
+
+/** Load arrows of one load case, their heads on the node, length by magnitude. */
+function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
+  const group = useMemo(() => {
+    const g = new THREE.Group();
+    const lc = view.loadCases[loadCase];
+    if (!lc) return g;
+    const maxF = lc.loads.reduce((m, l) => Math.max(m, Math.hypot(...l.f)), 0);
+    if (!(maxF > 0)) return g;
+    const colour = new THREE.Color(cssColor("--color-info", "#2c5d8a"));
+    const longest = Math.min(view.bounds.span * 0.15, view.medianLength * 1.2);
+    for (const l of lc.loads) {
+      const mag = Math.hypot(...l.f);
+      if (!(mag > 0)) continue;
+      const len = longest * Math.max(0.25, mag / maxF);
+      const dir = new THREE.Vector3(...l.f).normalize();
+      const tip = new THREE.Vector3(...view.nodes[l.node]!.position);
+      const origin = tip.clone().addScaledVector(dir, -len);
+      g.add(new THREE.ArrowHelper(dir, origin, len, colour, len * 0.28, len * 0.14));
+    }
+    return g;
+  }, [view, loadCase]);
+  useEffect(
+    () => () =>
+      group.traverse((o) => {
+        const m = o as THREE.Mesh;
+        m.geometry?.dispose();
+        (m.material as THREE.Material | undefined)?.dispose?.();
+      }),
+    [group],
+  );
+  return <primitive object={group} raycast={() => null} />;
+}
+
+/** Frames the truss: on mount, on "fit" and when the view changes. */
+function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolean; up: "y" | "z"; fitNonce: number }) {
+  const camera = useThree((s) => s.camera);
+  const size = useThree((s) => s.size);
+  const invalidate = useThree((s) => s.invalidate);
+  const controls = useRef<OrbitControlsImpl>(null);
+
+  useLayoutEffect(() => {
+    const { min, max, center, span } = view.bounds;
+    const target = new THREE.Vector3(...center);
+    if (ortho && camera instanceof THREE.OrthographicCamera) {
+      const w = Math.max(max[0] - min[0], span * 0.05);
+      const h = Math.max(max[1] - min[1], span * 0.05);
+      camera.position.set(center[0], center[1], center[2] + span);
+      camera.zoom = 0.85 * Math.min(size.width / w, size.height / h);
+    } else if (camera instanceof THREE.PerspectiveCamera) {
+      // a three-quarter view from the front, slightly above
+      const dir = up === "z" ? new THREE.Vector3(0.9, -1.6, 0.8) : new THREE.Vector3(0.9, 0.7, 1.6);
+      const radius = span / 2;
+      const fov = (camera.fov * Math.PI) / 180;
+      const fit = Math.min(fov, 2 * Math.atan(Math.tan(fov / 2) * camera.aspect));
+      const distance = (radius / Math.sin(fit / 2)) * 1.05;
+      camera.position.copy(target).addScaledVector(dir.normalize(), distance);
+    }
+    camera.lookAt(target);
+    camera.updateProjectionMatrix();
+    if (controls.current) {
+      controls.current.target.copy(target);
+      controls.current.update();
+    }
+    invalidate();
+    // re-frame on explicit request or a new truss, not on every resize
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [view, ortho, up, fitNonce, camera]);
+
+  return (
+    <OrbitControls
+      ref={controls}
+      makeDefault
+      enableRotate={!ortho}
+      enableDamping={false}
+      screenSpacePanning
+      target={view.bounds.center}
+    />
+  );
+}

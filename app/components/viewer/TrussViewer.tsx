@@ -1,0 +1,205 @@
+// The 3D view of a truss with its controls and legend. The canvas is created only after the
+// page has mounted in a browser that offers WebGL (three.js cannot render on the server);
+// until then, and without WebGL, the box says what is happening instead of staying blank.
+import { Component, lazy, Suspense, useEffect, useMemo, useState, type ReactNode } from "react";
+import { fmtNum, fmtPercent } from "~/components/ui/format";
+import { Legend } from "./Legend";
+import type { ColourMode, SceneSettings } from "./TrussScene";
+import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike } from "./truss-view";
+
+const TrussScene = lazy(() => import("./TrussScene"));
+
+export function webglAvailable(): boolean {
+  try {
+    const c = document.createElement("canvas");
+    return !!(c.getContext("webgl2") || c.getContext("webgl"));
+  } catch {
+    return false;
+  }
+}
+
+class SceneBoundary extends Component<{ fallback: ReactNode; children: ReactNode }, { failed: boolean }> {
+  state = { failed: false };
+  static getDerivedStateFromError() {
+    return { failed: true };
+  }
+  render() {
+    return this.state.failed ? this.props.fallback : this.props.children;
+  }
+}
+
+interface Props {
+  model: ModelLike;
+  result?: ResultLike | null;
+  title?: string;
+  height?: string;
+}
+
+const SCALE_STEPS = 40; // slider positions, on a log scale around the default magnification
+
+export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]" }: Props) {
+  const view = useMemo(() => buildTrussView(model, result), [model, result]);
+  const [mounted, setMounted] = useState(false);
+  const [gl, setGl] = useState<boolean | null>(null);
+  const [lost, setLost] = useState(false);
+  const [selected, setSelected] = useState<number | null>(null);
+  const [loadCase, setLoadCase] = useState(0);
+  const baseScale = useMemo(() => defaultDeformationScale(view, loadCase), [view, loadCase]);
+  const [scaleStep, setScaleStep] = useState(SCALE_STEPS / 2);
+  const [settings, setSettings] = useState<Omit<SceneSettings, "loadCase" | "deformationScale">>({
+    colourMode: view.hasResult ? "utilization" : "plain",
+    showInitial: view.hasResult,
+    showDeformed: false,
+    showLoads: true,
+    showSupports: true,
+    projection2d: view.planar,
+    fitNonce: 0,
+  });
+
+  useEffect(() => {
+    setMounted(true);
+    setGl(webglAvailable());
+  }, []);
+
+  // slider position → magnification: centre = default, ends = default / 10 and × 10
+  const deformationScale = baseScale * Math.pow(10, (scaleStep - SCALE_STEPS / 2) / (SCALE_STEPS / 2));
+  const set = <K extends keyof typeof settings>(k: K, v: (typeof settings)[K]) => setSettings((s) => ({ ...s, [k]: v }));
+  const lc = view.loadCases[loadCase];
+  const sel = selected !== null ? view.members[selected] : undefined;
+  const units = view.units;
+
+  const fallback = (
+    <div className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-muted" role="status">
+      {lost
+        ? "The graphics context was lost (the browser reclaimed the GPU). Reload the page to draw the truss again; the tables below show every value."
+        : "This browser cannot draw 3D graphics here (WebGL is off or unavailable). The tables below show every member and node."}
+    </div>
+  );
+
+  return (
+    <section className="card p-0" aria-label={title} data-testid="truss-viewer">
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2 border-b border-rule px-4 py-3 text-sm">
+        <h2 className="mr-auto font-semibold">{title}</h2>
+        {view.hasResult && (
+          <label className="flex items-center gap-2">
+            <span className="text-ink-muted">Colour</span>
+            <select
+              className="field-input w-auto py-1"
+              value={settings.colourMode}
+              onChange={(e) => set("colourMode", e.target.value as ColourMode)}
+            >
+              <option value="utilization">utilization</option>
+              <option value="force">tension / compression</option>
+              <option value="plain">plain</option>
+            </select>
+          </label>
+        )}
+        {view.loadCases.length > 1 && (
+          <label className="flex items-center gap-2">
+            <span className="text-ink-muted">Load case</span>
+            <select className="field-input w-auto py-1" value={loadCase} onChange={(e) => setLoadCase(Number(e.target.value))}>
+              {view.loadCases.map((c, i) => (
+                <option key={c.id} value={i}>
+                  {c.name ? `${c.id} — ${c.name}` : c.id}
+                </option>
+              ))}
+            </select>
+          </label>
+        )}
+        {view.planar && (
+          <button type="button" className="btn btn-secondary px-3 py-1" onClick={() => set("projection2d", !settings.projection2d)} aria-pressed={!settings.projection2d}>
+            {settings.projection2d ? "Orbit in 3D" : "Flat 2D view"}
+          </button>
+        )}
+        <button type="button" className="btn btn-secondary px-3 py-1" onClick={() => set("fitNonce", settings.fitNonce + 1)}>
+          Fit to view
+        </button>
+      </div>
+
+      <div className="flex flex-wrap gap-x-5 gap-y-2 border-b border-rule px-4 py-2 text-sm">
+        {view.hasResult && (
+          <Toggle label={view.shapeChanged ? "initial geometry" : "initial outline"} checked={settings.showInitial} onChange={(v) => set("showInitial", v)} />
+        )}
+        {view.hasResult && <Toggle label="deformed shape" checked={settings.showDeformed} onChange={(v) => set("showDeformed", v)} />}
+        <Toggle label="loads" checked={settings.showLoads} onChange={(v) => set("showLoads", v)} />
+        <Toggle label="supports" checked={settings.showSupports} onChange={(v) => set("showSupports", v)} />
+        {view.hasResult && settings.showDeformed && (
+          <label className="flex min-w-56 flex-1 items-center gap-2">
+            <span className="whitespace-nowrap text-ink-muted">Magnify ×{fmtNum(deformationScale, 2)}</span>
+            <input
+              type="range"
+              min={0}
+              max={SCALE_STEPS}
+              step={1}
+              value={scaleStep}
+              onChange={(e) => setScaleStep(Number(e.target.value))}
+              className="w-full accent-[var(--color-brass)]"
+              aria-label="Deformation magnification"
+              aria-valuetext={`${fmtNum(deformationScale, 2)} times`}
+            />
+          </label>
+        )}
+      </div>
+
+      <div className={`relative ${height} bg-paper-raised`}>
+        {!mounted || gl === null ? (
+          <div className="flex h-full items-center justify-center text-sm text-ink-muted" role="status">
+            Preparing the 3D view…
+          </div>
+        ) : !gl || lost ? (
+          fallback
+        ) : (
+          <SceneBoundary fallback={fallback}>
+            <Suspense
+              fallback={
+                <div className="flex h-full items-center justify-center text-sm text-ink-muted" role="status">
+                  Loading the 3D view…
+                </div>
+              }
+            >
+              <TrussScene
+                view={view}
+                settings={{ ...settings, loadCase, deformationScale }}
+                onSelectMember={setSelected}
+                onContextLost={() => setLost(true)}
+              />
+            </Suspense>
+          </SceneBoundary>
+        )}
+        <p className="pointer-events-none absolute bottom-2 left-3 text-2xs text-ink-muted">
+          {view.planar && settings.projection2d ? "drag to pan · wheel to zoom" : "drag to orbit · right-drag to pan · wheel to zoom"}
+        </p>
+      </div>
+
+      <div className="flex flex-col gap-3 border-t border-rule px-4 py-3 text-sm sm:flex-row sm:items-start sm:justify-between">
+        <Legend mode={view.hasResult ? settings.colourMode : "plain"} showInitial={settings.showInitial && view.hasResult} showDeformed={settings.showDeformed && view.hasResult} />
+        <p className="text-ink-muted sm:text-right" aria-live="polite" data-testid="selected-member">
+          {sel ? (
+            <>
+              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): area {fmtNum(sel.area)}
+              {units ? ` ${units.length}²` : ""}
+              {sel.utilization !== null && <>, utilization {fmtPercent(sel.utilization)}</>}
+              {sel.force && lc && (
+                <>
+                  , force {fmtNum(sel.force[lc.id] ?? 0)}
+                  {units ? ` ${units.force}` : ""} in {lc.id}
+                </>
+              )}
+            </>
+          ) : (
+            `${view.members.length} members, ${view.nodes.length} nodes${view.planar ? ", planar" : ""}. Click a member for its values.`
+          )}
+        </p>
+      </div>
+    </section>
+  );
+}
+
+function Toggle({ label, checked, onChange }: { label: string; checked: boolean; onChange: (v: boolean) => void }) {
+  return (
+    <label className="flex cursor-pointer items-center gap-1.5">
+      <input type="checkbox" className="h-4 w-4 accent-[var(--color-brass)]" checked={checked} onChange={(e) => onChange(e.target.checked)} />
+      {label}
+    </label>
+  );
+}
