@@ -10,9 +10,15 @@ export default [
     route("sign-out", "routes/sign-out.tsx"),
     route("forgot-password", "routes/forgot-password.tsx"),
     route("reset-password", "routes/reset-password.tsx"),
+    route("account", "routes/account.tsx"),
+    route("projects", "routes/projects._index.tsx"),
+    route("admin/users", "routes/admin.users.tsx"),
+    route("admin/audit", "routes/admin.audit.tsx"),
   ]),
   ...prefix("api", [
     route("health", "routes/api/health.ts"),
     route("auth/*", "routes/api/auth.$.ts"),
+    route("projects", "routes/api/projects.ts"),
+    route("jobs/:jobId/reviews", "routes/api/jobs.$jobId.reviews.ts"),
   ]),
 ] satisfies RouteConfig;

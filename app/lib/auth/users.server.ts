@@ -1,0 +1,71 @@
+// Account administration: invitations with a role, role changes, suspension. Each change is
+// written to the audit trail with who did it and the before/after values.
+import { randomUUID } from "node:crypto";
+import { asc, desc, eq, isNull } from "drizzle-orm";
+import { db as defaultDb, type Db } from "~/db/client.server";
+import { invitations, session, user } from "~/db/schema";
+import { audit } from "./audit.server";
+import type { SessionUser } from "./authorize.server";
+import type { Role } from "./permissions";
+
+export type Outcome = { ok: true; message: string } | { ok: false; field?: string; message: string };
+
+export async function listUsers(database: Db = defaultDb()) {
+  return database
+    .select({ id: user.id, name: user.name, email: user.email, role: user.role, banned: user.banned, createdAt: user.createdAt })
+    .from(user)
+    .orderBy(asc(user.email));
+}
+
+export async function listOpenInvitations(database: Db = defaultDb()) {
+  return database.select().from(invitations).where(isNull(invitations.acceptedAt)).orderBy(desc(invitations.createdAt));
+}
+
+export async function inviteUser(
+  opts: { email: string; role: Role; by: SessionUser; request?: Request },
+  database: Db = defaultDb(),
+): Promise<Outcome> {
+  const email = opts.email.toLowerCase();
+  const existing = await database.query.user.findFirst({ where: eq(user.email, email) });
+  if (existing) return { ok: false, field: "email", message: `${email} has an account already; change its role in the list instead` };
+  // re-inviting replaces the role of an open invitation
+  await database
+    .insert(invitations)
+    .values({ id: randomUUID(), email, role: opts.role, invitedBy: opts.by.id })
+    .onConflictDoUpdate({ target: invitations.email, set: { role: opts.role, invitedBy: opts.by.id, acceptedAt: null } });
+  await audit({ request: opts.request, actor: opts.by, action: "user.invite", entityType: "invitation", entityId: email, detail: { role: opts.role } }, database);
+  return { ok: true, message: `${email} is invited as ${opts.role}. When they create an account with that address, it gets this role.` };
+}
+
+export async function changeRole(
+  opts: { userId: string; role: Role; by: SessionUser; request?: Request },
+  database: Db = defaultDb(),
+): Promise<Outcome> {
+  const target = await database.query.user.findFirst({ where: eq(user.id, opts.userId) });
+  if (!target) return { ok: false, message: `There is no account with id ${opts.userId}` };
+  if (target.id === opts.by.id) return { ok: false, message: "You cannot change your own role; ask another admin (this keeps the desk from losing its last admin)" };
+  if (target.role === opts.role) return { ok: true, message: `${target.email} is ${opts.role} already` };
+  await database.update(user).set({ role: opts.role, updatedAt: new Date() }).where(eq(user.id, target.id));
+  await audit(
+    { request: opts.request, actor: opts.by, action: "user.role-change", entityType: "user", entityId: target.id, detail: { email: target.email, from: target.role, to: opts.role } },
+    database,
+  );
+  return { ok: true, message: `${target.email} is now ${opts.role}` };
+}
+
+/** Suspend (ends every session at once; API keys stop working too) or restore an account. */
+export async function setBanned(
+  opts: { userId: string; banned: boolean; by: SessionUser; request?: Request },
+  database: Db = defaultDb(),
+): Promise<Outcome> {
+  const target = await database.query.user.findFirst({ where: eq(user.id, opts.userId) });
+  if (!target) return { ok: false, message: `There is no account with id ${opts.userId}` };
+  if (target.id === opts.by.id) return { ok: false, message: "You cannot suspend your own account" };
+  await database.update(user).set({ banned: opts.banned, banReason: opts.banned ? "suspended by an admin" : null, updatedAt: new Date() }).where(eq(user.id, target.id));
+  if (opts.banned) await database.delete(session).where(eq(session.userId, target.id));
+  await audit(
+    { request: opts.request, actor: opts.by, action: opts.banned ? "user.suspend" : "user.restore", entityType: "user", entityId: target.id, detail: { email: target.email } },
+    database,
+  );
+  return { ok: true, message: `${target.email} is ${opts.banned ? "suspended" : "restored"}` };
+}

@@ -1,0 +1,119 @@
+import { Form, data, useActionData, useNavigation } from "react-router";
+import { createApiKey, listApiKeys, revokeApiKey } from "~/lib/auth/api-keys.server";
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { apiKeySchema, fieldErrors, formObject } from "~/lib/auth/forms";
+import { ROLE_LABELS } from "~/lib/auth/permissions";
+import { TextField } from "~/lib/auth/text-field";
+import type { Route } from "./+types/account";
+
+export function meta() {
+  return [{ title: "Your account — Strutwise" }];
+}
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "manage:apikey:own");
+  const keys = await listApiKeys(user.id);
+  return {
+    user: { name: user.name, email: user.email, role: user.role },
+    keys: keys.map((k) => ({
+      id: k.id,
+      name: k.name,
+      prefix: k.prefix,
+      createdAt: k.createdAt.toISOString(),
+      lastUsedAt: k.lastUsedAt?.toISOString() ?? null,
+      revokedAt: k.revokedAt?.toISOString() ?? null,
+    })),
+  };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requirePermission(request, "manage:apikey:own");
+  const values = formObject(await request.formData());
+  if (values.intent === "create") {
+    const parsed = apiKeySchema.safeParse(values);
+    if (!parsed.success) return data({ newKey: null, message: "", errors: fieldErrors(parsed.error) }, { status: 400 });
+    const { key, info } = await createApiKey({ userId: user.id, email: user.email, name: parsed.data.name, request });
+    return { newKey: { key, name: info.name }, message: "", errors: {} as Record<string, string> };
+  }
+  if (values.intent === "revoke") {
+    const ok = await revokeApiKey({ id: values.keyId ?? "", actor: user, request });
+    return data(
+      { newKey: null, message: ok ? "The key is revoked; requests with it are refused from now on." : "That key is not yours, or is revoked already.", errors: {} as Record<string, string> },
+      { status: ok ? 200 : 404 },
+    );
+  }
+  return data({ newKey: null, message: "Unknown request", errors: {} as Record<string, string> }, { status: 400 });
+}
+
+const when = (iso: string | null) => (iso ? iso.replace("T", " ").slice(0, 16) : "—");
+
+export default function Account({ loaderData }: Route.ComponentProps) {
+  const { user, keys } = loaderData;
+  const result = useActionData<typeof action>();
+  const busy = useNavigation().state === "submitting";
+  const errors: Record<string, string | undefined> = result?.errors ?? {};
+  return (
+    <section className="max-w-4xl">
+      <h1 className="text-3xl font-semibold tracking-tight">Your account</h1>
+      <p className="mt-1 text-ink-soft">
+        {user.name} · <span className="font-mono text-sm">{user.email}</span> · {ROLE_LABELS[user.role]}
+      </p>
+
+      <h2 className="mt-8 text-xl font-semibold">API keys</h2>
+      <p className="mt-1 text-sm text-ink-soft">
+        For scripts: send <code className="font-mono">Authorization: Bearer &lt;key&gt;</code> to the /api routes. A key acts with
+        your role as it is at the moment of each request. We keep only a fingerprint of the key, so it is shown once.
+      </p>
+
+      {result?.newKey && (
+        <div className="caution mt-4" role="status">
+          <p className="font-semibold">Key "{result.newKey.name}" — copy it now, it is not shown again:</p>
+          <p className="mt-2"><code className="select-all break-all rounded bg-paper-raised px-2 py-1 font-mono text-sm" data-testid="new-api-key">{result.newKey.key}</code></p>
+        </div>
+      )}
+      {result?.message && <p role="status" className="mt-4 text-sm text-ink-soft">{result.message}</p>}
+
+      <Form method="post" className="card mt-4 flex flex-wrap items-end gap-3" noValidate>
+        <input type="hidden" name="intent" value="create" />
+        <div className="min-w-64 flex-1">
+          <TextField label="Key name" name="name" placeholder="e.g. span study laptop" error={errors.name} required />
+        </div>
+        <button type="submit" className="btn btn-primary" disabled={busy}>Create key</button>
+      </Form>
+
+      <div className="card mt-4 overflow-x-auto p-0">
+        {keys.length === 0 ? (
+          <p className="px-5 py-6 text-center text-ink-muted">No keys yet.</p>
+        ) : (
+          <table className="data-table">
+            <caption className="sr-only">Your API keys</caption>
+            <thead>
+              <tr><th scope="col">Name</th><th scope="col">Starts with</th><th scope="col">Created</th><th scope="col">Last used</th><th scope="col">State</th></tr>
+            </thead>
+            <tbody>
+              {keys.map((k) => (
+                <tr key={k.id}>
+                  <td>{k.name}</td>
+                  <td className="font-mono text-xs">{k.prefix}…</td>
+                  <td className="font-mono text-xs">{when(k.createdAt)}</td>
+                  <td className="font-mono text-xs">{when(k.lastUsedAt)}</td>
+                  <td>
+                    {k.revokedAt ? (
+                      <span className="text-xs text-ink-muted">revoked {when(k.revokedAt)}</span>
+                    ) : (
+                      <Form method="post">
+                        <input type="hidden" name="intent" value="revoke" />
+                        <input type="hidden" name="keyId" value={k.id} />
+                        <button type="submit" className="btn btn-danger px-2 py-1" disabled={busy} aria-label={`Revoke key ${k.name}`}>Revoke</button>
+                      </Form>
+                    )}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,129 @@
+import { Form, data, useActionData, useNavigation } from "react-router";
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { fieldErrors, formObject, inviteSchema, roleChangeSchema } from "~/lib/auth/forms";
+import { ROLE_LABELS, ROLES } from "~/lib/auth/permissions";
+import { changeRole, inviteUser, listOpenInvitations, listUsers, setBanned } from "~/lib/auth/users.server";
+import { TextField } from "~/lib/auth/text-field";
+import type { Route } from "./+types/admin.users";
+
+export function meta() {
+  return [{ title: "People and roles — Strutwise" }];
+}
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const me = await requirePermission(request, "manage:users");
+  const [users, invites] = await Promise.all([listUsers(), listOpenInvitations()]);
+  return {
+    meId: me.id,
+    users: users.map((u) => ({ ...u, createdAt: u.createdAt.toISOString() })),
+    invites: invites.map((i) => ({ email: i.email, role: i.role, createdAt: i.createdAt.toISOString() })),
+  };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const by = await requirePermission(request, "manage:users");
+  const values = formObject(await request.formData());
+  const intent = values.intent;
+  if (intent === "invite") {
+    const parsed = inviteSchema.safeParse(values);
+    if (!parsed.success) return data({ intent, ok: false, message: "", errors: fieldErrors(parsed.error) }, { status: 400 });
+    const res = await inviteUser({ ...parsed.data, by, request });
+    return data({ intent, ok: res.ok, message: res.message, errors: !res.ok && res.field ? { [res.field]: res.message } : {} }, { status: res.ok ? 200 : 400 });
+  }
+  if (intent === "role") {
+    const parsed = roleChangeSchema.safeParse(values);
+    if (!parsed.success) return data({ intent, ok: false, message: "Pick one of the four roles", errors: {} }, { status: 400 });
+    const res = await changeRole({ ...parsed.data, by, request });
+    return data({ intent, ok: res.ok, message: res.message, errors: {} }, { status: res.ok ? 200 : 400 });
+  }
+  if (intent === "suspend" || intent === "restore") {
+    const res = await setBanned({ userId: values.userId ?? "", banned: intent === "suspend", by, request });
+    return data({ intent, ok: res.ok, message: res.message, errors: {} }, { status: res.ok ? 200 : 400 });
+  }
+  return data({ intent, ok: false, message: `Unknown request "${intent ?? ""}"`, errors: {} }, { status: 400 });
+}
+
+export default function AdminUsers({ loaderData }: Route.ComponentProps) {
+  const { users, invites, meId } = loaderData;
+  const result = useActionData<typeof action>();
+  const busy = useNavigation().state === "submitting";
+  const errors: Record<string, string | undefined> = result?.errors ?? {};
+  return (
+    <section>
+      <h1 className="text-3xl font-semibold tracking-tight">People and roles</h1>
+      <p className="mt-1 text-ink-soft">Admins manage accounts; engineers produce runs; checkers review them; viewers read.</p>
+      {result?.message && (
+        <p role={result.ok ? "status" : "alert"} className={`mt-4 rounded-md px-3 py-2 text-sm ${result.ok ? "bg-ok-wash text-ok" : "bg-bad-wash text-bad"}`}>
+          {result.message}
+        </p>
+      )}
+      <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
+        <div className="card overflow-x-auto p-0">
+          <table className="data-table">
+            <caption className="sr-only">Accounts</caption>
+            <thead>
+              <tr><th scope="col">Name</th><th scope="col">E-mail</th><th scope="col">Role</th><th scope="col">State</th></tr>
+            </thead>
+            <tbody>
+              {users.map((u) => (
+                <tr key={u.id}>
+                  <td>{u.name}</td>
+                  <td className="font-mono text-xs">{u.email}</td>
+                  <td>
+                    {u.id === meId ? (
+                      <span>{ROLE_LABELS[u.role as keyof typeof ROLE_LABELS] ?? u.role} (you)</span>
+                    ) : (
+                      <Form method="post" className="flex items-center gap-2">
+                        <input type="hidden" name="intent" value="role" />
+                        <input type="hidden" name="userId" value={u.id} />
+                        <label className="sr-only" htmlFor={`role-${u.id}`}>Role of {u.email}</label>
+                        <select id={`role-${u.id}`} name="role" defaultValue={u.role} className="field-input w-32 py-1">
+                          {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+                        </select>
+                        <button type="submit" className="btn btn-secondary px-2 py-1" disabled={busy}>Save</button>
+                      </Form>
+                    )}
+                  </td>
+                  <td>
+                    {u.id !== meId && (
+                      <Form method="post">
+                        <input type="hidden" name="userId" value={u.id} />
+                        <button type="submit" name="intent" value={u.banned ? "restore" : "suspend"} className={`btn px-2 py-1 ${u.banned ? "btn-secondary" : "btn-danger"}`} disabled={busy}>
+                          {u.banned ? "Restore" : "Suspend"}
+                        </button>
+                      </Form>
+                    )}
+                    {u.banned && <span className="ml-2 text-xs text-bad">suspended</span>}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+        <div className="space-y-6">
+          <Form method="post" className="card space-y-4" noValidate aria-labelledby="invite-title">
+            <h2 id="invite-title" className="text-lg font-semibold">Invite someone</h2>
+            <input type="hidden" name="intent" value="invite" />
+            <TextField label="E-mail" name="email" type="email" error={errors.email} required />
+            <div>
+              <label htmlFor="invite-role" className="field-label">Role</label>
+              <select id="invite-role" name="role" defaultValue="engineer" className="field-input">
+                {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
+              </select>
+              {errors.role && <p className="field-error">{errors.role}</p>}
+            </div>
+            <button type="submit" className="btn btn-primary" disabled={busy}>Invite</button>
+          </Form>
+          {invites.length > 0 && (
+            <div className="card">
+              <h2 className="text-lg font-semibold">Open invitations</h2>
+              <ul className="mt-2 space-y-1 text-sm">
+                {invites.map((i) => <li key={i.email}><span className="font-mono text-xs">{i.email}</span> — {i.role}</li>)}
+              </ul>
+            </div>
+          )}
+        </div>
+      </div>
+    </section>
+  );
+}
