@@ -5,3 +5,4 @@ export { analyze, memberForces, internalForces, type Analysis, type AnalyzeOptio
 export { assembleStiffness, findMechanisms } from "./stiffness";
 export { MechanismError, type MechanismInfo } from "./mechanism";
 export { csrMultiply, csrGet, type CsrMatrix } from "./sparse/csr";
+export { complianceGradient, displacementGradient, stressGradient, volumeGradient, massGradient, type Gradient } from "./sensitivities";
