@@ -26,11 +26,18 @@ export async function makeUser(email: string, role: string, name = email.split("
 }
 
 /** A Cookie header value for a fresh session of that account. */
-export async function sessionCookie(email: string, password = PASSWORD, ip = "10.9.8.7"): Promise<string> {
+// each sign-in comes from its own made-up address, so the sign-in throttle (tested on its own
+// in brute-force.test.ts) does not trip while setting up accounts
+export async function sessionCookie(email: string, password = PASSWORD, ip = randomIp()): Promise<string> {
   const { callAuthEndpoint } = await import("~/lib/auth/auth.server");
   const res = await callAuthEndpoint(new Request("http://localhost/", { headers: { "x-forwarded-for": ip } }), "/sign-in/email", { email, password });
   if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.data)}`);
   return res.setCookies.map((c) => c.split(";")[0]).join("; ");
+}
+
+export function randomIp(): string {
+  const b = () => Math.floor(Math.random() * 254) + 1;
+  return `10.${b()}.${b()}.${b()}`;
 }
 
 export function req(path: string, init: RequestInit & { cookie?: string; key?: string } = {}): Request {
@@ -38,4 +45,33 @@ export function req(path: string, init: RequestInit & { cookie?: string; key?: s
   if (init.cookie) headers.set("cookie", init.cookie);
   if (init.key) headers.set("authorization", `Bearer ${init.key}`);
   return new Request(`http://localhost:4310${path}`, { ...init, headers });
+}
+
+/** A project, a model and a job row straight in the database (the queue is not needed here). */
+export async function makeJob(opts: { submittedBy: string; status?: "queued" | "running" | "succeeded" | "failed" | "cancelled"; code?: string }) {
+  const { db } = await import("~/db/client.server");
+  const { projects, models, jobs } = await import("~/db/schema");
+  const { randomUUID } = await import("node:crypto");
+  const projectId = randomUUID();
+  const modelId = randomUUID();
+  const jobId = randomUUID();
+  await db().insert(projects).values({ id: projectId, code: opts.code ?? `T-${projectId.slice(0, 6)}`, name: "Marsh Lane footbridge", createdBy: opts.submittedBy });
+  await db().insert(models).values({
+    id: modelId,
+    projectId,
+    name: "deck truss",
+    fileName: "deck.json",
+    fileKey: `models/${modelId}.json`,
+    sha256: "0".repeat(64),
+    sizeBytes: 10,
+    dimension: 2,
+    nodeCount: 3,
+    memberCount: 3,
+    hasDesign: true,
+    summary: {},
+    warnings: [],
+    uploadedBy: opts.submittedBy,
+  });
+  await db().insert(jobs).values({ id: jobId, projectId, modelId, submittedBy: opts.submittedBy, status: opts.status ?? "succeeded", options: {} });
+  return { projectId, modelId, jobId };
 }

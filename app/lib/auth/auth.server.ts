@@ -27,6 +27,8 @@ function createAuth(database: Db) {
   const limit = signInLimit();
   return betterAuth({
     appName: "Strutwise",
+    // failed passwords are expected traffic; keep test output to real errors
+    logger: { level: c.NODE_ENV === "test" ? "error" : "warn" },
     baseURL: c.APP_URL,
     basePath: "/api/auth",
     secret: c.BETTER_AUTH_SECRET,
