@@ -50,7 +50,7 @@ describe("sign-in throttle", () => {
       request: new Request("http://localhost:4310/sign-in", { method: "POST", body: form, headers: { "x-forwarded-for": "203.0.113.9" } }),
       params: {},
       context: {},
-    } as never)) as { init: { status: number }; data: { errors: { form: string } } };
+    } as never)) as unknown as { init: { status: number }; data: { errors: { form: string } } };
     expect(res.init.status).toBe(429);
     expect(res.data.errors.form).toMatch(/Too many sign-in attempts.*Wait \d+ seconds/);
   });
