@@ -1,0 +1,142 @@
+// Nested formulation: the optimizer sees only the design variables; every evaluation runs one
+// stiffness analysis (one factorization shared by all load cases) and the displacements are
+// eliminated. Gradients by the adjoint method: for a limit g(A, x, u) with K lambda = dg/du,
+//   dg/dp = dg/dp|_u - lambda^T d(K u)/dp        (loads do not depend on the design)
+// so each requested (screened) limit costs one extra solve with the same factorization;
+// limits that share a response (tension/compression/buckling of one member, +-u of one dof)
+// share that solve. Compliance is self-adjoint (lambda = u) and costs no solve at all.
+import { analyze, type Analysis } from "../truss";
+import type { SqpProblem } from "../sqp";
+import { adjointProduct, memberLengths } from "./element";
+import { Partials, limitPartials, limitValue, massPartials, objectiveValue, toDesign, type LimitState } from "./limits";
+import { designState, type DesignProblem } from "./problem";
+
+export interface Counters {
+  analyses: number; // stiffness factorizations (nested) or equilibrium evaluations (simultaneous)
+  solves: number; // adjoint solves with an existing factorization
+}
+
+interface NestedState extends LimitState {
+  analysis: Analysis;
+}
+
+export interface NestedFormulation {
+  problem: SqpProblem;
+  counters: Counters;
+  objectiveScale: number;
+  /** state of the last analysed design (areas, coordinates, displacements) */
+  stateAt(z: Float64Array): NestedState;
+}
+
+export function nestedFormulation(p: DesignProblem): NestedFormulation {
+  const s = p.structure;
+  const m = s.memberIds.length;
+  const counters: Counters = { analyses: 0, solves: 0 };
+  let cacheKey: Float64Array | null = null;
+  let cache: NestedState | null = null;
+
+  function stateAt(z: Float64Array): NestedState {
+    if (cacheKey && cache && sameVector(cacheKey, z, p.nDesign)) return cache;
+    const { areas, coords } = designState(p, z);
+    const analysis = analyze(s, { areas, coords });
+    counters.analyses++;
+    const lengths = memberLengths(s, coords);
+    let volume = 0;
+    for (let e = 0; e < m; e++) volume += areas[e] * lengths[e];
+    cache = { areas, coords, lengths, volume, displacements: analysis.displacements, analysis };
+    cacheKey = Float64Array.from(z.subarray(0, p.nDesign));
+    return cache;
+  }
+
+  const z0 = Float64Array.from(p.x0);
+  const f0 = objectiveValue(p, stateAt(z0));
+  const objectiveScale = f0 > 0 ? f0 : 1;
+  const part = new Partials();
+  const dv = new Float64Array(3), dU = new Float64Array(3), dL = new Float64Array(3), gd = new Float64Array(3);
+  const isShapeMember = new Uint8Array(m);
+  for (const e of p.shapeMembers) isShapeMember[e] = 1;
+
+  /** out -= factor * d(lambda^T K u)/d(design) for one load case's u and a lambda. */
+  function subtractAdjoint(st: NestedState, u: ArrayLike<number>, lambda: ArrayLike<number>, factor: number, out: Float64Array) {
+    for (let e = 0; e < m; e++) {
+      const i = 3 * s.start[e], j = 3 * s.end[e];
+      for (let a = 0; a < 3; a++) {
+        dv[a] = st.coords[j + a] - st.coords[i + a];
+        dU[a] = u[j + a] - u[i + a];
+        dL[a] = lambda[j + a] - lambda[i + a];
+      }
+      const shape = isShapeMember[e] === 1;
+      const dA = adjointProduct(st.areas[e], s.E[e], dv, dU, dL, shape ? gd : undefined);
+      const v = p.memberVar[e];
+      out[v] -= factor * dA * p.areaVars[v].scale;
+      if (shape) {
+        for (let a = 0; a < 3; a++) {
+          const g = factor * gd[a];
+          const lj = p.dofShape.get(j + a), li = p.dofShape.get(i + a);
+          if (lj) for (const t of lj) out[t.v] -= g * t.c;
+          if (li) for (const t of li) out[t.v] += g * t.c;
+        }
+      }
+    }
+  }
+
+  const problem: SqpProblem = {
+    n: p.nDesign,
+    x0: p.x0,
+    lower: p.lower,
+    upper: p.upper,
+    nEq: 0,
+    nIneq: p.limits.length,
+    evaluate(z) {
+      const st = stateAt(z);
+      const ineq = new Float64Array(p.limits.length);
+      for (let r = 0; r < p.limits.length; r++) ineq[r] = limitValue(p, p.limits[r], st);
+      return { f: objectiveValue(p, st) / objectiveScale, ineq };
+    },
+    derivatives(z, rows) {
+      const st = stateAt(z);
+      const grad = new Float64Array(p.nDesign);
+      if (p.objective === "mass") {
+        massPartials(p, st, part);
+        toDesign(p, part, grad);
+      } else {
+        for (let l = 0; l < s.loads.length; l++) subtractAdjoint(st, st.displacements[l], st.displacements[l], 1, grad);
+      }
+      for (let k = 0; k < grad.length; k++) grad[k] /= objectiveScale;
+
+      const ineq: Float64Array[] = [];
+      const lambdaCache = new Map<string, { lambda: Float64Array; ref: number }>();
+      const rhs = new Float64Array(s.coords.length);
+      for (let k = 0; k < rows.length; k++) {
+        const lim = p.limits[rows[k]];
+        const row = new Float64Array(p.nDesign);
+        limitPartials(p, lim, st, part);
+        toDesign(p, part, row);
+        if (part.uIdx.length > 0) {
+          const key = `${lim.loadCase}|${lim.member}|${lim.dof}`;
+          let entry = lambdaCache.get(key);
+          if (!entry) {
+            rhs.fill(0);
+            for (let t = 0; t < part.uIdx.length; t++) rhs[part.uIdx[t]] += part.uVal[t];
+            entry = { lambda: st.analysis.solve(rhs), ref: part.uVal[0] };
+            counters.solves++;
+            lambdaCache.set(key, entry);
+          }
+          subtractAdjoint(st, st.displacements[lim.loadCase], entry.lambda, part.uVal[0] / entry.ref, row);
+        }
+        ineq.push(row);
+      }
+      return { grad, ineq };
+    },
+    names: {
+      variables: [...p.areaVars.map((v) => `area:${v.id}`), ...p.shapeVars.map((v) => `shape:${v.id}`)],
+      ineq: (i) => p.limits[i]?.id ?? `limit ${i}`,
+    },
+  };
+  return { problem, counters, objectiveScale, stateAt };
+}
+
+function sameVector(a: Float64Array, b: Float64Array, n: number): boolean {
+  for (let i = 0; i < n; i++) if (a[i] !== b[i]) return false;
+  return true;
+}

@@ -1,0 +1,173 @@
+// optimizeModel: a validated model in, the result JSON of truss-format.md out. The solver runs
+// on one of the two formulations; everything reported about the final design (forces,
+// stresses, displacements, utilization, limits met) comes from a fresh re-analysis.
+import { buildStructure } from "../truss";
+import { minimize, type SqpOptions, type SqpResult } from "../sqp";
+import type { JobOptions } from "./options";
+import type { DesignModel } from "./model-shape";
+import type { TrussModel } from "../truss";
+import type { JobSummary, ResultMember, ResultNode, TrussResult, SolverStatus } from "./result-types";
+import { buildDesignProblem, designState, shapeValues, type DesignProblem } from "./problem";
+import { nestedFormulation } from "./nested";
+import { simultaneousFormulation } from "./simultaneous";
+import { reanalyze, VERIFY_TOLERANCE } from "./verify";
+import { activeConstraints, priceConstraints, shadowPrices } from "./shadow-prices";
+
+export const SOLVER_NAME = "strutwise-sqp";
+export const ENGINE_VERSION = "1.0.0";
+
+export interface DesignProgress {
+  iteration: number;
+  objective: number; // model units
+  maxViolation: number;
+  kktResidual: number;
+}
+
+export interface OptimizeOptions extends JobOptions {
+  signal?: AbortSignal;
+  onProgress?: (p: DesignProgress) => void;
+  timeLimitMs?: number;
+  /** override the automatic choices (tests and benchmarks) */
+  hessian?: "bfgs" | "lbfgs";
+  screening?: number | null;
+}
+
+/** Above this many variables the limited-memory quasi-Newton update is used. */
+const LBFGS_FROM = 400;
+/** Above this many limits only the near-active ones enter each subproblem. */
+const SCREEN_FROM = 200;
+/** Scaled activity threshold of the screening: limits with g > -0.5 (half-used) enter. */
+const SCREEN_THRESHOLD = 0.5;
+
+export interface PreparedRun {
+  design: DesignProblem;
+  formulation: "nested" | "simultaneous";
+  sqp: ReturnType<typeof nestedFormulation>["problem"];
+  sqpOptions: SqpOptions;
+  counters: { analyses: number; solves: number };
+  objectiveScale: number;
+}
+
+/** Builds the design problem and the solver problem without solving (benchmarks reuse it). */
+export function prepareRun(model: TrussModel | DesignModel, options: OptimizeOptions = {}): PreparedRun {
+  const structure = buildStructure(model as TrussModel);
+  const design = buildDesignProblem(model, structure, options);
+  const f = design.formulation === "nested" ? nestedFormulation(design) : simultaneousFormulation(design);
+  const n = f.problem.n;
+  const objectiveScale = f.objectiveScale;
+  const sqpOptions: SqpOptions = {
+    maxIterations: design.maxIterations,
+    tolerance: design.tolerance,
+    hessian: options.hessian ?? (n > LBFGS_FROM ? "lbfgs" : "bfgs"),
+    screening: options.screening === null ? undefined : (options.screening ?? (design.limits.length > SCREEN_FROM ? SCREEN_THRESHOLD : undefined)),
+    signal: options.signal,
+    timeLimitMs: options.timeLimitMs,
+    onProgress: options.onProgress
+      ? (pr) => options.onProgress!({ iteration: pr.iteration, objective: pr.f * objectiveScale, maxViolation: pr.maxViolation, kktResidual: pr.kktResidual })
+      : undefined,
+  };
+  return { design, formulation: design.formulation, sqp: f.problem, sqpOptions, counters: f.counters, objectiveScale };
+}
+
+export function optimizeModel(model: TrussModel | DesignModel, options: OptimizeOptions = {}): TrussResult {
+  const t0 = Date.now();
+  const run = prepareRun(model, options);
+  const r = minimize(run.sqp, run.sqpOptions);
+  return buildResult(run, r, Date.now() - t0);
+}
+
+/** The result JSON of a finished solver run. */
+export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): TrussResult {
+  const p = run.design;
+  const s = p.structure;
+  const z = r.x.subarray(0, p.nDesign);
+  const { areas, coords } = designState(p, z);
+  const re = reanalyze(p, areas, coords, Math.max(VERIFY_TOLERANCE, 10 * p.tolerance));
+  const a = re.analysis;
+  const objectiveFinal = p.objective === "mass" ? a.mass : a.compliance.reduce((x, y) => x + y, 0);
+  const start = designState(p, p.x0);
+  const objectiveInitial = run.objectiveScale;
+  void start;
+
+  let status: SolverStatus = r.status;
+  let message = r.message;
+  let hint = r.hint;
+  if (status === "optimal" && !re.verification.allLimitsMet) {
+    const f = re.verification.failures[0];
+    status = "not-converged";
+    message = `The optimizer stopped at a point the independent re-analysis rejects: ${f.id} is at ${(100 * f.ratio).toFixed(2)}% of its limit.`;
+    hint = "Tighten the tolerance or raise the iteration limit and run again.";
+  }
+
+  const priced = priceConstraints(p, r, run.objectiveScale);
+  const members: ResultMember[] = s.memberIds.map((id, e) => {
+    const force: Record<string, number> = {};
+    const stress: Record<string, number> = {};
+    s.loadCaseIds.forEach((lc, l) => {
+      force[lc] = a.forces[l][e];
+      stress[lc] = a.stresses[l][e];
+    });
+    const mm = p.model.members[e];
+    return {
+      id, start: mm.start, end: mm.end, ...(mm.group ? { group: mm.group } : {}),
+      area: areas[e], length: a.lengths[e], force, stress,
+      utilization: re.members[e].utilization, governing: re.members[e].governing,
+    };
+  });
+  const nodes: ResultNode[] = s.nodeIds.map((id, i) => {
+    const displacement: Record<string, [number, number, number]> = {};
+    s.loadCaseIds.forEach((lc, l) => {
+      const u = a.displacements[l];
+      displacement[lc] = [u[3 * i], u[3 * i + 1], u[3 * i + 2]];
+    });
+    const fixed = (p.model.nodes[i].fixed ?? []).slice();
+    return {
+      id, x: coords[3 * i], y: coords[3 * i + 1], z: coords[3 * i + 2],
+      initial: { x: p.coords0[3 * i], y: p.coords0[3 * i + 1], z: p.coords0[3 * i + 2] },
+      fixed, displacement,
+    };
+  });
+
+  return {
+    format: "strutwise.result",
+    version: 1,
+    model: p.model.name,
+    units: { ...p.model.units },
+    status,
+    message,
+    hint,
+    formulation: run.formulation,
+    objective: { kind: p.objective, initial: objectiveInitial, final: objectiveFinal },
+    iterations: r.iterations,
+    analyses: run.counters.analyses,
+    kktResidual: r.kktResidual,
+    maxViolation: r.maxViolation,
+    volume: a.volume,
+    mass: a.mass,
+    members,
+    nodes,
+    loadCases: p.model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}) })),
+    variables: shapeValues(p, z),
+    activeConstraints: activeConstraints(priced),
+    shadowPrices: shadowPrices(p, priced, objectiveFinal, run.objectiveScale),
+    verification: re.verification,
+    history: r.history.map((h) => ({
+      iteration: h.iteration,
+      objective: h.f * run.objectiveScale,
+      maxViolation: h.maxViolation,
+      kktResidual: h.kktResidual,
+    })),
+    solver: { name: SOLVER_NAME, version: ENGINE_VERSION, elapsedMs },
+  };
+}
+
+export function summarizeResult(result: TrussResult): JobSummary {
+  return {
+    objectiveKind: result.objective.kind,
+    objectiveInitial: result.objective.initial,
+    objectiveFinal: result.objective.final,
+    iterations: result.iterations,
+    maxUtilization: result.verification?.maxUtilization ?? Math.max(0, ...result.members.map((m) => m.utilization)),
+    status: result.status,
+  };
+}

@@ -1,0 +1,141 @@
+// Shadow prices: the solver's multipliers converted back into model units.
+//
+// The solver minimizes F = f / f0 subject to ratio limits g = r / limit - 1 <= 0 (problem.ts).
+// At the optimum dF*/d(limit) = -mu dg/d(limit) = -mu r / limit^2 = -mu (1 + g) / limit, so
+// relaxing a limit by one model unit lowers the objective by about
+//   price = f0 mu (1 + g) / limit        [objective units per limit unit].
+// Area and shape bounds in scaled variables z = A / A_ref: price = f0 mu / A_ref.
+// The dimensionless mu itself is the relative change of F per relative relaxation (times
+// f0 / f*), which is what ranks the limits by how much they cost.
+import type { SqpResult } from "../sqp";
+import type { ActiveConstraint, ShadowPrice } from "./result-types";
+import type { DesignProblem, Limit } from "./problem";
+
+/** multipliers below this (scaled, dimensionless) count as zero */
+const MULTIPLIER_FLOOR = 1e-9;
+/** a limit with |g| below this counts as active even when its multiplier is zero */
+const ACTIVE_GAP = 1e-6;
+
+export interface PricedConstraint {
+  id: string;
+  scaled: number; // solver multiplier (dimensionless)
+  price: number; // objective saved per unit relaxation, model units
+  unit: string;
+  what: string; // plain words for the limit
+  relaxUnit: string;
+}
+
+function limitWords(p: DesignProblem, lim: Limit): { what: string; relaxUnit: string } {
+  const s = p.structure;
+  const u = p.model.units;
+  const stress = `${u.force}/${u.length}²`;
+  const lc = lim.loadCase >= 0 ? s.loadCaseIds[lim.loadCase] : "";
+  switch (lim.kind) {
+    case "stress-tension":
+      return { what: `tension stress allowance of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
+    case "stress-compression":
+      return { what: `compression stress allowance of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
+    case "buckling":
+      return { what: `Euler buckling stress of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
+    case "displacement":
+      return {
+        what: `deflection limit at node ${s.nodeIds[Math.floor(lim.dof / 3)]} (${"xyz"[lim.dof % 3]}) in load case ${lc}`,
+        relaxUnit: u.length,
+      };
+    case "volume":
+      return { what: "material volume limit", relaxUnit: `${u.length}³` };
+    case "length":
+      return { what: `shortest allowed length of member ${s.memberIds[lim.member]}`, relaxUnit: u.length };
+  }
+}
+
+export function objectiveUnit(p: DesignProblem): string {
+  return p.objective === "mass" ? p.model.units.mass : `${p.model.units.force}·${p.model.units.length}`;
+}
+
+/** The priced active limits and bounds, most expensive (largest scaled multiplier) first. */
+export function priceConstraints(p: DesignProblem, r: SqpResult, objectiveScale: number): PricedConstraint[] {
+  const out = new Map<string, PricedConstraint>();
+  const objUnit = objectiveUnit(p);
+  const add = (id: string, scaled: number, price: number, what: string, relaxUnit: string) => {
+    const prev = out.get(id);
+    if (prev) {
+      prev.scaled += scaled;
+      prev.price += price;
+    } else {
+      out.set(id, { id, scaled, price, unit: `${objUnit} per ${relaxUnit}`, what, relaxUnit });
+    }
+  };
+  p.limits.forEach((lim, k) => {
+    const mu = Math.max(0, r.multipliers.ineq[k] ?? 0);
+    const g = r.ineq[k];
+    if (!(mu > MULTIPLIER_FLOOR) && !(Math.abs(g) < ACTIVE_GAP)) return;
+    const words = limitWords(p, lim);
+    let scaleLimit = lim.limit;
+    if (lim.kind === "buckling") {
+      // the limit is the Euler stress of the final member: price per unit of it
+      const A = p.areaVars[p.memberVar[lim.member]].scale * r.x[p.memberVar[lim.member]];
+      const L = memberLengthAt(p, r.x, lim.member);
+      const b = p.buckling!;
+      scaleLimit = (Math.PI * Math.PI * p.structure.E[lim.member] * b.sectionRatio * A) / (b.k * b.k * L * L);
+    }
+    const price = mu > MULTIPLIER_FLOOR ? (objectiveScale * mu * (1 + g)) / scaleLimit : 0;
+    add(lim.id, mu > MULTIPLIER_FLOOR ? mu : 0, price, words.what, words.relaxUnit);
+  });
+  const areaUnit = `${p.model.units.length}²`;
+  p.areaVars.forEach((v, k) => {
+    const lo = Math.max(0, r.multipliers.lower[k] ?? 0);
+    const hi = Math.max(0, r.multipliers.upper[k] ?? 0);
+    if (lo > MULTIPLIER_FLOOR) add(`area-min:${v.id}`, lo, (objectiveScale * lo) / v.scale, `minimum area of ${v.id}`, areaUnit);
+    if (hi > MULTIPLIER_FLOOR) add(`area-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, `maximum area of ${v.id}`, areaUnit);
+  });
+  const nA = p.areaVars.length;
+  p.shapeVars.forEach((v, k) => {
+    const lo = Math.max(0, r.multipliers.lower[nA + k] ?? 0);
+    const hi = Math.max(0, r.multipliers.upper[nA + k] ?? 0);
+    const len = p.model.units.length;
+    if (lo > MULTIPLIER_FLOOR) add(`shape-min:${v.id}`, lo, (objectiveScale * lo) / v.scale, `lower end of shape variable ${v.id}`, len);
+    if (hi > MULTIPLIER_FLOOR) add(`shape-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, `upper end of shape variable ${v.id}`, len);
+  });
+  return [...out.values()].sort((a, b) => b.scaled - a.scaled || a.id.localeCompare(b.id));
+}
+
+function memberLengthAt(p: DesignProblem, x: Float64Array, e: number): number {
+  const s = p.structure;
+  const nA = p.areaVars.length;
+  const c = (dof: number) => {
+    let v = p.coords0[dof];
+    for (const t of p.dofShape.get(dof) ?? []) v += t.c * x[t.v];
+    return v;
+  };
+  let L2 = 0;
+  for (let a = 0; a < 3; a++) {
+    const d = c(3 * s.end[e] + a) - c(3 * s.start[e] + a);
+    L2 += d * d;
+  }
+  void nA;
+  return Math.sqrt(L2);
+}
+
+export function activeConstraints(priced: PricedConstraint[]): ActiveConstraint[] {
+  return priced.map((c) => ({ id: c.id, multiplier: c.price }));
+}
+
+const fmt = (v: number) => (v === 0 ? "0" : Math.abs(v) >= 1e-3 && Math.abs(v) < 1e5 ? Number(v.toPrecision(3)).toString() : v.toExponential(2));
+
+/** Shadow prices with a plain-words sentence for the three that cost most. */
+export function shadowPrices(p: DesignProblem, priced: PricedConstraint[], objectiveFinal: number, objectiveScale: number): ShadowPrice[] {
+  const objUnit = objectiveUnit(p);
+  const noun = p.objective === "mass" ? "material" : "compliance";
+  return priced
+    .filter((c) => c.scaled > 0)
+    .map((c, rank) => {
+      const share = objectiveFinal > 0 ? (100 * c.scaled * objectiveScale) / objectiveFinal : 0;
+      const sentence =
+        rank < 3
+          ? `The ${c.what} governs: allowing 1 ${c.relaxUnit} more would save about ${fmt(c.price)} ${objUnit} of ${noun}` +
+            ` (1% more allowance saves about ${fmt(share / 100)}% of the total).`
+          : "";
+      return { constraint: c.id, multiplier: c.price, unit: c.unit, sentence };
+    });
+}

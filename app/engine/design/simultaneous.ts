@@ -1,0 +1,299 @@
+// Simultaneous formulation: the displacements of every load case are optimization variables
+// beside the design variables, and equilibrium K(A, x) u = f is an equality constraint per free
+// degree of freedom and load case. No stiffness solve happens inside the optimizer; an
+// evaluation is one element loop.
+//
+// Variables: z = [design (scaled as in problem.ts) | w_1 | ... | w_nLc], u = u_ref,l * w_l on the
+//   free dofs, u_ref,l = largest starting displacement of load case l.
+// Equalities: r = ((K u)_q - f_q) / f_ref,l, f_ref,l = largest load of case l.
+// Jacobian: exact and sparse (SparseRow). Equilibrium is linear in u and bilinear in (A, u),
+//   so a row of node q holds only the areas, the displacements and the shape variables of the
+//   members meeting at q: about (members per node) x (2 dim + 1) entries. The sparsity
+//   pattern is fixed, built once, and refilled by one element loop per evaluation, so the cost
+//   of an evaluation grows with the member count, never with the square of the dof count.
+// Curvature: the SQP solver's quasi-Newton update (options.hessian, limited memory for large
+//   models) learns the bilinear (A, u) coupling; nothing in this module stores a dense matrix.
+// Start: the displacements of one stiffness analysis at the starting design, so the first
+//   iterate is in equilibrium and the limit values start exactly as in the nested formulation.
+import { analyze } from "../truss";
+import type { SparseRow, SqpProblem } from "../sqp";
+import { internalForceByGeometry, memberLengths } from "./element";
+import { Partials, limitPartials, limitValue, massPartials, objectiveValue, type LimitState } from "./limits";
+import { designState, type DesignProblem } from "./problem";
+import type { Counters } from "./nested";
+
+const AXIS = ["x", "y", "z"];
+
+export interface SimultaneousFormulation {
+  problem: SqpProblem;
+  counters: Counters;
+  objectiveScale: number;
+  nFree: number;
+  /** design variables + displacements (full nNodes*3 vectors) of a point */
+  stateAt(z: Float64Array): LimitState;
+}
+
+export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulation {
+  const s = p.structure;
+  const m = s.memberIds.length;
+  const nLc = s.loads.length;
+  const nDof = s.coords.length;
+  const nD = p.nDesign;
+  const counters: Counters = { analyses: 0, solves: 0 };
+
+  const freeIndex = new Int32Array(nDof).fill(-1);
+  const freeDofs: number[] = [];
+  for (let q = 0; q < nDof; q++) if (!s.fixed[q]) { freeIndex[q] = freeDofs.length; freeDofs.push(q); }
+  const nFree = freeDofs.length;
+
+  // Start: one analysis at the starting design.
+  const start = designState(p, p.x0);
+  const a0 = analyze(s, { areas: start.areas, coords: start.coords });
+  counters.analyses++;
+  const uRef = new Float64Array(nLc), fRef = new Float64Array(nLc);
+  for (let l = 0; l < nLc; l++) {
+    let um = 0, fm = 0;
+    for (const q of freeDofs) {
+      um = Math.max(um, Math.abs(a0.displacements[l][q]));
+      fm = Math.max(fm, Math.abs(s.loads[l][q]));
+    }
+    uRef[l] = um > 0 ? um : 1;
+    fRef[l] = fm > 0 ? fm : 1;
+  }
+  const n = nD + nLc * nFree;
+  const x0 = new Float64Array(n);
+  x0.set(p.x0);
+  for (let l = 0; l < nLc; l++) {
+    for (let k = 0; k < nFree; k++) x0[nD + l * nFree + k] = a0.displacements[l][freeDofs[k]] / uRef[l];
+  }
+  const lower = new Float64Array(n).fill(-Infinity);
+  const upper = new Float64Array(n).fill(Infinity);
+  lower.set(p.lower);
+  upper.set(p.upper);
+
+  // Sparsity pattern of the equilibrium rows (the same for every load case, w columns shifted).
+  // Columns are kept as "design column" (< nD) or "nD + free index" for load case 0.
+  const rowCols: number[][] = Array.from({ length: nFree }, () => []);
+  const dofsOf = (e: number) => {
+    const i = 3 * s.start[e], j = 3 * s.end[e];
+    return [i, i + 1, i + 2, j, j + 1, j + 2];
+  };
+  const shapeColsOfDof = (q: number) => (p.dofShape.get(q) ?? []).map((t) => t.v);
+  const isShapeMember = new Uint8Array(m);
+  for (const e of p.shapeMembers) isShapeMember[e] = 1;
+  for (let e = 0; e < m; e++) {
+    const dofs = dofsOf(e);
+    const shapeCols = isShapeMember[e] ? dofs.flatMap(shapeColsOfDof) : [];
+    for (const q of dofs) {
+      const r = freeIndex[q];
+      if (r < 0) continue;
+      rowCols[r].push(p.memberVar[e], ...shapeCols);
+      for (const q2 of dofs) if (freeIndex[q2] >= 0) rowCols[r].push(nD + freeIndex[q2]);
+    }
+  }
+  const patternIndex: Int32Array[] = [];
+  const rowPos: Map<number, number>[] = [];
+  for (let r = 0; r < nFree; r++) {
+    const cols = [...new Set(rowCols[r])].sort((a, b) => a - b);
+    patternIndex.push(Int32Array.from(cols));
+    rowPos.push(new Map(cols.map((c, k) => [c, k])));
+  }
+  // Per member and local row (6), the value positions of its area column and u columns (6x6).
+  const posA = new Int32Array(m * 6).fill(-1);
+  const posU = new Int32Array(m * 36).fill(-1);
+  for (let e = 0; e < m; e++) {
+    const dofs = dofsOf(e);
+    for (let a = 0; a < 6; a++) {
+      const r = freeIndex[dofs[a]];
+      if (r < 0) continue;
+      posA[e * 6 + a] = rowPos[r].get(p.memberVar[e])!;
+      for (let b = 0; b < 6; b++) {
+        const c = freeIndex[dofs[b]];
+        if (c >= 0) posU[e * 36 + a * 6 + b] = rowPos[r].get(nD + c)!;
+      }
+    }
+  }
+
+  function stateAt(z: Float64Array): LimitState {
+    const { areas, coords } = designState(p, z);
+    const lengths = memberLengths(s, coords);
+    let volume = 0;
+    for (let e = 0; e < m; e++) volume += areas[e] * lengths[e];
+    const displacements: Float64Array[] = [];
+    for (let l = 0; l < nLc; l++) {
+      const u = new Float64Array(nDof);
+      const off = nD + l * nFree;
+      for (let k = 0; k < nFree; k++) u[freeDofs[k]] = uRef[l] * z[off + k];
+      displacements.push(u);
+    }
+    return { areas, coords, lengths, volume, displacements };
+  }
+
+  const f0 = objectiveValue(p, stateAt(x0));
+  const objectiveScale = f0 > 0 ? f0 : 1;
+  const part = new Partials();
+  const dv = new Float64Array(3), dU = new Float64Array(3), G = new Float64Array(9);
+
+  function memberForce(st: LimitState, e: number, u: Float64Array): number {
+    // returns A E (d.du) / L^3 and leaves d in dv, du in dU
+    const i = 3 * s.start[e], j = 3 * s.end[e];
+    for (let a = 0; a < 3; a++) {
+      dv[a] = st.coords[j + a] - st.coords[i + a];
+      dU[a] = u[j + a] - u[i + a];
+    }
+    const L = st.lengths[e];
+    return (st.areas[e] * s.E[e] * (dv[0] * dU[0] + dv[1] * dU[1] + dv[2] * dU[2])) / (L * L * L);
+  }
+
+  function sparseFrom(map: Map<number, number>): SparseRow {
+    const cols = [...map.keys()].sort((a, b) => a - b);
+    const index = Int32Array.from(cols);
+    const value = new Float64Array(cols.length);
+    cols.forEach((c, k) => (value[k] = map.get(c)!));
+    return { index, value };
+  }
+
+  function designColumns(part: Partials, map: Map<number, number>) {
+    for (let k = 0; k < part.aIdx.length; k++) {
+      const v = p.memberVar[part.aIdx[k]];
+      map.set(v, (map.get(v) ?? 0) + part.aVal[k] * p.areaVars[v].scale);
+    }
+    for (let k = 0; k < part.xIdx.length; k++) {
+      const list = p.dofShape.get(part.xIdx[k]);
+      if (!list) continue;
+      for (const { v, c } of list) map.set(v, (map.get(v) ?? 0) + part.xVal[k] * c);
+    }
+  }
+
+  const problem: SqpProblem = {
+    n,
+    x0,
+    lower,
+    upper,
+    nEq: nLc * nFree,
+    nIneq: p.limits.length,
+    evaluate(z) {
+      counters.analyses++;
+      const st = stateAt(z);
+      const eq = new Float64Array(nLc * nFree);
+      for (let l = 0; l < nLc; l++) {
+        const u = st.displacements[l] as Float64Array;
+        const f = s.loads[l];
+        const off = l * nFree;
+        for (let k = 0; k < nFree; k++) eq[off + k] = -f[freeDofs[k]];
+        for (let e = 0; e < m; e++) {
+          const c = memberForce(st, e, u);
+          const i = 3 * s.start[e], j = 3 * s.end[e];
+          for (let a = 0; a < 3; a++) {
+            const pj = c * dv[a];
+            const rj = freeIndex[j + a], ri = freeIndex[i + a];
+            if (rj >= 0) eq[off + rj] += pj;
+            if (ri >= 0) eq[off + ri] -= pj;
+          }
+        }
+        for (let k = 0; k < nFree; k++) eq[off + k] /= fRef[l];
+      }
+      const ineq = new Float64Array(p.limits.length);
+      for (let r = 0; r < p.limits.length; r++) ineq[r] = limitValue(p, p.limits[r], st);
+      return { f: objectiveValue(p, st) / objectiveScale, eq, ineq };
+    },
+    derivatives(z, rows) {
+      const st = stateAt(z);
+      const grad = new Float64Array(n);
+      if (p.objective === "mass") {
+        massPartials(p, st, part);
+        const map = new Map<number, number>();
+        designColumns(part, map);
+        for (const [c, v] of map) grad[c] = v / objectiveScale;
+      } else {
+        for (let l = 0; l < nLc; l++) {
+          const off = nD + l * nFree;
+          for (let k = 0; k < nFree; k++) grad[off + k] = (s.loads[l][freeDofs[k]] * uRef[l]) / objectiveScale;
+        }
+      }
+
+      // Equilibrium rows.
+      const eq: SparseRow[] = [];
+      for (let l = 0; l < nLc; l++) {
+        const u = st.displacements[l] as Float64Array;
+        const vals = patternIndex.map((ix) => new Float64Array(ix.length));
+        const wScale = uRef[l] / fRef[l];
+        for (let e = 0; e < m; e++) {
+          const c = memberForce(st, e, u);
+          const L = st.lengths[e];
+          const k0 = (st.areas[e] * s.E[e]) / (L * L * L);
+          const dofs = dofsOf(e);
+          const vA = p.areaVars[p.memberVar[e]].scale;
+          for (let a = 0; a < 6; a++) {
+            const r = freeIndex[dofs[a]];
+            if (r < 0) continue;
+            const ra = a % 3;
+            const sa = a < 3 ? -1 : 1; // p_i = -p_j
+            const row = vals[r];
+            row[posA[e * 6 + a]] += (sa * c * dv[ra] * vA) / (st.areas[e] * fRef[l]);
+            for (let b = 0; b < 6; b++) {
+              const pos = posU[e * 36 + a * 6 + b];
+              if (pos < 0) continue;
+              const sb = b < 3 ? -1 : 1;
+              row[pos] += sa * sb * k0 * dv[ra] * dv[b % 3] * wScale;
+            }
+          }
+          if (isShapeMember[e]) {
+            internalForceByGeometry(st.areas[e], s.E[e], dv, dU, G);
+            for (let a = 0; a < 6; a++) {
+              const r = freeIndex[dofs[a]];
+              if (r < 0) continue;
+              const ra = a % 3;
+              const sa = a < 3 ? -1 : 1;
+              for (let b = 0; b < 6; b++) {
+                const list = p.dofShape.get(dofs[b]);
+                if (!list) continue;
+                const sb = b < 3 ? -1 : 1; // d = x_j - x_i
+                const g = (sa * sb * G[3 * ra + (b % 3)]) / fRef[l];
+                for (const t of list) vals[r][rowPos[r].get(t.v)!] += g * t.c;
+              }
+            }
+          }
+        }
+        const shift = l * nFree;
+        for (let r = 0; r < nFree; r++) {
+          const ix = patternIndex[r];
+          const index = shift === 0 ? ix : ix.map((c) => (c >= nD ? c + shift : c));
+          eq.push({ index, value: vals[r] });
+        }
+      }
+
+      // Requested limits.
+      const ineq: SparseRow[] = [];
+      for (let k = 0; k < rows.length; k++) {
+        const lim = p.limits[rows[k]];
+        limitPartials(p, lim, st, part);
+        const map = new Map<number, number>();
+        designColumns(part, map);
+        if (part.uIdx.length) {
+          const off = nD + lim.loadCase * nFree;
+          const sc = uRef[lim.loadCase];
+          for (let t = 0; t < part.uIdx.length; t++) {
+            const c = off + freeIndex[part.uIdx[t]];
+            map.set(c, (map.get(c) ?? 0) + part.uVal[t] * sc);
+          }
+        }
+        ineq.push(sparseFrom(map));
+      }
+      return { grad, eq, ineq };
+    },
+    names: {
+      variables: [
+        ...p.areaVars.map((v) => `area:${v.id}`),
+        ...p.shapeVars.map((v) => `shape:${v.id}`),
+        ...s.loadCaseIds.flatMap((lc) => freeDofs.map((q) => `u:${s.nodeIds[Math.floor(q / 3)]}:${AXIS[q % 3]}:${lc}`)),
+      ],
+      eq: (i) => {
+        const l = Math.floor(i / nFree), q = freeDofs[i % nFree];
+        return `equilibrium:${s.nodeIds[Math.floor(q / 3)]}:${AXIS[q % 3]}:${s.loadCaseIds[l]}`;
+      },
+      ineq: (i) => p.limits[i]?.id ?? `limit ${i}`,
+    },
+  };
+  return { problem, counters, objectiveScale, nFree, stateAt };
+}
