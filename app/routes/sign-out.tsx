@@ -1,7 +1,7 @@
 import { Form, redirect } from "react-router";
 import { audit } from "~/lib/auth/audit.server";
 import { callAuthEndpoint, cookieHeaders } from "~/lib/auth/auth.server";
-import { getUser } from "~/lib/auth/authorize.server";
+import { requireUser } from "~/lib/auth/authorize.server";
 import type { Route } from "./+types/sign-out";
 
 export function meta() {
@@ -9,17 +9,16 @@ export function meta() {
 }
 
 export async function loader({ request }: Route.LoaderArgs) {
-  const user = await getUser(request);
-  if (!user) throw redirect("/sign-in");
+  const user = await requireUser(request);
   return { email: user.email };
 }
 
 // Signing out is a POST (a link or an image tag must not be able to do it).
 export async function action({ request }: Route.ActionArgs) {
-  const user = await getUser(request);
+  const user = await requireUser(request);
   const res = await callAuthEndpoint(request, "/sign-out", {});
-  if (user && user.via === "session") await audit({ actor: user, action: "auth.sign-out", entityType: "user", entityId: user.id });
-  throw redirect("/sign-in", { headers: cookieHeaders(res.setCookies) });
+  if (user.via === "session") await audit({ actor: user, action: "auth.sign-out", entityType: "user", entityId: user.id });
+  throw redirect("/sign-in?signedOut=1", { headers: cookieHeaders(res.setCookies) });
 }
 
 export default function SignOut({ loaderData }: Route.ComponentProps) {

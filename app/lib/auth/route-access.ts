@@ -1,0 +1,76 @@
+// Who may call each route of app/routes.ts, as data. tests/auth/route-matrix.test.ts calls
+// every route with every role and an anonymous caller and checks the outcome against this
+// table; a route of app/routes.ts without an entry here fails that test.
+//
+// Keys: the URL pattern as routes.ts builds it ("/api/jobs/:jobId/reviews"; parameter names
+// do not matter), or "layout:<file>" for a pathless layout. Values per HTTP method:
+//   "public"     anyone, signed in or not
+//   "signed-in"  any signed-in role; anonymous callers are sent to sign in (pages) or get 401
+//   Role[]       only these roles; other roles get 403, anonymous callers as above
+// A page without a loader can only be "public" for GET (nothing on the server guards it).
+import type { Role } from "./permissions";
+
+export type Access = "public" | "signed-in" | readonly Role[];
+export type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
+
+const ALL: readonly Role[] = ["admin", "engineer", "checker", "viewer"];
+const PRODUCERS: readonly Role[] = ["admin", "engineer"];
+const CHECKERS: readonly Role[] = ["admin", "checker"];
+const ADMIN: readonly Role[] = ["admin"];
+
+export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
+  "layout:routes/shell.tsx": { GET: "public" }, // says who is signed in; pages guard themselves
+  "/": { GET: "public" },
+
+  // sign-in and account recovery
+  "/sign-in": { GET: "public", POST: "public" },
+  "/sign-up": { GET: "public", POST: "public" },
+  "/sign-out": { GET: "signed-in", POST: "signed-in" },
+  "/forgot-password": { GET: "public", POST: "public" },
+  "/reset-password": { GET: "public", POST: "public" },
+  "/api/auth/*": { GET: "public", POST: "public" }, // better-auth's endpoints check for themselves
+
+  // the signed-in person's own things
+  "/account": { GET: ALL, POST: ALL },
+
+  // administration
+  "/admin/users": { GET: ADMIN, POST: ADMIN },
+  "/admin/audit": { GET: ADMIN },
+
+  // projects
+  "/projects": { GET: ALL, POST: PRODUCERS },
+  "/api/projects": { GET: ALL, POST: PRODUCERS },
+
+  // API of api.md (entries stand ready for routes other parts add)
+  "/api/health": { GET: "public" },
+  "/api/models": { POST: PRODUCERS },
+  "/api/models/:id": { GET: ALL },
+  "/api/models/:id/file": { GET: ALL },
+  "/api/jobs": { GET: ALL, POST: PRODUCERS },
+  "/api/jobs/:id": { GET: ALL },
+  "/api/jobs/:id/cancel": { POST: PRODUCERS }, // and then only the submitter, unless admin
+  "/api/jobs/:id/result": { GET: ALL },
+  "/api/jobs/:id/reviews": { GET: ALL, POST: CHECKERS }, // and never on one's own job
+  "/api/jobs/:id/report": { GET: ALL },
+
+  // pages of other parts
+  "/jobs/:id": { GET: ALL, POST: "signed-in" }, // actions inside check review/cancel rights
+};
+
+/** "/api/jobs/:jobId/reviews" and "/api/jobs/:id/reviews" are the same route. */
+export function normalizePattern(pattern: string): string {
+  return pattern.replace(/:[^/]+/g, ":param").replace(/\/+$/, "") || "/";
+}
+
+export function accessFor(pattern: string): Partial<Record<Method, Access>> | undefined {
+  const want = normalizePattern(pattern);
+  for (const [k, v] of Object.entries(ROUTE_ACCESS)) if (normalizePattern(k) === want) return v;
+  return undefined;
+}
+
+export function allows(access: Access, role: Role | null): boolean {
+  if (access === "public") return true;
+  if (role === null) return false;
+  if (access === "signed-in") return true;
+  return access.includes(role);
+}
