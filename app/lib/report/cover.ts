@@ -1,0 +1,101 @@
+// The cover page: what was computed, by whom, from which file, and its review state, followed
+// by the cautions and the record of review decisions.
+import { CAUTION_TEXT, CAUTION_TITLE } from "./cautions";
+import { num, utc } from "./format";
+import type { ReportWriter } from "./layout";
+import { BAD, BAD_WASH, BRASS, BRASS_WASH, INK, INK_MUTED, INK_SOFT, OK, OK_WASH, WARN, WARN_WASH } from "./palette";
+import { reviewState, type ReportData } from "./report-data";
+import { table } from "./tables";
+
+const STATUS_WORDS: Record<string, string> = {
+  optimal: "optimal: the solver met its optimality and feasibility tolerances",
+  "not-converged": "not converged: the solver stopped before meeting its tolerances",
+  infeasible: "infeasible: no design within the bounds meets every limit",
+  failed: "failed: the solver could not complete",
+};
+
+export function statusWords(status: string): string {
+  return STATUS_WORDS[status] ?? status;
+}
+
+function box(w: ReportWriter, color: string, wash: string, title: string, lines: string[]) {
+  const doc = w.doc;
+  const innerW = w.width - 24;
+  const h = 22 + lines.reduce((s, l) => s + w.paragraphHeight(l, { size: 9, width: innerW }) + 3, 0) + 8;
+  w.ensure(h + 6);
+  const y = w.y;
+  doc.rect(w.left, y, w.width, h).fill(wash);
+  doc.rect(w.left, y, 4, h).fill(color);
+  w.line("sans-bold", 10, title, w.left + 14, y + 8, { color });
+  w.y = y + 24;
+  for (const l of lines) w.paragraph(l, { size: 9, x: w.left + 14, width: innerW, gap: 3, color: INK_SOFT });
+  w.y = y + h + 10;
+}
+
+export function reviewBox(w: ReportWriter, data: ReportData) {
+  const state = reviewState(data.reviews);
+  if (state.kind === "not-reviewed") {
+    box(w, BAD, BAD_WASH, "NOT REVIEWED", [
+      "No checker has approved this calculation yet. It must not be issued or relied on until an independent checker has reviewed and approved it.",
+    ]);
+  } else if (state.kind === "changes-requested") {
+    box(w, WARN, WARN_WASH, "CHANGES REQUESTED — NOT APPROVED", [
+      `Checked by ${state.review.reviewer} on ${utc(state.review.at)}, who returned it with changes requested.`,
+      `Comment: ${state.review.comment || "(none)"}`,
+    ]);
+  } else {
+    box(w, OK, OK_WASH, "APPROVED", [
+      `Checked and approved by ${state.review.reviewer} on ${utc(state.review.at)}.`,
+      `Comment: ${state.review.comment || "(none)"}`,
+    ]);
+  }
+}
+
+export function cautionsBox(w: ReportWriter) {
+  box(w, BRASS, BRASS_WASH, CAUTION_TITLE, [CAUTION_TEXT]);
+}
+
+export function coverPage(w: ReportWriter, data: ReportData) {
+  const { job, project, model, result } = data;
+  w.y = 96;
+  w.line("sans", 10, "STRUTWISE · CALCULATION RECORD", w.left, w.y, { color: INK_MUTED });
+  w.y += 18;
+  w.paragraph("Truss optimization", { face: "sans-bold", size: 24, gap: 2 });
+  w.paragraph(model.name, { face: "sans", size: 15, color: INK_SOFT, gap: 16 });
+
+  const solver = result.solver ? `${result.solver.name} ${result.solver.version}` : "not recorded in the result";
+  w.facts([
+    ["Project", `${project.code} — ${project.name}`],
+    ...(project.client ? ([["Client", project.client]] as [string, string][]) : []),
+    ["Model", `${model.name} (file ${model.fileName}, ${num(model.sizeBytes / 1024, 3)} KiB)`],
+    ["Job", job.id],
+    ["Submitted by", job.submitter ?? "unknown"],
+    ["Queued", utc(job.createdAt)],
+    ["Started", utc(job.startedAt)],
+    ["Finished", utc(job.finishedAt)],
+    ["Solver", `${solver}${result.formulation ? `, ${result.formulation} formulation` : ""}`],
+    ["Result", statusWords(result.status)],
+    ["Report generated", utc(data.generatedAt)],
+  ]);
+  w.facts([["Input file SHA-256", model.sha256]], { monoValues: true, size: 8 });
+  w.space(6);
+  reviewBox(w, data);
+  cautionsBox(w);
+
+  if (data.reviews.length > 0) {
+    w.line("sans-semibold", 9.5, "Review record", w.left, w.y, { color: INK });
+    w.y += 14;
+    w.paragraph("Decisions are kept in the order they were made; the latest one sets the state of this report.", { size: 8, color: INK_MUTED });
+    table(
+      w,
+      [
+        { header: "When", weight: 2.9 },
+        { header: "Checker", weight: 2.4 },
+        { header: "Decision", weight: 2 },
+        { header: "Comment", weight: 6 },
+      ],
+      data.reviews.map((r) => [utc(r.at), r.reviewer, r.decision === "approved" ? "approved" : "changes requested", r.comment]),
+    );
+  }
+  w.doc.fillColor(INK);
+}

@@ -1,0 +1,140 @@
+// Fonts shipped from npm (@fontsource): IBM Plex Sans for text, Roboto Mono for figures.
+// Fontsource splits each face per Unicode subset and pdfkit embeds one file per font name,
+// so every subset is registered under its own name and text is cut into runs, each run set
+// in the first subset whose declared unicode-range holds its characters (stack.md pitfall 10).
+import fs from "node:fs";
+import { createRequire } from "node:module";
+import path from "node:path";
+
+export type Face = "sans" | "sans-semibold" | "sans-bold" | "sans-italic" | "mono";
+
+interface FaceFiles {
+  pkg: "@fontsource/ibm-plex-sans" | "@fontsource/roboto-mono";
+  weight: number;
+  style: "normal" | "italic";
+  /** subsets tried in order; the mono face falls back to the sans subsets for letters it lacks */
+  subsets: string[];
+  fallback?: Face;
+}
+
+const FACES: Record<Face, FaceFiles> = {
+  sans: { pkg: "@fontsource/ibm-plex-sans", weight: 400, style: "normal", subsets: ["latin", "latin-ext", "greek"] },
+  "sans-semibold": { pkg: "@fontsource/ibm-plex-sans", weight: 600, style: "normal", subsets: ["latin", "latin-ext", "greek"] },
+  "sans-bold": { pkg: "@fontsource/ibm-plex-sans", weight: 700, style: "normal", subsets: ["latin", "latin-ext", "greek"] },
+  "sans-italic": { pkg: "@fontsource/ibm-plex-sans", weight: 400, style: "italic", subsets: ["latin", "latin-ext", "greek"] },
+  mono: { pkg: "@fontsource/roboto-mono", weight: 400, style: "normal", subsets: ["latin", "latin-ext", "greek"], fallback: "sans" },
+};
+
+// Characters no shipped subset holds, written in words or ASCII instead of a missing glyph.
+const SUBSTITUTES: Record<string, string> = {
+  "→": "->",
+  "←": "<-",
+  "≤": "<=",
+  "≥": ">=",
+  "≈": "~",
+  "✓": "ok",
+  "✗": "x",
+  "∞": "inf",
+  "√": "sqrt",
+};
+
+interface Subset {
+  name: string; // the pdfkit font name
+  bytes: Buffer;
+  ranges: [number, number][];
+}
+
+const require = createRequire(import.meta.url);
+function packageDir(pkg: string): string {
+  return path.dirname(require.resolve(`${pkg}/package.json`));
+}
+
+/** unicode-range of each subset file, read from the package's own CSS. */
+function subsetRanges(pkgDir: string, cssFile: string): Map<string, [number, number][]> {
+  const css = fs.readFileSync(path.join(pkgDir, cssFile), "utf8");
+  const out = new Map<string, [number, number][]>();
+  for (const block of css.split("@font-face").slice(1)) {
+    const file = block.match(/url\(\.\/files\/([\w-]+)\.woff2\)/)?.[1];
+    const range = block.match(/unicode-range:\s*([^;]+);/)?.[1];
+    if (!file || !range) continue;
+    out.set(
+      file,
+      range.split(",").map((part) => {
+        const [a, b] = part.trim().replace(/^U\+/i, "").split("-");
+        const lo = parseInt(a!, 16);
+        return [lo, b ? parseInt(b, 16) : lo] as [number, number];
+      }),
+    );
+  }
+  return out;
+}
+
+let loaded: Map<Face, Subset[]> | undefined;
+function faces(): Map<Face, Subset[]> {
+  if (loaded) return loaded;
+  const map = new Map<Face, Subset[]>();
+  for (const [face, spec] of Object.entries(FACES) as [Face, FaceFiles][]) {
+    const dir = packageDir(spec.pkg);
+    const cssFile = `${spec.weight}${spec.style === "italic" ? "-italic" : ""}.css`;
+    const ranges = subsetRanges(dir, cssFile);
+    const family = path.basename(spec.pkg);
+    const subsets: Subset[] = [];
+    for (const sub of spec.subsets) {
+      const base = `${family}-${sub}-${spec.weight}-${spec.style}`;
+      const file = path.join(dir, "files", `${base}.woff`);
+      const r = ranges.get(base);
+      if (!r || !fs.existsSync(file)) continue;
+      subsets.push({ name: `${face}:${sub}`, bytes: fs.readFileSync(file), ranges: r });
+    }
+    if (subsets.length === 0) throw new Error(`No font files found for ${family} ${spec.weight} ${spec.style}`);
+    map.set(face, subsets);
+  }
+  loaded = map;
+  return map;
+}
+
+export function registerFonts(doc: PDFKit.PDFDocument): void {
+  for (const subsets of faces().values()) for (const s of subsets) doc.registerFont(s.name, s.bytes);
+}
+
+const covers = (s: Subset, cp: number) => s.ranges.some(([lo, hi]) => cp >= lo && cp <= hi);
+
+const fontOfChar = new Map<string, string | null>();
+function fontFor(face: Face, ch: string): string | null {
+  const key = face + ch;
+  let hit = fontOfChar.get(key);
+  if (hit !== undefined) return hit;
+  const cp = ch.codePointAt(0)!;
+  hit = null;
+  for (let f: Face | undefined = face; f && hit === null; f = FACES[f].fallback) {
+    hit = faces().get(f)!.find((s) => covers(s, cp))?.name ?? null;
+  }
+  fontOfChar.set(key, hit);
+  return hit;
+}
+
+export interface Run {
+  font: string;
+  text: string;
+}
+
+const ASCII_PRINTABLE = /^[\x20-\x7e]*$/;
+
+/** Cut a text into runs of one font subset each; characters no subset has are substituted. */
+export function runs(face: Face, text: string): Run[] {
+  const first = faces().get(face)![0]!.name;
+  if (ASCII_PRINTABLE.test(text)) return [{ font: first, text }];
+  const out: Run[] = [];
+  for (const raw of text) {
+    let ch = raw;
+    let font = fontFor(face, ch);
+    if (!font) {
+      ch = SUBSTITUTES[raw] ?? "?";
+      font = first;
+    }
+    const last = out[out.length - 1];
+    if (last && last.font === font) last.text += ch;
+    else out.push({ font, text: ch });
+  }
+  return out;
+}

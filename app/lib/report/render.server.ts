@@ -1,0 +1,156 @@
+// renderReport(jobId): the calculation record of a succeeded job, generated from the stored
+// result and model file, and cached in the bucket under the job and its review state (the
+// latest review id), so a new decision yields a new report and repeat downloads are free.
+import { asc, eq } from "drizzle-orm";
+import { db } from "~/db/client.server";
+import { jobs, models, projects, reviews, user } from "~/db/schema";
+import type { TrussResult } from "~/engine/design/result-types";
+import { getObject, getText, putObject } from "~/lib/storage.server";
+import { buildReportPdf } from "./document";
+import type { ModelFile, ReportData } from "./report-data";
+
+// Bump when the layout changes, so cached reports of the old layout are not served.
+const LAYOUT_VERSION = 1;
+
+export class ReportError extends Error {
+  constructor(
+    readonly status: 404 | 409 | 500,
+    message: string,
+  ) {
+    super(message);
+    this.name = "ReportError";
+  }
+}
+
+export async function loadReportData(jobId: string): Promise<ReportData> {
+  const rows = await db()
+    .select({ job: jobs, model: models, project: projects, submitterName: user.name, submitterEmail: user.email })
+    .from(jobs)
+    .innerJoin(models, eq(models.id, jobs.modelId))
+    .innerJoin(projects, eq(projects.id, jobs.projectId))
+    .leftJoin(user, eq(user.id, jobs.submittedBy))
+    .where(eq(jobs.id, jobId))
+    .limit(1);
+  const row = rows[0];
+  if (!row) throw new ReportError(404, `Job ${jobId} not found`);
+  const { job, model, project } = row;
+  if (job.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${job.status}; a report exists only for a job that succeeded`);
+  if (!job.resultKey) throw new ReportError(409, `Job ${jobId} succeeded but has no stored result`);
+
+  const resultText = await getText(job.resultKey);
+  if (resultText === null) throw new ReportError(500, `The stored result of job ${jobId} is missing from the bucket (${job.resultKey})`);
+  let result: TrussResult;
+  try {
+    result = JSON.parse(resultText) as TrussResult;
+  } catch {
+    throw new ReportError(500, `The stored result of job ${jobId} is not valid JSON`);
+  }
+  if (result.format !== "strutwise.result" || !Array.isArray(result.members) || !Array.isArray(result.nodes))
+    throw new ReportError(500, `The stored result of job ${jobId} is not a Strutwise result file`);
+
+  // the model file adds connectivity, supports and the design block; the report still says
+  // what it can without it
+  let file: ModelFile | null = null;
+  const modelText = await getText(model.fileKey).catch(() => null);
+  if (modelText) {
+    try {
+      file = JSON.parse(modelText) as ModelFile;
+    } catch {
+      file = null;
+    }
+  }
+
+  const reviewRows = await db()
+    .select({ review: reviews, name: user.name, email: user.email })
+    .from(reviews)
+    .innerJoin(user, eq(user.id, reviews.reviewerId))
+    .where(eq(reviews.jobId, jobId))
+    .orderBy(asc(reviews.createdAt), asc(reviews.id));
+
+  return {
+    job: {
+      id: job.id,
+      status: job.status,
+      options: (job.options as Record<string, unknown>) ?? {},
+      createdAt: job.createdAt,
+      startedAt: job.startedAt,
+      finishedAt: job.finishedAt,
+      submitter: row.submitterEmail ? `${row.submitterName || row.submitterEmail} <${row.submitterEmail}>` : null,
+      attempts: job.attempts,
+    },
+    project: { code: project.code, name: project.name, client: project.client },
+    model: { id: model.id, name: model.name, fileName: model.fileName, sha256: model.sha256, sizeBytes: model.sizeBytes, uploadedAt: model.createdAt, file },
+    result,
+    reviews: reviewRows.map((r) => ({
+      id: r.review.id,
+      decision: r.review.decision,
+      comment: r.review.comment,
+      reviewer: r.name || r.email,
+      at: r.review.createdAt,
+    })),
+    generatedAt: new Date(),
+  };
+}
+
+export function reportCacheKey(jobId: string, latestReviewId: string | null): string {
+  return `reports/${jobId}/v${LAYOUT_VERSION}-${latestReviewId ?? "not-reviewed"}.pdf`;
+}
+
+/** A download name: project code, model name and job id, in safe characters. */
+export function reportFileName(projectCode: string, modelName: string, jobId: string): string {
+  const slug = (s: string) =>
+    s
+      .normalize("NFKD")
+      .replace(/[\u0300-\u036f]/g, "")
+      .replace(/[^A-Za-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 60);
+  return `${[slug(projectCode), slug(modelName), "job", slug(jobId)].filter(Boolean).join("-")}.pdf`;
+}
+
+export interface RenderedReport {
+  bytes: Uint8Array;
+  fileName: string;
+  cacheKey: string;
+  cached: boolean;
+}
+
+export async function renderReportFile(jobId: string): Promise<RenderedReport> {
+  const latest = await db()
+    .select({ id: reviews.id })
+    .from(reviews)
+    .where(eq(reviews.jobId, jobId))
+    .orderBy(asc(reviews.createdAt), asc(reviews.id));
+  const latestId = latest.length ? latest[latest.length - 1]!.id : null;
+  const key = reportCacheKey(jobId, latestId);
+  const facts = await db()
+    .select({ status: jobs.status, code: projects.code, modelName: models.name })
+    .from(jobs)
+    .innerJoin(models, eq(models.id, jobs.modelId))
+    .innerJoin(projects, eq(projects.id, jobs.projectId))
+    .where(eq(jobs.id, jobId))
+    .limit(1);
+  const f = facts[0];
+  if (!f) throw new ReportError(404, `Job ${jobId} not found`);
+  if (f.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${f.status}; a report exists only for a job that succeeded`);
+  const fileName = reportFileName(f.code, f.modelName, jobId);
+
+  const hit = await getObject(key);
+  if (hit && hit.byteLength > 0) return { bytes: hit, fileName, cacheKey: key, cached: true };
+
+  const data = await loadReportData(jobId);
+  const bytes = await buildReportPdf(data);
+  // a decision made while this report was being gathered is in it: file it under that state
+  const storedKey = reportCacheKey(jobId, data.reviews[data.reviews.length - 1]?.id ?? null);
+  try {
+    await putObject(storedKey, bytes, "application/pdf");
+  } catch (e) {
+    // a full or unreachable bucket costs the cache, not the download
+    console.error(`[report] could not cache the report of job ${jobId}: ${e instanceof Error ? e.message : String(e)}`);
+  }
+  return { bytes, fileName, cacheKey: storedKey, cached: false };
+}
+
+export async function renderReport(jobId: string): Promise<Uint8Array> {
+  return (await renderReportFile(jobId)).bytes;
+}

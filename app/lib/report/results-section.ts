@@ -1,0 +1,126 @@
+// Section 3, results: the solver's outcome, the convergence plot, the drawing of the optimized
+// truss, member and node tables per load case, and the shape variables' final values.
+import { convergencePlot } from "./convergence-plot";
+import { statusWords } from "./cover";
+import { num, pct, sci } from "./format";
+import type { ReportWriter } from "./layout";
+import { BAD, COMPRESSION, INK, INK_MUTED, TENSION, UTIL_BANDS, utilBand } from "./palette";
+import type { ReportData } from "./report-data";
+import { chunks, table } from "./tables";
+import { drawingInput, trussDrawing } from "./truss-drawing";
+import { objectiveUnit, unitLabels } from "./units";
+
+export function loadCaseIds(data: ReportData): { id: string; name?: string }[] {
+  if (data.result.loadCases?.length) return data.result.loadCases;
+  if (data.model.file?.loadCases?.length) return data.model.file.loadCases.map((l) => ({ id: l.id, name: l.name }));
+  const ids = new Set<string>();
+  for (const m of data.result.members) for (const k of Object.keys(m.force)) ids.add(k);
+  return [...ids].map((id) => ({ id }));
+}
+
+export function resultsSection(w: ReportWriter, data: ReportData) {
+  const r = data.result;
+  const u = unitLabels(r.units);
+  const objUnit = objectiveUnit(r.objective.kind, r.units);
+  w.newPage();
+  w.heading("3  Results");
+  const change = r.objective.initial !== 0 ? (r.objective.final - r.objective.initial) / Math.abs(r.objective.initial) : Number.NaN;
+  const facts: [string, string][] = [
+    ["Status", statusWords(r.status)],
+    ["Solver message", r.message],
+  ];
+  if (r.hint) facts.push(["What to try", r.hint]);
+  facts.push(
+    [`Objective (${r.objective.kind}, ${objUnit})`, `initial ${num(r.objective.initial, 5)}, final ${num(r.objective.final, 5)} (${Number.isFinite(change) ? `${change > 0 ? "+" : ""}${pct(change)}` : "no change figure"})`],
+    ["Iterations", `${r.iterations} iterations, ${r.analyses} analyses`],
+    ["KKT residual", `${sci(r.kktResidual)} (scaled)`],
+    ["Largest violation", `${sci(r.maxViolation)} (relative to each limit)`],
+    ["Volume", `${num(r.volume, 5)} ${u.volume}`],
+  );
+  if (r.mass !== undefined) facts.push(["Mass", `${num(r.mass, 5)} ${u.mass}`]);
+  if (r.solver?.elapsedMs !== undefined) facts.push(["Solve time", `${num(r.solver.elapsedMs / 1000, 3)} s`]);
+  w.facts(facts);
+
+  w.heading("Convergence", 2);
+  convergencePlot(w, r.history, `${r.objective.kind} (${objUnit})`);
+
+  w.heading("The optimized truss", 2);
+  trussDrawing(w, drawingInput(r, data.model.file));
+
+  const lcs = loadCaseIds(data);
+  const utilColor = (x: number) => UTIL_BANDS[utilBand(x)]!.color;
+  w.newPage();
+  w.heading("Members", 2);
+  w.paragraph("Utilization is the worst ratio of a member's checks (stress, buckling) over all load cases; 100 % is at the limit.", { size: 8.5, color: INK_MUTED });
+  table(
+    w,
+    [
+      { header: "Member", weight: 2.6 },
+      { header: "Nodes", weight: 3 },
+      { header: "Group", weight: 2.4 },
+      { header: `Area (${u.area})`, weight: 2.2, align: "right" },
+      { header: `Length (${u.length})`, weight: 2.2, align: "right" },
+      { header: "Utilization", weight: 2, align: "right" },
+      { header: "Governed by", weight: 3 },
+    ],
+    r.members.map((m) => [m.id, m.start && m.end ? `${m.start}–${m.end}` : "", m.group ?? "", num(m.area), num(m.length, 5), pct(m.utilization), m.governing ?? ""]),
+    {
+      title: `${r.members.length} members`,
+      marker: (i) => utilColor(r.members[i]!.utilization),
+      cellColor: (i, c) => (c === 5 && utilBand(r.members[i]!.utilization) === UTIL_BANDS.length - 1 ? BAD : undefined),
+    },
+  );
+
+  for (const group of chunks(lcs, 3)) {
+    const names = group.map((l) => l.id).join(", ");
+    w.heading(`Forces and stresses, ${group.length > 1 ? "load cases" : "load case"} ${names}`, 2);
+    w.paragraph("Force is positive in tension (blue), negative in compression (rust); stress = force / area.", { size: 8.5, color: INK_MUTED });
+    table(
+      w,
+      [
+        { header: "Member", weight: 3 },
+        ...group.flatMap((lc) => [
+          { header: `${lc.id} force (${u.force})`, weight: 2.6, align: "right" as const },
+          { header: `${lc.id} stress (${u.stress})`, weight: 2.6, align: "right" as const },
+        ]),
+      ],
+      r.members.map((m) => [m.id, ...group.flatMap((lc) => [num(m.force[lc.id]), num(m.stress[lc.id])])]),
+      {
+        cellColor: (i, c) => {
+          if (c === 0) return undefined;
+          const f = r.members[i]!.force[group[Math.floor((c - 1) / 2)]!.id];
+          return f === undefined || f === 0 ? INK : f > 0 ? TENSION : COMPRESSION;
+        },
+      },
+    );
+  }
+
+  const dim = data.model.file?.dimension === 3 || r.nodes.some((n) => Object.values(n.displacement).some((d) => d[2] !== 0)) ? 3 : 2;
+  const axes = dim === 3 ? ["x", "y", "z"] : ["x", "y"];
+  for (const group of chunks(lcs, dim === 3 ? 2 : 3)) {
+    w.heading(`Displacements (${u.length}), ${group.length > 1 ? "load cases" : "load case"} ${group.map((l) => l.id).join(", ")}`, 2);
+    table(
+      w,
+      [
+        { header: "Node", weight: 3 },
+        ...group.flatMap((lc) => axes.map((a) => ({ header: `${lc.id} u${a}`, weight: 2, align: "right" as const }))),
+      ],
+      r.nodes.map((n) => [n.id, ...group.flatMap((lc) => axes.map((_, k) => num(n.displacement[lc.id]?.[k])))]),
+    );
+  }
+
+  w.heading("Shape variables", 2);
+  const shapeDef = new Map((data.model.file?.design?.shape ?? []).map((s) => [s.id, s]));
+  table(
+    w,
+    [
+      { header: "Variable", weight: 3 },
+      { header: `Final value (${u.length})`, weight: 2.5, align: "right" },
+      { header: "Lower bound", weight: 2, align: "right" },
+      { header: "Upper bound", weight: 2, align: "right" },
+    ],
+    r.variables.map((v) => [v.id, num(v.value, 6), num(shapeDef.get(v.id)?.min), num(shapeDef.get(v.id)?.max)]),
+    { empty: "This design problem has no shape variables; the geometry is as uploaded." },
+  );
+  w.doc.fillColor(INK);
+}

@@ -1,0 +1,121 @@
+// A drawing of the optimized truss as vector graphics: members coloured by utilization band,
+// line width growing with the square root of the area, supports as small wedges, and the
+// initial geometry dashed underneath when shape variables moved nodes. 3D models are drawn
+// in an isometric view with z up.
+import type { TrussResult } from "~/engine/design/result-types";
+import type { ReportWriter } from "./layout";
+import type { ModelFile } from "./report-data";
+import { INK, INK_MUTED, RULE, UTIL_BANDS, utilBand } from "./palette";
+
+type P3 = [number, number, number];
+
+const COS30 = Math.cos(Math.PI / 6);
+function project(p: P3, dim: number): [number, number] {
+  if (dim !== 3) return [p[0], p[1]];
+  return [(p[0] - p[1]) * COS30, p[2] + (p[0] + p[1]) * 0.5];
+}
+
+export interface DrawingInput {
+  dim: number;
+  nodes: Map<string, { now: P3; initial: P3; fixed: string[] }>;
+  members: { id: string; start: string; end: string; area: number; utilization: number }[];
+}
+
+/** Joins the result (final geometry, areas, utilization) with the model (connectivity, supports). */
+export function drawingInput(result: TrussResult, model: ModelFile | null): DrawingInput {
+  const nodes: DrawingInput["nodes"] = new Map();
+  const modelNodes = new Map((model?.nodes ?? []).map((n) => [n.id, n]));
+  for (const n of result.nodes) {
+    const m = modelNodes.get(n.id);
+    const initial: P3 = n.initial ? [n.initial.x, n.initial.y, n.initial.z] : m ? [m.x, m.y, m.z ?? 0] : [n.x, n.y, n.z];
+    nodes.set(n.id, { now: [n.x, n.y, n.z ?? 0], initial, fixed: n.fixed ?? m?.fixed ?? [] });
+  }
+  for (const m of model?.nodes ?? []) if (!nodes.has(m.id)) nodes.set(m.id, { now: [m.x, m.y, m.z ?? 0], initial: [m.x, m.y, m.z ?? 0], fixed: m.fixed ?? [] });
+  const modelMembers = new Map((model?.members ?? []).map((m) => [m.id, m]));
+  const members: DrawingInput["members"] = [];
+  for (const r of result.members) {
+    const start = r.start ?? modelMembers.get(r.id)?.start;
+    const end = r.end ?? modelMembers.get(r.id)?.end;
+    if (start && end && nodes.has(start) && nodes.has(end)) members.push({ id: r.id, start, end, area: r.area, utilization: r.utilization });
+  }
+  return { dim: model?.dimension ?? (result.nodes.some((n) => Math.abs(n.z ?? 0) > 0) ? 3 : 2), nodes, members };
+}
+
+export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHeight?: number } = {}) {
+  const doc = w.doc;
+  if (input.members.length === 0) {
+    w.paragraph("The drawing needs the members' end nodes, which neither the result nor the model file gave.", { face: "sans-italic", color: INK_MUTED });
+    return;
+  }
+  const moved = [...input.nodes.values()].some((n) => n.now.some((c, i) => Math.abs(c - n.initial[i]!) > 1e-9 * (1 + Math.abs(c))));
+  const pts: [number, number][] = [];
+  for (const n of input.nodes.values()) {
+    pts.push(project(n.now, input.dim));
+    if (moved) pts.push(project(n.initial, input.dim));
+  }
+  const xs = pts.map((p) => p[0]);
+  const ys = pts.map((p) => p[1]);
+  const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const spanX = x1 - x0 || 1;
+  const spanY = y1 - y0 || 1;
+  const maxH = opts.maxHeight ?? 300;
+  const pad = 14;
+  const scale = Math.min((w.width - 2 * pad) / spanX, (maxH - 2 * pad) / spanY);
+  const height = Math.max(60, spanY * scale + 2 * pad);
+  w.ensure(height + 34);
+  const top = w.y;
+  const ox = w.left + (w.width - spanX * scale) / 2;
+  const T = (p: P3): [number, number] => {
+    const [u, v] = project(p, input.dim);
+    return [ox + (u - x0) * scale, top + pad + (y1 - v) * scale];
+  };
+  doc.lineWidth(0.5).strokeColor(RULE).rect(w.left, top, w.width, height).stroke();
+
+  if (moved) {
+    doc.save().lineWidth(0.4).strokeColor(INK_MUTED).dash(2, { space: 2 });
+    for (const m of input.members) {
+      const a = T(input.nodes.get(m.start)!.initial);
+      const b = T(input.nodes.get(m.end)!.initial);
+      doc.moveTo(a[0], a[1]).lineTo(b[0], b[1]);
+    }
+    doc.stroke().undash().restore();
+  }
+
+  const maxArea = Math.max(...input.members.map((m) => m.area).filter((a) => Number.isFinite(a) && a > 0), 1e-300);
+  const thin = input.members.length > 600 ? 2 : 3.2;
+  const order = [...input.members].sort((a, b) => (a.utilization || 0) - (b.utilization || 0));
+  doc.lineCap("round");
+  for (const m of order) {
+    const a = T(input.nodes.get(m.start)!.now);
+    const b = T(input.nodes.get(m.end)!.now);
+    const lw = Math.max(0.35, thin * Math.sqrt(Math.max(0, m.area) / maxArea));
+    doc.moveTo(a[0], a[1]).lineTo(b[0], b[1]).lineWidth(lw).strokeColor(UTIL_BANDS[utilBand(m.utilization)]!.color).stroke();
+  }
+  doc.lineCap("butt");
+
+  const few = input.nodes.size <= 60;
+  for (const [id, n] of input.nodes) {
+    const [x, y] = T(n.now);
+    if (n.fixed.length > 0) {
+      const s = 4.5;
+      doc.moveTo(x, y).lineTo(x - s, y + s * 1.5).lineTo(x + s, y + s * 1.5).closePath().lineWidth(0.6).fillAndStroke("#ffffff", INK);
+      if (n.fixed.length === 1) doc.moveTo(x - s - 1, y + s * 1.5 + 2).lineTo(x + s + 1, y + s * 1.5 + 2).lineWidth(0.6).strokeColor(INK).stroke();
+    } else if (few) {
+      doc.circle(x, y, 1.3).fill(INK);
+    }
+    if (few) w.line("sans", 6, id, x + 3, y - 8, { color: INK_MUTED });
+  }
+
+  // legend
+  let lx = w.left;
+  const ly = top + height + 7;
+  for (const band of UTIL_BANDS) {
+    doc.rect(lx, ly + 1, 14, 5).fill(band.color);
+    w.line("sans", 7, band.label, lx + 17, ly, { color: INK });
+    lx += 17 + w.measure("sans", 7, band.label) + 12;
+  }
+  w.line("sans", 7, "Utilization (worst check over all load cases). Line width grows with the square root of the area.", w.left, ly + 11, { color: INK_MUTED });
+  if (moved) w.line("sans", 7, "Dashed: initial geometry before the shape variables moved the nodes.", w.left, ly + 20, { color: INK_MUTED });
+  doc.fillColor(INK);
+  w.y = top + height + (moved ? 36 : 28);
+}
