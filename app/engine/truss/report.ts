@@ -1,0 +1,105 @@
+// The analysis of a model as plain JSON, with the field names of the result format
+// (truss-format.md): what `npm run analyze` prints.
+import { analyze } from "./analysis";
+import type { TrussModel, Units } from "./schema";
+import { AXIS_NAMES, buildStructure } from "./structure";
+
+export interface AnalysisReport {
+  format: "strutwise.analysis";
+  version: 1;
+  model: string;
+  units: Units;
+  dimension: 2 | 3;
+  volume: number;
+  mass: number;
+  compliance: Record<string, number>;
+  equilibriumResidual: number;
+  loadCases: { id: string; name?: string; compliance: number; equilibriumResidual: number; totalLoad: [number, number, number]; totalReaction: [number, number, number] }[];
+  members: { id: string; start: string; end: string; area: number; length: number; force: Record<string, number>; stress: Record<string, number> }[];
+  nodes: { id: string; x: number; y: number; z: number; displacement: Record<string, [number, number, number]> }[];
+  reactions: { node: string; fixed: ("x" | "y" | "z")[]; force: Record<string, [number, number, number]> }[];
+}
+
+const triple = (v: Float64Array, i: number): [number, number, number] => [v[3 * i], v[3 * i + 1], v[3 * i + 2]];
+
+/** Analyses a validated model (see parseModel); throws MechanismError for an unstable one. */
+export function analyzeModelToJson(model: TrussModel): AnalysisReport {
+  const s = buildStructure(model);
+  const a = analyze(s);
+  const lcIds = s.loadCaseIds;
+  const perLc = <T>(f: (k: number) => T): Record<string, T> => Object.fromEntries(lcIds.map((id, k) => [id, f(k)]));
+
+  const loadCases = model.loadCases.map((lc, k) => {
+    const load: [number, number, number] = [0, 0, 0];
+    const reaction: [number, number, number] = [0, 0, 0];
+    for (let i = 0; i < s.nodeIds.length; i++) {
+      for (let c = 0; c < 3; c++) {
+        load[c] += s.loads[k][3 * i + c];
+        reaction[c] += a.reactions[k][3 * i + c];
+      }
+    }
+    return { id: lc.id, ...(lc.name ? { name: lc.name } : {}), compliance: a.compliance[k], equilibriumResidual: NaN, totalLoad: load, totalReaction: reaction };
+  });
+  // each case's own residual; analyze reports the maximum over all of them
+  loadCases.forEach((lc, k) => (lc.equilibriumResidual = caseResidual(s, a, k)));
+
+  const reactions: AnalysisReport["reactions"] = [];
+  for (let i = 0; i < s.nodeIds.length; i++) {
+    const fixed = AXIS_NAMES.slice(0, s.dim).filter((_, c) => s.fixed[3 * i + c] === 1);
+    if (fixed.length === 0) continue;
+    reactions.push({ node: s.nodeIds[i], fixed: [...fixed], force: perLc((k) => triple(a.reactions[k], i)) });
+  }
+
+  return {
+    format: "strutwise.analysis",
+    version: 1,
+    model: model.name,
+    units: model.units,
+    dimension: model.dimension,
+    volume: a.volume,
+    mass: a.mass,
+    compliance: perLc((k) => a.compliance[k]),
+    equilibriumResidual: a.equilibriumResidual,
+    loadCases,
+    members: model.members.map((m, e) => ({
+      id: m.id,
+      start: m.start,
+      end: m.end,
+      area: a.areas[e],
+      length: a.lengths[e],
+      force: perLc((k) => a.forces[k][e]),
+      stress: perLc((k) => a.stresses[k][e]),
+    })),
+    nodes: model.nodes.map((n, i) => ({
+      id: n.id,
+      x: s.coords[3 * i],
+      y: s.coords[3 * i + 1],
+      z: s.coords[3 * i + 2],
+      displacement: perLc((k) => triple(a.displacements[k], i)),
+    })),
+    reactions,
+  };
+}
+
+function caseResidual(s: ReturnType<typeof buildStructure>, a: ReturnType<typeof analyze>, k: number): number {
+  const f = s.loads[k];
+  const res = new Float64Array(f.length);
+  const N = a.forces[k];
+  for (let e = 0; e < N.length; e++) {
+    const i = 3 * s.start[e];
+    const j = 3 * s.end[e];
+    const q = N[e] / a.lengths[e];
+    for (let c = 0; c < 3; c++) {
+      const v = q * (a.coords[j + c] - a.coords[i + c]);
+      res[i + c] -= v;
+      res[j + c] += v;
+    }
+  }
+  let fMax = 0;
+  let rMax = 0;
+  for (let d = 0; d < f.length; d++) {
+    fMax = Math.max(fMax, Math.abs(f[d]));
+    if (!s.fixed[d] && s.connected[Math.floor(d / 3)]) rMax = Math.max(rMax, Math.abs(res[d] - f[d]));
+  }
+  return fMax > 0 ? rMax / fMax : rMax;
+}

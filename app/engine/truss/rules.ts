@@ -1,0 +1,167 @@
+// Cross-reference rules of truss-format.md that a per-field schema cannot express. They run on
+// the raw input as well as it can be read, so they report alongside the schema's errors.
+import type { IssueList } from "./issues";
+
+type Obj = Record<string, unknown>;
+const isObj = (v: unknown): v is Obj => typeof v === "object" && v !== null && !Array.isArray(v);
+const list = (v: unknown): Obj[] => (Array.isArray(v) ? v.map((x) => (isObj(x) ? x : {})) : []);
+const str = (v: unknown): string | undefined => (typeof v === "string" && v.trim() ? v : undefined);
+const num = (v: unknown): number | undefined => (typeof v === "number" && Number.isFinite(v) ? v : undefined);
+
+function duplicates(errors: IssueList, items: Obj[], base: (string | number)[], kind: string): Map<string, number> {
+  const seen = new Map<string, number>();
+  items.forEach((it, i) => {
+    const id = str(it.id);
+    if (id === undefined) return;
+    const prev = seen.get(id);
+    if (prev !== undefined) errors.add([...base, i, "id"], `duplicate ${kind} id "${id}" (also used by ${base.join(".")}[${prev}])`);
+    else seen.set(id, i);
+  });
+  return seen;
+}
+
+export function checkReferences(raw: unknown, errors: IssueList): void {
+  if (!isObj(raw)) return;
+  const dim = raw.dimension === 2 ? 2 : 3;
+  const materials = list(raw.materials);
+  const nodes = list(raw.nodes);
+  const members = list(raw.members);
+  const loadCases = list(raw.loadCases);
+
+  const materialIds = duplicates(errors, materials, ["materials"], "material");
+  const nodeIds = duplicates(errors, nodes, ["nodes"], "node");
+  duplicates(errors, members, ["members"], "member");
+  duplicates(errors, loadCases, ["loadCases"], "load case");
+
+  members.forEach((m, e) => {
+    const a = str(m.start);
+    const b = str(m.end);
+    if (a !== undefined && !nodeIds.has(a)) errors.add(["members", e, "start"], `starts at unknown node "${a}"`);
+    if (b !== undefined && !nodeIds.has(b)) errors.add(["members", e, "end"], `ends at unknown node "${b}"`);
+    if (a !== undefined && a === b) errors.add(["members", e, "end"], `starts and ends at the same node "${a}"`);
+    else if (a !== undefined && b !== undefined && nodeIds.has(a) && nodeIds.has(b)) {
+      const p = nodes[nodeIds.get(a)!];
+      const q = nodes[nodeIds.get(b)!];
+      const d = [num(q.x)! - num(p.x)!, num(q.y)! - num(p.y)!, dim === 3 ? (num(q.z) ?? 0) - (num(p.z) ?? 0) : 0];
+      if (d.every((v) => Number.isFinite(v)) && Math.hypot(d[0], d[1], d[2]) === 0) {
+        errors.add(["members", e], `has zero length: nodes "${a}" and "${b}" are at the same position`);
+      }
+    }
+    const mat = str(m.material);
+    if (mat !== undefined && !materialIds.has(mat)) errors.add(["members", e, "material"], `uses material "${mat}", which is not defined in materials`);
+  });
+
+  loadCases.forEach((lc, c) => {
+    list(lc.loads).forEach((l, k) => {
+      const n = str(l.node);
+      if (n !== undefined && !nodeIds.has(n)) errors.add(["loadCases", c, "loads", k, "node"], `acts on unknown node "${n}"`);
+    });
+  });
+
+  if (isObj(raw.design)) checkDesign(raw.design, { dim, nodes, nodeIds, members, materials, materialIds }, errors);
+}
+
+interface Context {
+  dim: 2 | 3;
+  nodes: Obj[];
+  nodeIds: Map<string, number>;
+  members: Obj[];
+  materials: Obj[];
+  materialIds: Map<string, number>;
+}
+
+function checkDesign(d: Obj, ctx: Context, errors: IssueList): void {
+  const groups = list(d.groups);
+  const shape = list(d.shape);
+  duplicates(errors, groups, ["design", "groups"], "group");
+  duplicates(errors, shape, ["design", "shape"], "shape variable");
+
+  const used = new Set<string>();
+  for (const m of ctx.members) {
+    const g = str(m.group);
+    if (g !== undefined) used.add(g);
+  }
+  const declared = new Map<string, Obj>();
+  groups.forEach((g, i) => {
+    const id = str(g.id);
+    if (id !== undefined) {
+      declared.set(id, g);
+      if (!used.has(id)) errors.add(["design", "groups", i, "id"], `no member belongs to group "${id}" (check the members' "group" fields)`);
+    }
+    const lo = num(g.min);
+    const hi = num(g.max);
+    if (lo !== undefined && hi !== undefined && lo > hi) errors.add(["design", "groups", i], `min (${lo}) is greater than max (${hi})`);
+  });
+
+  const bounds = isObj(d.areaBounds) ? d.areaBounds : undefined;
+  if (bounds) {
+    const lo = num(bounds.min);
+    const hi = num(bounds.max);
+    if (lo !== undefined && hi !== undefined && lo > hi) errors.add(["design", "areaBounds"], `min (${lo}) is greater than max (${hi})`);
+  }
+  // members that take their bounds from areaBounds
+  const needBounds = ctx.members.filter((m) => {
+    const g = str(m.group);
+    if (g === undefined) return true;
+    const dg = declared.get(g);
+    return !dg || num(dg.min) === undefined || num(dg.max) === undefined;
+  });
+  if (!bounds && needBounds.length > 0) {
+    const names = needBounds.slice(0, 3).map((m) => str(m.id) ?? "?");
+    errors.add(["design", "areaBounds"], `areaBounds { min, max } is required: member${needBounds.length > 1 ? "s" : ""} ${names.join(", ")}${needBounds.length > 3 ? ` and ${needBounds.length - 3} more` : ""} have no declared group bounds`);
+  }
+
+  shape.forEach((v, i) => {
+    const lo = num(v.min);
+    const hi = num(v.max);
+    if (lo !== undefined && hi !== undefined && lo > hi) errors.add(["design", "shape", i], `min (${lo}) is greater than max (${hi})`);
+    list(v.moves).forEach((mv, k) => {
+      const n = str(mv.node);
+      if (n !== undefined && !ctx.nodeIds.has(n)) errors.add(["design", "shape", i, "moves", k, "node"], `moves unknown node "${n}"`);
+      if (ctx.dim === 2 && mv.axis === "z") errors.add(["design", "shape", i, "moves", k, "axis"], "moves a node in z, but the model is 2D (x, y only)");
+      if (mv.factor === 0) errors.add(["design", "shape", i, "moves", k, "factor"], "factor 0 moves nothing; give a non-zero factor or remove the move");
+    });
+  });
+
+  const cons = isObj(d.constraints) ? d.constraints : {};
+  list(cons.displacement).forEach((lim, k) => {
+    const n = str(lim.node);
+    if (n !== undefined && n !== "*" && !ctx.nodeIds.has(n)) errors.add(["design", "constraints", "displacement", k, "node"], `limits unknown node "${n}" (use a node id or "*")`);
+    if (ctx.dim === 2 && lim.axis === "z") errors.add(["design", "constraints", "displacement", k, "axis"], "limits z, but the model is 2D (use x, y or all)");
+  });
+  if (cons.stress === true) {
+    ctx.materials.forEach((m, i) => {
+      if (num(m.allowableTension) === undefined || num(m.allowableCompression) === undefined) {
+        errors.add(["materials", i], "the stress constraint is on, so allowableTension and allowableCompression are both needed");
+      }
+    });
+  }
+
+  // a design block must leave something to optimize
+  const areaVarsFree = areaVariables(ctx.members, declared, bounds).some((b) => b.min === undefined || b.max === undefined || b.min < b.max);
+  const shapeFree = shape.some((v) => {
+    const lo = num(v.min);
+    const hi = num(v.max);
+    return lo === undefined || hi === undefined || lo < hi;
+  });
+  if (!areaVarsFree && !shapeFree) {
+    errors.add(["design"], "leaves nothing to optimize: every area variable has min equal to max and there are no shape variables with a range");
+  }
+}
+
+/** The bounds of each area variable (one per group, one per ungrouped member). */
+function areaVariables(members: Obj[], declared: Map<string, Obj>, bounds: Obj | undefined): { min?: number; max?: number }[] {
+  const seen = new Set<string>();
+  const out: { min?: number; max?: number }[] = [];
+  const def = { min: bounds ? num(bounds.min) : undefined, max: bounds ? num(bounds.max) : undefined };
+  for (const m of members) {
+    const g = str(m.group);
+    if (g !== undefined) {
+      if (seen.has(g)) continue;
+      seen.add(g);
+      const dg = declared.get(g);
+      out.push({ min: num(dg?.min) ?? def.min, max: num(dg?.max) ?? def.max });
+    } else out.push(def);
+  }
+  return out;
+}
