@@ -1,0 +1,33 @@
+// What the SQP driver needs from a quasi-Newton approximation B of the Lagrangian's Hessian:
+// products with B and with H = B^-1 (the dual QP works with H only), and a damped update.
+export interface HessianApprox {
+  readonly n: number;
+  applyB(v: Float64Array, out: Float64Array): void;
+  applyH(v: Float64Array, out: Float64Array): void;
+  /** Damped BFGS update with step s and Lagrangian-gradient change y. */
+  update(s: Float64Array, y: Float64Array): "updated" | "damped" | "skipped";
+  /** Back to a multiple of the identity (after a failed line search). */
+  reset(): void;
+}
+
+export function dot(a: Float64Array, b: Float64Array, n = a.length): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) s += a[i] * b[i];
+  return s;
+}
+
+/**
+ * Powell's damping: r = theta*y + (1-theta)*Bs with theta chosen so that s'r >= 0.2 s'Bs,
+ * which keeps B positive definite even where the Lagrangian has negative curvature.
+ */
+export function powellDamped(s: Float64Array, y: Float64Array, bs: Float64Array): { r: Float64Array; damped: boolean; sr: number } | null {
+  const n = s.length;
+  const sBs = dot(s, bs, n);
+  const sy = dot(s, y, n);
+  if (!(sBs > 0) || !Number.isFinite(sy)) return null;
+  if (sy >= 0.2 * sBs) return { r: Float64Array.from(y), damped: false, sr: sy };
+  const theta = (0.8 * sBs) / (sBs - sy);
+  const r = new Float64Array(n);
+  for (let i = 0; i < n; i++) r[i] = theta * y[i] + (1 - theta) * bs[i];
+  return { r, damped: true, sr: dot(s, r, n) };
+}

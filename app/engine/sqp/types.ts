@@ -1,0 +1,80 @@
+// Public types of the SQP solver (contract: docs/engine-api.md, "app/engine/sqp").
+
+/** A sparse Jacobian row: value[k] is the derivative with respect to variable index[k]. */
+export type SparseRow = { index: Int32Array; value: Float64Array };
+/** A Jacobian row, dense (length n) or sparse. */
+export type Row = Float64Array | SparseRow;
+
+export interface SqpProblem {
+  n: number;
+  x0: ArrayLike<number>;
+  /** Per-variable bounds; +-Infinity (or a missing array) means unbounded. */
+  lower?: ArrayLike<number>;
+  upper?: ArrayLike<number>;
+  nEq?: number;
+  nIneq?: number;
+  /** Constraint convention: eq = 0, ineq <= 0. Values for ALL rows every call. */
+  evaluate(x: Float64Array): { f: number; eq?: Float64Array; ineq?: Float64Array };
+  /** Gradient, all equality rows, and the inequality rows listed in ineqRows (in that order). */
+  derivatives(x: Float64Array, ineqRows: Int32Array): { grad: Float64Array; eq?: Row[]; ineq?: Row[] };
+  names?: { variables?: string[]; eq?: (i: number) => string; ineq?: (i: number) => string };
+}
+
+export interface SqpProgress {
+  iteration: number;
+  f: number;
+  maxViolation: number;
+  kktResidual: number;
+  step: number;
+  /** Current l1 penalty parameter of the merit function (scaled units). */
+  penalty: number;
+  /** Number of constraints (rows and bounds) active in the last quadratic subproblem. */
+  active: number;
+  evaluations: number;
+  /** True when the last subproblem had to relax incompatible linearized constraints. */
+  elastic: boolean;
+}
+
+export interface SqpOptions {
+  /** Major (SQP) iterations; default 200. */
+  maxIterations?: number;
+  /** Scaled KKT tolerance; default 1e-8 (see the module doc comment in minimize.ts). */
+  tolerance?: number;
+  timeLimitMs?: number;
+  /** Default: "bfgs" up to 400 variables, "lbfgs" above. */
+  hessian?: "bfgs" | "lbfgs";
+  /** L-BFGS pairs kept; default 10. */
+  memory?: number;
+  /** Scaled activity threshold for inequality rows; default Infinity (every row linearized). */
+  screening?: number;
+  signal?: AbortSignal;
+  onProgress?: (p: SqpProgress) => void;
+}
+
+export type SqpStatus = "optimal" | "not-converged" | "infeasible" | "failed";
+
+export interface SqpHistoryEntry {
+  iteration: number;
+  f: number;
+  maxViolation: number;
+  kktResidual: number;
+  step: number;
+}
+
+export interface SqpResult {
+  status: SqpStatus;
+  message: string;
+  hint: string;
+  x: Float64Array;
+  f: number;
+  eq: Float64Array;
+  ineq: Float64Array;
+  /** Sign convention: grad f + J_eq' eq + J_ineq' ineq - lower + upper = 0, ineq/lower/upper >= 0. */
+  multipliers: { eq: Float64Array; ineq: Float64Array; lower: Float64Array; upper: Float64Array };
+  iterations: number;
+  evaluations: number;
+  derivativeEvaluations: number;
+  kktResidual: number;
+  maxViolation: number;
+  history: SqpHistoryEntry[];
+}
