@@ -91,6 +91,7 @@ export async function startMailCatcher(opts: { smtpPort: number; httpPort: numbe
     api.listen(opts.httpPort, host, () => resolve());
   });
 
+  let stopped: Promise<void> | undefined;
   return {
     smtpPort: opts.smtpPort,
     httpUrl: `http://${host}:${opts.httpPort}`,
@@ -98,9 +99,12 @@ export async function startMailCatcher(opts: { smtpPort: number; httpPort: numbe
     clear: () => {
       for (const f of fs.readdirSync(opts.dir)) if (f.endsWith(".json")) fs.rmSync(path.join(opts.dir, f));
     },
-    stop: async () => {
-      await new Promise<void>((r) => api.close(() => r()));
-      await new Promise<void>((r) => smtp.close(() => r()));
-    },
+    // idempotent, like the S3 fake's
+    stop: () =>
+      (stopped ??= (async () => {
+        api.closeAllConnections();
+        await new Promise<void>((r) => api.close(() => r()));
+        await new Promise<void>((r) => smtp.close(() => r()));
+      })()),
   };
 }

@@ -19,8 +19,10 @@ export async function startS3Fake(opts: { port: number; dir: string; bucket: str
     configureBuckets: [{ name: opts.bucket, configs: [] }],
   });
   await server.run();
+  let stopped: Promise<void> | undefined;
   return {
     url: `http://${host}:${opts.port}`,
-    stop: () => server.close(),
+    // idempotent: a test may stop the fake early to see the app notice, then clean up as usual
+    stop: () => (stopped ??= server.close().then(() => undefined)),
   };
 }

@@ -123,7 +123,7 @@ export async function runStep(name: string, command: string, args: string[], opt
   await child.stop();
   if (code !== 0) {
     const why = signal ? `was stopped by ${signal}` : `exited with code ${code}`;
-    const tail = opts.echo === false ? `\n${child.recentOutput().split("\n").slice(-30).join("\n")}` : "";
+    const tail = opts.echo === false ? `\n${child.recentOutput().split("\n").slice(-40).join("\n")}` : "";
     throw new Error(`${name} ${why}${tail}`);
   }
 }

@@ -1,36 +1,50 @@
 // Configuration from the environment, validated once at start-up. A wrong variable stops
 // the process with a message naming it, instead of failing later somewhere deep.
 import os from "node:os";
+import path from "node:path";
 import { z } from "zod";
 
 const bool = z
   .enum(["true", "false", "1", "0", "yes", "no"])
   .transform((v) => v === "true" || v === "1" || v === "yes");
 
+const PORT_MSG = "must be a whole number from 1 to 65535";
+const port = () => z.coerce.number({ error: PORT_MSG }).int(PORT_MSG).min(1, PORT_MSG).max(65535, PORT_MSG);
+
 const DEV_SECRET = "strutwise-development-secret-not-for-production-use";
 
 const schema = z.object({
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
-  PORT: z.coerce.number().int().min(1).max(65535).default(4310),
+  PORT: port().default(4310),
   APP_URL: z.url().optional(),
-  DATABASE_URL: z.string().min(1).default("file:.data/strutwise.db"),
+  // file:<path> (default: <DATA_DIR>/strutwise.db), or libsql:// / https:// for a libSQL server
+  DATABASE_URL: z
+    .string()
+    .regex(/^(file:|libsql:\/\/|https?:\/\/|wss?:\/\/)/, "must start with file:, libsql://, http(s):// or ws(s)://")
+    .optional(),
   DATABASE_AUTH_TOKEN: z.string().optional(),
   DATA_DIR: z.string().default(".data"),
+  // `npm start` runs the S3 fake and the mail catcher itself unless this is off (real S3/SMTP)
+  LOCAL_SERVICES: z.enum(["on", "off"]).default("on"),
+  S3_PORT: port().default(4569),
+  MAIL_HTTP_PORT: port().default(2526),
   BETTER_AUTH_SECRET: z.string().min(32, "must be at least 32 characters").default(DEV_SECRET),
-  S3_ENDPOINT: z.url().optional().default("http://127.0.0.1:4569"),
+  // unset: the local S3 fake at http://127.0.0.1:<S3_PORT>; for AWS S3 itself, the regional endpoint
+  S3_ENDPOINT: z.url().optional(),
   S3_REGION: z.string().default("us-east-1"),
   S3_BUCKET: z.string().min(3).default("strutwise"),
   S3_ACCESS_KEY_ID: z.string().default("S3RVER"),
   S3_SECRET_ACCESS_KEY: z.string().default("S3RVER"),
   S3_FORCE_PATH_STYLE: bool.default(true),
   SMTP_HOST: z.string().default("127.0.0.1"),
-  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  SMTP_PORT: port().default(2525),
   SMTP_SECURE: bool.default(false),
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().default("Strutwise desk <desk@strutwise.local>"),
-  // HTTP port of the local mail catcher's read API (development inbox page); empty = none
-  MAIL_CATCHER_URL: z.string().optional().default("http://127.0.0.1:2526"),
+  // read API of the local mail catcher (development inbox); unset with LOCAL_SERVICES=on:
+  // http://127.0.0.1:<MAIL_HTTP_PORT>; with LOCAL_SERVICES=off: none
+  MAIL_CATCHER_URL: z.url().optional(),
   UPLOAD_LIMIT_BYTES: z.coerce.number().int().positive().default(5 * 1024 * 1024),
   WORKER_THREADS: z.coerce.number().int().min(1).max(64).default(Math.max(1, os.availableParallelism())),
   WORKER_MAX_OLD_GENERATION_MB: z.coerce.number().int().min(64).default(1536),
@@ -39,7 +53,7 @@ const schema = z.object({
   JOB_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(3),
 });
 
-export type Config = z.infer<typeof schema> & { APP_URL: string };
+export type Config = z.infer<typeof schema> & { APP_URL: string; DATABASE_URL: string; S3_ENDPOINT: string };
 
 export class ConfigError extends Error {}
 
@@ -47,7 +61,12 @@ export function parseConfig(env: Record<string, string | undefined>): Config {
   const cleaned = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== ""));
   const parsed = schema.safeParse(cleaned);
   if (!parsed.success) {
-    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    const lines = parsed.error.issues.map((i) => {
+      const name = i.path.join(".");
+      // show the offending value, except for variables that hold secrets
+      const shown = /SECRET|PASSWORD|TOKEN|KEY/.test(name) ? "" : ` (got "${cleaned[name]}")`;
+      return `  ${name}${shown}: ${i.message}`;
+    });
     throw new ConfigError(`Invalid configuration:\n${lines.join("\n")}`);
   }
   const c = parsed.data;
@@ -56,7 +75,14 @@ export function parseConfig(env: Record<string, string | undefined>): Config {
       "Invalid configuration:\n  BETTER_AUTH_SECRET: set a secret of your own in production (the development default is public)",
     );
   }
-  return { ...c, APP_URL: c.APP_URL ?? `http://localhost:${c.PORT}` };
+  const local = c.LOCAL_SERVICES === "on";
+  return {
+    ...c,
+    APP_URL: c.APP_URL ?? `http://localhost:${c.PORT}`,
+    DATABASE_URL: c.DATABASE_URL ?? `file:${path.join(c.DATA_DIR, "strutwise.db")}`,
+    S3_ENDPOINT: c.S3_ENDPOINT ?? `http://127.0.0.1:${c.S3_PORT}`,
+    MAIL_CATCHER_URL: c.MAIL_CATCHER_URL ?? (local ? `http://127.0.0.1:${c.MAIL_HTTP_PORT}` : undefined),
+  };
 }
 
 let cached: Config | undefined;
