@@ -25,7 +25,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (res.status === 200) throw redirect(safeRedirect(redirectTo), { headers: cookieHeaders(res.setCookies) });
   const errors: FieldErrors = {};
   if (res.status === 429) {
-    errors.form = `Too many sign-in attempts from here. Wait ${res.retryAfter ?? 60} seconds, then try again.`;
+    errors.form = `Too many sign-in attempts for this account. Wait ${res.retryAfter ?? 60} seconds, then try again.`;
   } else if (res.status === 403 && res.data?.code === "BANNED_USER") {
     errors.form = "This account is suspended. Ask an administrator of your desk.";
   } else if (res.status === 401 || res.status === 400) {

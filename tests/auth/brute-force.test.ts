@@ -1,5 +1,6 @@
-// Sign-in brute force is slowed: past the limit, attempts from one address get 429 (even
-// with the right password) until the window passes; other addresses are not affected.
+// Sign-in brute force is slowed: past the limit, attempts on one account get 429 (even with
+// the right password, and from any address) until the window passes; other accounts are not
+// affected, so nobody can lock the whole desk out.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeUser, PASSWORD, setup } from "./helpers";
 
@@ -9,37 +10,42 @@ beforeAll(async () => {
 });
 afterAll(async () => ctx?.services.stop());
 
-async function attempt(ip: string, password: string) {
-  const { auth } = await import("~/lib/auth/auth.server");
-  // straight at the HTTP handler, as a script hammering /api/auth/sign-in/email would
-  const res = await auth().handler(
-    new Request("http://localhost:4310/api/auth/sign-in/email", {
+async function attempt(ip: string, password: string, email = "target@quarry-bridge.example") {
+  const { action } = await import("~/routes/api/auth.$");
+  // through the /api/auth/* route, as a script hammering /api/auth/sign-in/email would
+  const res = await action({
+    params: { "*": "sign-in/email" },
+    context: {},
+    request: new Request("http://localhost:4310/api/auth/sign-in/email", {
       method: "POST",
       headers: { "content-type": "application/json", origin: "http://localhost:4310", "x-forwarded-for": ip },
-      body: JSON.stringify({ email: "target@quarry-bridge.example", password }),
+      body: JSON.stringify({ email, password }),
     }),
-  );
+  } as never);
   return res.status;
 }
 
 describe("sign-in throttle", () => {
-  it("answers 429 once an address exceeds the limit, and the page says how long to wait", async () => {
-    const { signInLimit } = await import("~/lib/auth/auth.server");
+  it("answers 429 once an account exceeds the limit, and the page says how long to wait", async () => {
+    const { signInLimit, throttleAddressFor } = await import("~/lib/auth/auth.server");
     const { max } = signInLimit();
     await makeUser("target@quarry-bridge.example", "engineer");
+    await makeUser("bystander@quarry-bridge.example", "engineer");
     const statuses: number[] = [];
     for (let i = 0; i < max + 3; i++) statuses.push(await attempt("203.0.113.9", `guess-number-${i}`));
     expect(statuses.slice(0, max).every((s) => s === 401)).toBe(true);
     expect(statuses.slice(max)).toEqual([429, 429, 429]);
-    // the right password does not get through while throttled
+    // the right password does not get through while throttled, nor does a change of address
     expect(await attempt("203.0.113.9", PASSWORD)).toBe(429);
-    // another address still signs in
-    expect(await attempt("198.51.100.20", PASSWORD)).toBe(200);
+    expect(await attempt("198.51.100.20", PASSWORD)).toBe(429);
+    // another account signs in from the very same address
+    expect(await attempt("203.0.113.9", PASSWORD, "bystander@quarry-bridge.example")).toBe(200);
 
     // the counter lives in the database (shared by every server process)
     const { rateLimit } = await import("~/db/schema");
     const rows = await ctx.db.select().from(rateLimit);
-    expect(rows.some((r) => r.key.startsWith("203.0.113.9") && r.count >= max)).toBe(true);
+    const stand = throttleAddressFor("target@quarry-bridge.example");
+    expect(rows.some((r) => r.key.startsWith(stand.slice(0, 10)) && r.count >= max)).toBe(true);
 
     // through the sign-in page: a worded message, not a stack
     const { action } = await import("~/routes/sign-in");

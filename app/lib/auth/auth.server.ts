@@ -1,6 +1,7 @@
 // The better-auth instance: e-mail + password accounts, database sessions through the Drizzle
 // adapter, the admin plugin for the role column and bans, sign-in throttling stored in the
 // database (so it holds across processes), password reset by e-mail.
+import { createHash } from "node:crypto";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { admin } from "better-auth/plugins";
@@ -12,13 +13,51 @@ import { sendMail } from "~/lib/mail.server";
 import { audit } from "./audit.server";
 
 /**
- * Sign-in throttle: at most `max` attempts per client address within `window` seconds.
+ * Sign-in throttle: at most `max` attempts per ACCOUNT (the e-mail tried) within `window`
+ * seconds. better-auth keys its limiter by client address, but behind react-router-serve no
+ * trustworthy address reaches the app, and one shared bucket would let anyone lock everyone
+ * out. So sign-in requests carry a stand-in address derived from the e-mail tried
+ * (throttleAddressFor), set by our code and never taken from the client.
  * AUTH_SIGN_IN_LIMIT="max/windowSeconds" overrides it (e.g. for an end-to-end harness that
  * signs in many times from one address); the default slows brute force to 10 a minute.
  */
 export function signInLimit(env = process.env): { max: number; window: number } {
   const m = /^(\d+)\/(\d+)$/.exec(env.AUTH_SIGN_IN_LIMIT ?? "");
   return m ? { max: Number(m[1]), window: Number(m[2]) } : { max: 10, window: 60 };
+}
+
+/** A private-range IPv6 address (fd00::/8) standing for one e-mail in the throttle's key. */
+export function throttleAddressFor(email: string): string {
+  const h = createHash("sha256").update(email.trim().toLowerCase()).digest("hex");
+  // better-auth collapses IPv6 to its /64 prefix, so the distinguishing bits go up front
+  return `fd${h.slice(0, 2)}:${h.slice(2, 6)}:${h.slice(6, 10)}:${h.slice(10, 14)}::1`;
+}
+
+/** Header that carries the caller's own forwarded address past the throttle's stand-in. */
+export const CLIENT_ADDRESS_HEADER = "x-strutwise-client-address";
+
+/** The request as better-auth should see it: a sign-in gets its throttle address. */
+export async function prepareAuthRequest(request: Request): Promise<Request> {
+  const url = new URL(request.url);
+  if (request.method !== "POST" || !url.pathname.endsWith("/sign-in/email")) return request;
+  const text = await request.text();
+  let email = "";
+  try {
+    email = String(JSON.parse(text)?.email ?? "");
+  } catch {
+    // better-auth answers the malformed body itself
+  }
+  const headers = new Headers(request.headers);
+  const original = request.headers.get("x-forwarded-for");
+  headers.delete(CLIENT_ADDRESS_HEADER);
+  if (original) headers.set(CLIENT_ADDRESS_HEADER, original.split(",")[0]!.trim());
+  headers.set("x-forwarded-for", throttleAddressFor(email));
+  return new Request(request.url, { method: "POST", headers, body: text });
+}
+
+function realAddress(ctx: { headers?: Headers; request?: Request } | null | undefined): string | null {
+  const h = ctx?.headers ?? ctx?.request?.headers;
+  return h?.get(CLIENT_ADDRESS_HEADER) ?? h?.get("x-forwarded-for")?.split(",")[0]?.trim() ?? null;
 }
 
 function createAuth(database: Db) {
@@ -102,6 +141,8 @@ function createAuth(database: Db) {
       },
       session: {
         create: {
+          // keep the caller's own address on the session, not the throttle's stand-in
+          before: async (session, ctx) => ({ data: { ...session, ipAddress: realAddress(ctx) } }),
           after: async (session) => {
             const u = await database.query.user.findFirst({ where: eq(schema.user.id, session.userId) });
             await audit({
@@ -147,11 +188,13 @@ export async function callAuthEndpoint(
     if (v) headers.set(h, v);
   }
   const res = await auth().handler(
-    new Request(`${base}/api/auth${path}`, {
-      method: body ? "POST" : "GET",
-      headers,
-      body: body ? JSON.stringify(body) : undefined,
-    }),
+    await prepareAuthRequest(
+      new Request(`${base}/api/auth${path}`, {
+        method: body ? "POST" : "GET",
+        headers,
+        body: body ? JSON.stringify(body) : undefined,
+      }),
+    ),
   );
   const text = await res.text();
   let data: any = null;

@@ -54,7 +54,11 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/jobs/:id/report": { GET: ALL },
 
   // pages of other parts
+  "/projects/:id": { GET: ALL, POST: PRODUCERS }, // POST uploads a model
+  "/models/:id": { GET: ALL, POST: PRODUCERS }, // POST queues a job
+  "/jobs": { GET: ALL },
   "/jobs/:id": { GET: ALL, POST: "signed-in" }, // actions inside check review/cancel rights
+  "/dev/inbox": { GET: ADMIN }, // any signed-in role too, but only when NODE_ENV=development
 };
 
 /** "/api/jobs/:jobId/reviews" and "/api/jobs/:id/reviews" are the same route. */

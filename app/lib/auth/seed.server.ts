@@ -1,4 +1,5 @@
-// Demo accounts of the invented firm Tallow Brook Structural: one person per role. Safe to run
+// Demo accounts of the invented firm Tarrow & Keel Structural (scripts/seed.ts has the rest of
+// the scenario): one person per role. Safe to run
 // on every start: existing accounts keep their data and get their demo role back.
 import { randomUUID } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
@@ -15,10 +16,10 @@ export interface DemoAccount {
 }
 
 export const DEMO_ACCOUNTS: DemoAccount[] = [
-  { role: "admin", name: "Maren Oduya", email: "maren.oduya@tallowbrook.example", password: "tallow-admin-demo" },
-  { role: "engineer", name: "Casimir Lund", email: "casimir.lund@tallowbrook.example", password: "tallow-engineer-demo" },
-  { role: "checker", name: "Priya Halvorsen", email: "priya.halvorsen@tallowbrook.example", password: "tallow-checker-demo" },
-  { role: "viewer", name: "Jonah Ekwueme", email: "jonah.ekwueme@tallowbrook.example", password: "tallow-viewer-demo" },
+  { role: "admin", name: "Maren Oduya", email: "maren.oduya@tarrowkeel.example", password: "keel-admin-demo" },
+  { role: "engineer", name: "Casimir Lund", email: "casimir.lund@tarrowkeel.example", password: "keel-engineer-demo" },
+  { role: "checker", name: "Priya Halvorsen", email: "priya.halvorsen@tarrowkeel.example", password: "keel-checker-demo" },
+  { role: "viewer", name: "Jonah Ekwueme", email: "jonah.ekwueme@tarrowkeel.example", password: "keel-viewer-demo" },
 ];
 
 export async function seedDemoAccounts(db: Db): Promise<{ role: Role; email: string; password: string; id: string; name: string }[]> {

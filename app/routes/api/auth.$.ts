@@ -1,5 +1,5 @@
 // better-auth's own endpoints (/api/auth/sign-in/email, /api/auth/get-session, …).
-import { auth } from "~/lib/auth/auth.server";
+import { auth, prepareAuthRequest } from "~/lib/auth/auth.server";
 import type { Route } from "./+types/auth.$";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -7,5 +7,6 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  return auth().handler(request);
+  // sign-in attempts are throttled per account (see auth.server.ts)
+  return auth().handler(await prepareAuthRequest(request));
 }
