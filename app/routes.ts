@@ -14,6 +14,10 @@ export default [
     route("projects", "routes/projects._index.tsx"),
     route("admin/users", "routes/admin.users.tsx"),
     route("admin/audit", "routes/admin.audit.tsx"),
+    route("projects/:projectId", "routes/projects.$projectId.tsx"),
+    route("models/:modelId", "routes/models.$modelId.tsx"),
+    route("jobs", "routes/jobs._index.tsx"),
+    route("jobs/:jobId", "routes/jobs.$jobId.tsx"),
   ]),
   ...prefix("api", [
     route("health", "routes/api/health.ts"),

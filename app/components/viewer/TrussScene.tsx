@@ -9,6 +9,7 @@ import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import { cssColor, forceSense, SENSE_TOKENS, UTIL_BANDS, utilBandIndex } from "./palette";
+import { placeCone, placeCylinder } from "./instancing";
 import { deformedPositions, upAxis, visualRadii, type TrussView, type Vec3 } from "./truss-view";
 
 export type ColourMode = "utilization" | "force" | "plain";
@@ -31,8 +32,6 @@ interface Props {
   onSelectMember?: (index: number | null) => void;
   onContextLost?: () => void;
 }
-
-const Y_AXIS = new THREE.Vector3(0, 1, 0);
 
 export default function TrussScene({ view, settings, onSelectMember, onContextLost }: Props) {
   const up = upAxis(view);
@@ -82,16 +81,6 @@ function memberColours(view: TrussView, settings: SceneSettings): THREE.Color[] 
   }
   const bands = UTIL_BANDS.map((b) => new THREE.Color(cssColor(b.token)));
   return view.members.map((m) => (m.utilization === null ? plain : bands[utilBandIndex(m.utilization)]!));
-}
-
-/** Instance matrix of a unit cylinder (radius 1, height 1 along y) stretched from p to q. */
-function placeCylinder(target: THREE.Matrix4, p: Vec3, q: Vec3, radius: number) {
-  const a = new THREE.Vector3(...p);
-  const b = new THREE.Vector3(...q);
-  const dir = b.clone().sub(a);
-  const length = dir.length();
-  const rot = new THREE.Quaternion().setFromUnitVectors(Y_AXIS, length > 0 ? dir.divideScalar(length) : Y_AXIS);
-  target.compose(a.add(b).multiplyScalar(0.5), rot, new THREE.Vector3(radius, length || 1e-9, radius));
 }
 
 function Members({ view, settings, onSelect }: { view: TrussView; settings: SceneSettings; onSelect?: (i: number | null) => void }) {
@@ -241,9 +230,7 @@ function Supports({ view }: { view: TrussView }) {
     const size = Math.min(view.bounds.span * 0.035, view.medianLength * 0.3);
     const mat = new THREE.Matrix4();
     items.forEach((it, i) => {
-      const q = new THREE.Quaternion().setFromUnitVectors(Y_AXIS, AXIS_VECTORS[it.axis]!);
-      mat.compose(new THREE.Vector3(...it.node.position), q, new THREE.Vector3(size, size, size));
-      mesh.setMatrixAt(i, mat);
+      mesh.setMatrixAt(i, placeCone(mat, it.node.position, AXIS_VECTORS[it.axis]!, size));
     });
     mesh.instanceMatrix.needsUpdate = true;
     mesh.computeBoundingSphere();

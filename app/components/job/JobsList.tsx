@@ -1,0 +1,141 @@
+// A table of jobs: status with live progress, model, project, submitter, times, objective.
+// Sorting runs over the rows on the page; while any row is queued or running the table asks
+// /api/jobs for fresh figures every two seconds (a fetch, not a page reload) and merges them.
+import { createColumnHelper } from "@tanstack/react-table";
+import { useEffect, useMemo, useRef, type ReactNode } from "react";
+import { Link, useFetcher } from "react-router";
+import { DataTable } from "~/components/tables/DataTable";
+import { fmtDateTime, fmtDuration, fmtNum } from "~/components/ui/format";
+import { OutcomeBadge, StatusBadge } from "~/components/ui/StatusBadge";
+
+export interface JobListRow {
+  id: string;
+  status: string;
+  outcome: string | null;
+  modelName: string;
+  modelId?: string;
+  projectCode: string;
+  submitter: string | null;
+  createdAt: string;
+  startedAt?: string | null;
+  finishedAt: string | null;
+  objective: { kind: string; final: number } | null;
+  progress: { iteration: number | null } | null;
+  review?: string | null;
+}
+
+interface ApiJob {
+  id: string;
+  status: string;
+  outcome: string | null;
+  finishedAt: string | null;
+  startedAt?: string | null;
+  progress: { iteration: number | null } | null;
+  summary?: { objectiveKind: string; objectiveFinal: number } | null;
+}
+
+const LIVE = new Set(["queued", "running"]);
+
+export function mergeLive(rows: JobListRow[], fresh: ApiJob[] | undefined): JobListRow[] {
+  if (!fresh?.length) return rows;
+  const byId = new Map(fresh.map((j) => [j.id, j]));
+  return rows.map((r) => {
+    const f = byId.get(r.id);
+    if (!f) return r;
+    return {
+      ...r,
+      status: f.status,
+      outcome: f.outcome,
+      finishedAt: f.finishedAt,
+      startedAt: f.startedAt ?? r.startedAt,
+      progress: f.progress,
+      objective: f.summary ? { kind: f.summary.objectiveKind, final: f.summary.objectiveFinal } : r.objective,
+    };
+  });
+}
+
+export function JobsList({
+  rows,
+  pollUrl,
+  showProject = true,
+  showModel = true,
+  empty,
+  pageSize = 25,
+}: {
+  rows: JobListRow[];
+  pollUrl?: string;
+  showProject?: boolean;
+  showModel?: boolean;
+  empty?: ReactNode;
+  pageSize?: number;
+}) {
+  const fetcher = useFetcher<{ jobs?: ApiJob[] }>();
+  const merged = useMemo(() => mergeLive(rows, fetcher.data?.jobs), [rows, fetcher.data]);
+  const anyLive = merged.some((r) => LIVE.has(r.status));
+  const url = pollUrl ?? (rows.length ? `/api/jobs?limit=${Math.min(200, rows.length + 10)}` : undefined);
+  const ref = useRef(fetcher);
+  ref.current = fetcher;
+  useEffect(() => {
+    if (!anyLive || !url) return;
+    const t = setInterval(() => {
+      if (ref.current.state === "idle") ref.current.load(url);
+    }, 2000);
+    return () => clearInterval(t);
+  }, [anyLive, url]);
+
+  const col = createColumnHelper<JobListRow>();
+  const columns = useMemo(
+    () => [
+      col.accessor("id", {
+        header: "job",
+        cell: (c) => (
+          <Link to={`/jobs/${c.getValue()}`} className="font-mono text-xs text-info hover:underline" data-testid="job-link">
+            {c.getValue().slice(0, 8)}
+          </Link>
+        ),
+      }),
+      col.accessor("status", {
+        header: "status",
+        cell: (c) => {
+          const r = c.row.original;
+          return (
+            <span className="flex flex-wrap items-center gap-1.5" data-testid="job-status">
+              <StatusBadge status={r.status} />
+              {r.status === "succeeded" && r.outcome !== "optimal" && <OutcomeBadge outcome={r.outcome} />}
+              {r.status === "running" && r.progress?.iteration != null && <span className="font-mono text-2xs text-ink-muted">it. {r.progress.iteration}</span>}
+            </span>
+          );
+        },
+      }),
+      ...(showModel ? [col.accessor("modelName", { header: "model", cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue()}>{c.getValue()}</span> })] : []),
+      ...(showProject ? [col.accessor("projectCode", { header: "project" })] : []),
+      col.accessor((r) => r.submitter ?? "", { id: "submitter", header: "submitted by" }),
+      col.accessor("createdAt", { header: "queued", cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue())}</span> }),
+      col.accessor((r) => (r.startedAt && r.finishedAt ? Date.parse(r.finishedAt) - Date.parse(r.startedAt) : null), {
+        id: "duration",
+        header: "ran",
+        cell: (c) => fmtDuration(c.getValue()),
+        meta: { numeric: true },
+        sortUndefined: "last",
+      }),
+      col.accessor((r) => r.objective?.final ?? null, {
+        id: "objective",
+        header: "objective",
+        meta: { numeric: true },
+        cell: (c) => {
+          const o = c.row.original.objective;
+          return o ? (
+            <span title={o.kind}>
+              {fmtNum(o.final)} <span className="text-2xs text-ink-muted">{o.kind}</span>
+            </span>
+          ) : (
+            "–"
+          );
+        },
+      }),
+    ],
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [showModel, showProject],
+  );
+  return <DataTable label="Jobs" data={merged} columns={columns} pageSize={pageSize} empty={empty} getRowId={(r) => r.id} rowTestId="job-row" />;
+}

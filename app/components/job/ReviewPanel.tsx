@@ -1,0 +1,67 @@
+// The checker's decision on a finished job, and the decisions so far. Decisions are
+// append-only: a new one supersedes the last, none is edited (product.md, step 4).
+import { useFetcher } from "react-router";
+import { fmtDateTime } from "~/components/ui/format";
+import { ReviewBadge } from "~/components/ui/StatusBadge";
+import { EmptyState, ErrorNote } from "~/components/ui/States";
+import type { ReviewView } from "./types";
+
+export function ReviewHistory({ reviews }: { reviews: ReviewView[] }) {
+  if (reviews.length === 0) return <EmptyState title="Not reviewed yet">A checker other than the submitter signs the result off here.</EmptyState>;
+  return (
+    <ol className="space-y-3" data-testid="review-history">
+      {[...reviews]
+        .sort((a, b) => new Date(b.createdAt).getTime() - new Date(a.createdAt).getTime())
+        .map((r, i) => (
+          <li key={r.id} className={`rounded-md border border-rule px-3 py-2 ${i > 0 ? "opacity-80" : ""}`}>
+            <div className="flex flex-wrap items-center gap-2 text-sm">
+              <ReviewBadge decision={r.decision} />
+              <strong>{r.reviewerName}</strong>
+              <span className="text-ink-muted">{fmtDateTime(r.createdAt)}</span>
+              {i > 0 && <span className="text-2xs text-ink-muted">(superseded)</span>}
+            </div>
+            {r.comment && <p className="mt-1 whitespace-pre-wrap text-sm text-ink-soft">{r.comment}</p>}
+          </li>
+        ))}
+    </ol>
+  );
+}
+
+export interface ReviewActionData {
+  ok?: boolean;
+  error?: string;
+  fieldErrors?: { decision?: string; comment?: string };
+}
+
+export function ReviewForm() {
+  const fetcher = useFetcher<ReviewActionData>();
+  const busy = fetcher.state !== "idle";
+  const errs = fetcher.data?.fieldErrors ?? {};
+  return (
+    <fetcher.Form method="post" className="space-y-3" aria-label="Review this result" data-testid="review-form">
+      <input type="hidden" name="intent" value="review" />
+      <fieldset>
+        <legend className="field-label">Decision</legend>
+        <div className="flex flex-wrap gap-4 text-sm">
+          <label className="flex items-center gap-2">
+            <input type="radio" name="decision" value="approved" className="accent-[var(--color-ok)]" required /> Approve
+          </label>
+          <label className="flex items-center gap-2">
+            <input type="radio" name="decision" value="changes-requested" className="accent-[var(--color-warn)]" /> Return with changes
+          </label>
+        </div>
+        {errs.decision && <p className="field-error">{errs.decision}</p>}
+      </fieldset>
+      <label className="block">
+        <span className="field-label">Comment</span>
+        <textarea name="comment" rows={3} maxLength={4000} className="field-input" placeholder="What you checked, or what must change" aria-invalid={!!errs.comment} />
+        {errs.comment && <p className="field-error">{errs.comment}</p>}
+      </label>
+      {fetcher.data?.error && <ErrorNote title="The review was not recorded">{fetcher.data.error}</ErrorNote>}
+      {fetcher.data?.ok && !busy && <p className="text-sm text-ok" role="status">Decision recorded.</p>}
+      <button type="submit" className="btn btn-primary" disabled={busy}>
+        {busy ? "Recording…" : "Record decision"}
+      </button>
+    </fetcher.Form>
+  );
+}

@@ -1,0 +1,81 @@
+// Drop or pick a truss JSON. The file goes to the page's action as multipart form data;
+// validation problems come back listed, each with the item it names.
+import { useCallback } from "react";
+import { useDropzone, type FileRejection } from "react-dropzone";
+import { useFetcher } from "react-router";
+import { fmtBytes } from "./format";
+import { ErrorNote, IssueList, type Issue } from "./States";
+
+export interface UploadResult {
+  error?: string;
+  details?: Issue[];
+  warnings?: Issue[];
+}
+
+export function UploadBox({ projectId, limitBytes }: { projectId: string; limitBytes: number }) {
+  const fetcher = useFetcher<UploadResult>();
+  const busy = fetcher.state !== "idle";
+
+  const onDrop = useCallback(
+    (accepted: File[]) => {
+      const file = accepted[0];
+      if (!file) return;
+      const fd = new FormData();
+      fd.set("intent", "upload");
+      fd.set("projectId", projectId);
+      fd.set("file", file, file.name);
+      fetcher.submit(fd, { method: "post", encType: "multipart/form-data" });
+    },
+    [fetcher, projectId],
+  );
+
+  const { getRootProps, getInputProps, isDragActive, fileRejections } = useDropzone({
+    onDrop,
+    multiple: false,
+    maxSize: limitBytes,
+    accept: { "application/json": [".json"] },
+    disabled: busy,
+  });
+
+  const rejection: FileRejection | undefined = fileRejections[0];
+  const rejectText = rejection
+    ? rejection.errors
+        .map((e) =>
+          e.code === "file-too-large"
+            ? `${rejection.file.name} is ${fmtBytes(rejection.file.size)}; the limit is ${fmtBytes(limitBytes)}`
+            : e.code === "file-invalid-type"
+              ? `${rejection.file.name} is not a .json file`
+              : e.message,
+        )
+        .join("; ")
+    : null;
+
+  return (
+    <div className="space-y-3" data-testid="upload">
+      <div
+        {...getRootProps({
+          className: `flex cursor-pointer flex-col items-center justify-center rounded-[var(--radius-card)] border-2 border-dashed px-6 py-8 text-center transition-colors ${
+            isDragActive ? "border-brass bg-brass-wash" : "border-rule bg-paper hover:border-brass/60"
+          } ${busy ? "opacity-60" : ""}`,
+          "aria-label": "Upload a truss model: drop a JSON file here or press Enter to pick one",
+        })}
+      >
+        <input {...getInputProps({ name: "file", "aria-label": "Truss model file" })} />
+        <p className="font-medium text-ink">{busy ? "Checking the model…" : isDragActive ? "Drop the file to upload it" : "Drop a truss JSON here, or click to pick one"}</p>
+        <p className="mt-1 text-xs text-ink-muted">
+          format strutwise.truss version 1 · up to {fmtBytes(limitBytes)} · checked at once, nothing is stored if it has errors
+        </p>
+      </div>
+      {rejectText && <ErrorNote title="That file was not sent">{rejectText}</ErrorNote>}
+      {fetcher.data?.error && !busy && (
+        <>
+          {fetcher.data.details?.length ? (
+            <IssueList title={fetcher.data.error} issues={fetcher.data.details} />
+          ) : (
+            <ErrorNote title="The model was not stored">{fetcher.data.error}</ErrorNote>
+          )}
+        </>
+      )}
+    </div>
+  );
+}

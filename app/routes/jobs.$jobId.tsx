@@ -1,0 +1,341 @@
+import { eq } from "drizzle-orm";
+import { useMemo } from "react";
+import { data, Link } from "react-router";
+import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
+import { GoverningConstraints } from "~/components/job/GoverningConstraints";
+import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
+import { OutcomePanel } from "~/components/job/OutcomePanel";
+import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
+import { ReviewForm, ReviewHistory, type ReviewActionData } from "~/components/job/ReviewPanel";
+import { Cautions } from "~/components/ui/Cautions";
+import { fmtDateTime, fmtDuration, fmtNum, fmtPercent, fmtSci } from "~/components/ui/format";
+import { RouteError } from "~/components/ui/RouteError";
+import { OutcomeBadge, ReviewBadge, StatusBadge } from "~/components/ui/StatusBadge";
+import { EmptyState, Stat } from "~/components/ui/States";
+import { TrussViewer } from "~/components/viewer/TrussViewer";
+import type { ModelLike } from "~/components/viewer/truss-view";
+import { db } from "~/db/client.server";
+import { models, projects, user as users } from "~/db/schema";
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { can } from "~/lib/auth/permissions";
+import { createReview, listReviews } from "~/lib/auth/reviews.server";
+import { notFound } from "~/lib/http.server";
+import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
+import { getModelFile } from "~/lib/models.server";
+import type { Route } from "./+types/jobs.$jobId";
+
+export function meta({ data }: Route.MetaArgs) {
+  return [{ title: data ? `${data.facts.modelName} · job ${data.job.id.slice(0, 8)} — Strutwise` : "Job — Strutwise" }];
+}
+
+/** The parts of the uploaded model the viewer needs: geometry, supports, loads. */
+function topologyOf(text: string): ModelLike | null {
+  try {
+    const m = JSON.parse(text) as ModelLike & { design?: { solver?: { maxIterations?: number } } };
+    return {
+      dimension: m.dimension,
+      units: m.units,
+      nodes: m.nodes.map((n) => ({ id: n.id, x: n.x, y: n.y, z: n.z, fixed: n.fixed })),
+      members: m.members.map((x) => ({ id: x.id, start: x.start, end: x.end, area: x.area, group: x.group })),
+      loadCases: m.loadCases.map((lc) => ({ id: lc.id, name: lc.name, loads: lc.loads })),
+    };
+  } catch {
+    return null;
+  }
+}
+
+function maxIterationsOf(text: string, options: { maxIterations?: number } | null): number | null {
+  if (options?.maxIterations) return options.maxIterations;
+  try {
+    return (JSON.parse(text) as { design?: { solver?: { maxIterations?: number } } }).design?.solver?.maxIterations ?? 200;
+  } catch {
+    return null;
+  }
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "read:job");
+  const job = await getJob(params.jobId);
+  if (!job) notFound(`Job ${params.jobId}`);
+
+  const [facts] = await db()
+    .select({ modelName: models.name, modelId: models.id, sha256: models.sha256, projectId: projects.id, projectCode: projects.code, projectName: projects.name, submitterName: users.name })
+    .from(models)
+    .innerJoin(projects, eq(projects.id, models.projectId))
+    .leftJoin(users, eq(users.id, job.submittedBy ?? ""))
+    .where(eq(models.id, job.modelId))
+    .limit(1);
+  if (!facts) notFound(`The model of job ${job.id}`);
+
+  const live = job.status === "queued" || job.status === "running";
+  const [file, result, history, reviews] = await Promise.all([
+    getModelFile(job.modelId).catch(() => null),
+    job.hasResult ? getJobResult(job.id) : Promise.resolve(null),
+    live ? getJobHistory(job.id) : Promise.resolve([]),
+    listReviews(job.id),
+  ]);
+  const text = file?.text ?? "";
+  const own = job.submittedBy === user.id;
+  return {
+    job: {
+      id: job.id,
+      status: job.status,
+      outcome: job.outcome,
+      error: job.error,
+      options: job.options as Record<string, unknown>,
+      createdAt: job.createdAt,
+      startedAt: job.startedAt,
+      finishedAt: job.finishedAt,
+      progress: job.progress,
+    },
+    facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
+    topology: topologyOf(text),
+    maxIterations: maxIterationsOf(text, job.options),
+    result,
+    history: normalizeHistory(history),
+    reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comment: r.comment, reviewerName: r.reviewerName || r.reviewerEmail, createdAt: r.createdAt })),
+    may: {
+      cancel: can(user.role, "cancel:job:any") || (own && can(user.role, "cancel:job:own")),
+      review: can(user.role, "review:job") && !own,
+      own,
+      rerun: can(user.role, "create:job"),
+    },
+  };
+}
+
+async function errorOf(e: unknown): Promise<{ status: number; error: string; details?: { path: string; message: string }[] }> {
+  if (e instanceof Response) {
+    const body = (await e.json().catch(() => null)) as { error?: string; details?: { path: string; message: string }[] } | null;
+    return { status: e.status, error: body?.error ?? e.statusText, details: body?.details };
+  }
+  throw e;
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const form = await request.formData();
+  const intent = form.get("intent");
+  if (intent === "cancel") {
+    const user = await requirePermission(request, "read:job");
+    try {
+      await cancelJob(params.jobId, user);
+      return { ok: true };
+    } catch (e) {
+      const err = await errorOf(e);
+      return data({ error: err.error }, { status: err.status });
+    }
+  }
+  if (intent === "review") {
+    const user = await requirePermission(request, "review:job");
+    const decision = String(form.get("decision") ?? "");
+    if (decision !== "approved" && decision !== "changes-requested")
+      return data<ReviewActionData>({ fieldErrors: { decision: "Choose approve or return with changes" } }, { status: 400 });
+    try {
+      await createReview({ jobId: params.jobId, reviewer: user, decision, comment: String(form.get("comment") ?? ""), request });
+      return data<ReviewActionData>({ ok: true });
+    } catch (e) {
+      const err = await errorOf(e);
+      const fieldErrors = Object.fromEntries((err.details ?? []).map((d) => [d.path, d.message]));
+      return data<ReviewActionData>({ error: err.details?.length ? undefined : err.error, fieldErrors }, { status: err.status });
+    }
+  }
+  return data({ error: "Unknown action" }, { status: 400 });
+}
+
+export function ErrorBoundary() {
+  return <RouteError what="job" />;
+}
+
+export default function JobPage({ loaderData }: Route.ComponentProps) {
+  const { job, facts, topology, result, history, reviews, may, maxIterations } = loaderData;
+  const live = job.status === "queued" || job.status === "running";
+  const objectiveLabel = result?.objective.kind ?? (job.options.objective as string | undefined) ?? "objective";
+  const current = reviews.at(-1);
+  const topo = useMemo<Topology>(
+    () => ({
+      members: new Map((topology?.members ?? []).map((m) => [m.id, { start: m.start, end: m.end, group: m.group }])),
+      nodes: new Map((topology?.nodes ?? []).map((n) => [n.id, { x: n.x, y: n.y, z: n.z ?? 0, fixed: n.fixed ?? [] }])),
+    }),
+    [topology],
+  );
+  const elapsed = job.startedAt && job.finishedAt ? new Date(job.finishedAt).getTime() - new Date(job.startedAt).getTime() : null;
+  const u = result?.units;
+  const saving = result && result.objective.initial > 0 ? 1 - result.objective.final / result.objective.initial : null;
+
+  return (
+    <div className="space-y-6">
+      <header>
+        <p className="text-sm text-ink-muted">
+          <Link to={`/projects/${facts.projectId}`} className="hover:underline">
+            {facts.projectCode} · {facts.projectName}
+          </Link>{" "}
+          /{" "}
+          <Link to={`/models/${facts.modelId}`} className="hover:underline">
+            {facts.modelName}
+          </Link>
+        </p>
+        <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-semibold sm:text-3xl">
+          <span>Job {job.id.slice(0, 8)}</span>
+          <StatusBadge status={job.status} />
+          <OutcomeBadge outcome={job.outcome} />
+          {job.status === "succeeded" && <ReviewBadge decision={current?.decision} />}
+        </h1>
+        <p className="mt-2 text-sm text-ink-muted">
+          submitted by {facts.submitterName} · {fmtDateTime(job.createdAt)}
+          {job.finishedAt && <> · finished {fmtDateTime(job.finishedAt)}</>}
+          {elapsed !== null && <> · ran {fmtDuration(elapsed)}</>}
+          {Object.keys(job.options).length > 0 && (
+            <>
+              {" "}
+              · options{" "}
+              <code className="font-mono text-xs">
+                {Object.entries(job.options)
+                  .map(([k, v]) => `${k}=${String(v)}`)
+                  .join(", ")}
+              </code>
+            </>
+          )}
+        </p>
+      </header>
+
+      {live && (
+        <LiveProgress
+          initial={{ id: job.id, status: job.status, outcome: job.outcome, progress: job.progress }}
+          initialHistory={history}
+          maxIterations={maxIterations}
+          canCancel={may.cancel}
+          objectiveLabel={objectiveLabel}
+        />
+      )}
+
+      {!live && (
+        <OutcomePanel status={job.status} outcome={job.outcome ?? result?.status ?? null} message={result?.message} hint={result?.hint} error={job.error} />
+      )}
+
+      {result && (
+        <>
+          <Cautions />
+          <section className="card" aria-label="Summary">
+            <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-3 lg:grid-cols-6">
+              <Stat label={`${result.objective.kind} initial`} value={fmtNum(result.objective.initial)} />
+              <Stat label={`${result.objective.kind} final`} value={<span data-testid="objective-final">{fmtNum(result.objective.final)}</span>} hint={u ? (result.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
+              <Stat label="change" value={saving !== null ? fmtPercent(-saving) : "–"} />
+              <Stat label="iterations" value={`${result.iterations} (${result.analyses} analyses)`} />
+              <Stat label="KKT residual" value={fmtSci(result.kktResidual)} />
+              <Stat label="max violation" value={fmtSci(result.maxViolation)} />
+              <Stat label={`volume (${u?.length}³)`} value={fmtNum(result.volume)} />
+              {result.mass !== undefined && <Stat label={`mass (${u?.mass})`} value={fmtNum(result.mass)} />}
+              <Stat label="max utilization" value={fmtPercent(result.verification?.maxUtilization ?? Math.max(0, ...result.members.map((m) => m.utilization)))} />
+              {result.formulation && <Stat label="formulation" value={result.formulation} />}
+              {result.verification && (
+                <Stat label="independent check" value={result.verification.allLimitsMet ? "all limits met" : `${result.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${fmtSci(result.verification.equilibriumResidual)}, ${result.verification.checked} checks`} />
+              )}
+              {result.solver && <Stat label="solver" value={`${result.solver.name} ${result.solver.version}`} />}
+            </dl>
+          </section>
+        </>
+      )}
+
+      {topology ? (
+        <TrussViewer model={topology} result={result} title={result ? "Optimized truss" : "Initial geometry"} />
+      ) : (
+        <EmptyState title="The model file could not be read">The stored file of this model is missing or unreadable; the 3D view needs it.</EmptyState>
+      )}
+
+      {result && (
+        <div className="grid gap-6 lg:grid-cols-2">
+          <section className="card min-w-0" aria-label="Convergence">
+            <h2 className="mb-3 font-semibold">Convergence</h2>
+            <ConvergencePlot history={normalizeHistory(result.history)} objectiveLabel={objectiveLabel} />
+          </section>
+          <section className="card min-w-0" aria-label="Governing limits">
+            <h2 className="mb-1 font-semibold">Governing limits and their shadow prices</h2>
+            <p className="mb-3 text-sm text-ink-muted">What each binding limit costs: the change of the {result.objective.kind} per unit the limit is relaxed.</p>
+            <GoverningConstraints result={result} />
+          </section>
+        </div>
+      )}
+
+      {result && result.variables.length > 0 && (
+        <section className="card" aria-label="Shape variables">
+          <h2 className="mb-3 font-semibold">Shape variables</h2>
+          <table className="data-table max-w-md">
+            <thead>
+              <tr>
+                <th>variable</th>
+                <th className="num">value ({u?.length})</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.variables.map((v) => (
+                <tr key={v.id}>
+                  <td>{v.id}</td>
+                  <td className="num">{fmtNum(v.value, 6)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+      )}
+
+      {result && result.members.length > 0 && (
+        <>
+          <section className="card min-w-0" aria-label="Members">
+            <h2 className="mb-3 font-semibold">Members</h2>
+            <MemberTable result={result} topology={topo} fileName={facts.modelName} />
+          </section>
+          <section className="card min-w-0" aria-label="Nodes">
+            <h2 className="mb-3 font-semibold">Nodes</h2>
+            <NodeTable result={result} topology={topo} fileName={facts.modelName} />
+          </section>
+        </>
+      )}
+
+      <div className="grid gap-6 lg:grid-cols-3">
+        <section className="card lg:col-span-2" aria-label="Review">
+          <h2 className="mb-3 font-semibold">Review</h2>
+          <ReviewHistory reviews={reviews} />
+          {job.status === "succeeded" && may.review && (
+            <div className="mt-4 border-t border-rule pt-4">
+              <ReviewForm />
+            </div>
+          )}
+          {job.status === "succeeded" && may.own && !may.review && (
+            <p className="mt-3 text-sm text-ink-muted">You submitted this job, so another checker reviews it (four-eyes rule).</p>
+          )}
+        </section>
+        <section className="card" aria-label="Downloads">
+          <h2 className="mb-3 font-semibold">Downloads</h2>
+          <ul className="space-y-2 text-sm">
+            {result && (
+              <li>
+                <a className="text-info hover:underline" href={`/api/jobs/${job.id}/result`} download={`job-${job.id.slice(0, 8)}.result.json`} data-testid="download-result">
+                  Result JSON
+                </a>
+              </li>
+            )}
+            {job.status === "succeeded" && (
+              <li>
+                <a className="text-info hover:underline" href={`/api/jobs/${job.id}/report`} data-testid="download-report">
+                  Calculation report (PDF){current?.decision === "approved" ? "" : " — marked not reviewed"}
+                </a>
+              </li>
+            )}
+            <li>
+              <a className="text-info hover:underline" href={`/api/models/${facts.modelId}/file`} download>
+                Model file (JSON)
+              </a>
+              <span className="block truncate font-mono text-2xs text-ink-muted" title={facts.sha256}>
+                SHA-256 {facts.sha256}
+              </span>
+            </li>
+          </ul>
+          {may.rerun && !live && (
+            <Link to={`/models/${facts.modelId}`} className="btn btn-secondary mt-4">
+              Queue another run
+            </Link>
+          )}
+        </section>
+      </div>
+    </div>
+  );
+}

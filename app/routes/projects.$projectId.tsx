@@ -1,0 +1,155 @@
+import { eq } from "drizzle-orm";
+import { data, Link, redirect } from "react-router";
+import { toJobRows } from "~/components/job/job-rows.server";
+import { JobsList } from "~/components/job/JobsList";
+import { fmtBytes, fmtDateTime, shortHash } from "~/components/ui/format";
+import { RouteError } from "~/components/ui/RouteError";
+import { EmptyState } from "~/components/ui/States";
+import { UploadBox, type UploadResult } from "~/components/ui/UploadBox";
+import { db } from "~/db/client.server";
+import { projects, user as users } from "~/db/schema";
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { can } from "~/lib/auth/permissions";
+import { config } from "~/lib/config.server";
+import { notFound } from "~/lib/http.server";
+import { listJobs } from "~/lib/jobs/queue.server";
+import { listModels, storeModel, uploadTooLarge } from "~/lib/models.server";
+import type { Route } from "./+types/projects.$projectId";
+
+export function meta({ data }: Route.MetaArgs) {
+  return [{ title: data ? `${data.project.code} ${data.project.name} — Strutwise` : "Project — Strutwise" }];
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "read:project");
+  const [row] = await db()
+    .select({ project: projects, createdByName: users.name })
+    .from(projects)
+    .leftJoin(users, eq(users.id, projects.createdBy))
+    .where(eq(projects.id, params.projectId))
+    .limit(1);
+  if (!row) notFound(`Project ${params.projectId}`);
+  const [models, jobs] = await Promise.all([listModels({ projectId: row.project.id }), listJobs({ projectId: row.project.id, limit: 25 })]);
+  return {
+    project: { ...row.project, createdAt: row.project.createdAt.toISOString(), createdByName: row.createdByName },
+    models: models.map((m) => ({ id: m.id, name: m.name, fileName: m.fileName, sha256: m.sha256, sizeBytes: m.sizeBytes, dimension: m.dimension, nodeCount: m.nodeCount, memberCount: m.memberCount, hasDesign: m.hasDesign, createdAt: m.createdAt, warnings: m.warnings.length })),
+    jobs: await toJobRows(jobs.jobs),
+    moreJobs: jobs.nextCursor !== null,
+    uploadLimit: config().UPLOAD_LIMIT_BYTES,
+    mayUpload: can(user.role, "create:model"),
+  };
+}
+
+// Multipart bodies carry a little framing around the file; allow for it before refusing.
+const FRAMING_ALLOWANCE = 64 * 1024;
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requirePermission(request, "create:model");
+  const limit = config().UPLOAD_LIMIT_BYTES;
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (declared > limit + FRAMING_ALLOWANCE) {
+    const r = uploadTooLarge("upload", declared - FRAMING_ALLOWANCE, limit);
+    return data<UploadResult>({ error: r.ok ? "" : r.error }, { status: 413 });
+  }
+  const form = await request.formData();
+  const file = form.get("file");
+  if (!(file instanceof File) || file.size === 0) {
+    return data<UploadResult>({ error: "Choose a truss JSON file to upload", details: [{ path: "file", message: "no file was sent" }] }, { status: 400 });
+  }
+  const res = await storeModel({ projectId: params.projectId, fileName: file.name, bytes: new Uint8Array(await file.arrayBuffer()), user });
+  if (!res.ok) return data<UploadResult>({ error: res.error, details: res.details }, { status: res.status });
+  throw redirect(`/models/${res.model.id}`);
+}
+
+export function ErrorBoundary() {
+  return <RouteError what="project" />;
+}
+
+export default function ProjectPage({ loaderData }: Route.ComponentProps) {
+  const { project, models, jobs, uploadLimit, mayUpload, moreJobs } = loaderData;
+  return (
+    <div className="space-y-6">
+      <header>
+        <p className="text-sm text-ink-muted">
+          <Link to="/projects" className="hover:underline">
+            Projects
+          </Link>{" "}
+          / <span className="font-mono">{project.code}</span>
+        </p>
+        <h1 className="mt-1 text-2xl font-semibold sm:text-3xl">{project.name}</h1>
+        <p className="mt-2 text-sm text-ink-muted">
+          {project.client && <>for {project.client} · </>}
+          opened {fmtDateTime(project.createdAt)}
+          {project.createdByName && <> by {project.createdByName}</>}
+        </p>
+        {project.description && <p className="mt-2 max-w-3xl text-ink-soft">{project.description}</p>}
+      </header>
+
+      {mayUpload && (
+        <section className="card" aria-label="Upload a model">
+          <h2 className="mb-3 font-semibold">Upload a model</h2>
+          <UploadBox projectId={project.id} limitBytes={uploadLimit} />
+        </section>
+      )}
+
+      <section className="card min-w-0" aria-label="Models">
+        <h2 className="mb-3 font-semibold">Models</h2>
+        {models.length === 0 ? (
+          <EmptyState title="No models yet">{mayUpload ? "Drop the first truss JSON above." : "An engineer uploads the truss models of this project."}</EmptyState>
+        ) : (
+          <div className="overflow-x-auto rounded-md border border-rule">
+            <table className="data-table" aria-label="Models">
+              <thead>
+                <tr>
+                  <th>model</th>
+                  <th>file</th>
+                  <th className="num">dim.</th>
+                  <th className="num">nodes</th>
+                  <th className="num">members</th>
+                  <th>design</th>
+                  <th>uploaded</th>
+                  <th>SHA-256</th>
+                </tr>
+              </thead>
+              <tbody>
+                {models.map((m) => (
+                  <tr key={m.id} data-testid="model-row">
+                    <td>
+                      <Link to={`/models/${m.id}`} className="text-info hover:underline">
+                        {m.name}
+                      </Link>
+                      {m.warnings > 0 && <span className="badge ml-2 bg-warn-wash text-warn">{m.warnings} notes</span>}
+                    </td>
+                    <td className="text-ink-muted">
+                      {m.fileName} <span className="text-2xs">({fmtBytes(m.sizeBytes)})</span>
+                    </td>
+                    <td className="num">{m.dimension}D</td>
+                    <td className="num">{m.nodeCount}</td>
+                    <td className="num">{m.memberCount}</td>
+                    <td>{m.hasDesign ? "yes" : <span className="text-ink-muted">analysis only</span>}</td>
+                    <td className="whitespace-nowrap">{fmtDateTime(m.createdAt)}</td>
+                    <td className="font-mono text-2xs text-ink-muted" title={m.sha256}>
+                      {shortHash(m.sha256)}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+
+      <section className="card min-w-0" aria-label="Jobs">
+        <div className="mb-3 flex items-baseline justify-between gap-3">
+          <h2 className="font-semibold">Jobs</h2>
+          {moreJobs && (
+            <Link to={`/jobs?projectId=${project.id}`} className="text-sm text-info hover:underline">
+              All jobs of this project
+            </Link>
+          )}
+        </div>
+        <JobsList rows={jobs} showProject={false} pollUrl={`/api/jobs?projectId=${project.id}&limit=25`} empty={<EmptyState title="No jobs yet">Open a model and queue a run.</EmptyState>} />
+      </section>
+    </div>
+  );
+}
