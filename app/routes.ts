@@ -18,11 +18,13 @@ export default [
     route("models/:modelId", "routes/models.$modelId.tsx"),
     route("jobs", "routes/jobs._index.tsx"),
     route("jobs/:jobId", "routes/jobs.$jobId.tsx"),
+    route("dev/inbox", "routes/dev.inbox.tsx"),
   ]),
   ...prefix("api", [
     route("health", "routes/api/health.ts"),
     route("auth/*", "routes/api/auth.$.ts"),
     route("projects", "routes/api/projects.ts"),
     route("jobs/:jobId/reviews", "routes/api/jobs.$jobId.reviews.ts"),
+    route("jobs/:jobId/report", "routes/api/jobs.$jobId.report.ts"),
   ]),
 ] satisfies RouteConfig;

@@ -1,0 +1,28 @@
+// GET /api/jobs/:jobId/report: the calculation record (PDF) of a succeeded job (api.md),
+// generated from the stored result and cached in the bucket per review state.
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { jsonError } from "~/lib/http.server";
+import { renderReportFile, ReportError } from "~/lib/report/render.server";
+import type { Route } from "./+types/jobs.$jobId.report";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  await requirePermission(request, "read:job");
+  try {
+    const report = await renderReportFile(params.jobId);
+    return new Response(new Uint8Array(report.bytes), {
+      status: 200,
+      headers: {
+        "Content-Type": "application/pdf",
+        "Content-Length": String(report.bytes.byteLength),
+        "Content-Disposition": `attachment; filename="${report.fileName}"`,
+        // the review state can change; the browser asks again, the bucket cache answers
+        "Cache-Control": "private, no-cache",
+        "X-Report-Cache": report.cached ? "hit" : "miss",
+      },
+    });
+  } catch (e) {
+    if (e instanceof ReportError) return jsonError(e.status, e.message);
+    console.error(`[report] job ${params.jobId}: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`);
+    return jsonError(500, `The report of job ${params.jobId} could not be generated; the error is logged on the server`);
+  }
+}
