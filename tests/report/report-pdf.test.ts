@@ -1,0 +1,162 @@
+// The calculation record read back by poppler's pdftotext: it carries the job's figures, the
+// cautions and the right review mark on every page. The truss is a determinate Warren roof
+// truss whose forces follow by hand from the method of sections (warren-fixture.ts).
+import { beforeAll, describe, expect, it } from "vitest";
+import { CAUTION_TEXT } from "~/lib/report/cautions";
+import { buildReportPdf } from "~/lib/report/document";
+import type { ReportReview } from "~/lib/report/report-data";
+import { fonts, pageCount, pageTexts } from "./pdf-text";
+import { reportDataFor, warrenFixture, type WarrenFixture } from "./warren-fixture";
+
+const approvedBy: ReportReview = {
+  id: "rev-2",
+  decision: "approved",
+  comment: "Chord groups checked by hand against the section method; agreed.",
+  reviewer: "Priya Vantongeren",
+  at: new Date("2026-11-30T15:10:00Z"),
+};
+const returnedBy: ReportReview = {
+  id: "rev-1",
+  decision: "changes-requested",
+  comment: "Add the drift case on the right half.",
+  reviewer: "Tomasz Réveillon",
+  at: new Date("2026-11-30T11:00:00Z"),
+};
+
+let fx: WarrenFixture;
+let unreviewed: string[];
+let unreviewedPdf: Uint8Array;
+beforeAll(async () => {
+  fx = warrenFixture({ panels: 8 });
+  unreviewedPdf = await buildReportPdf(reportDataFor(fx));
+  unreviewed = await pageTexts(unreviewedPdf);
+});
+
+describe("the report before review", () => {
+  it("marks every page NOT REVIEWED and numbers the pages", () => {
+    expect(unreviewed.length).toBeGreaterThan(4);
+    if (pageCount(unreviewedPdf) !== null) expect(pageCount(unreviewedPdf)).toBe(unreviewed.length);
+    unreviewed.forEach((p, i) => {
+      expect(p, `page ${i + 1}`).toContain("NOT REVIEWED — no checker has approved this calculation");
+      expect(p, `page ${i + 1}`).toContain(`page ${i + 1} of ${unreviewed.length}`);
+      expect(p).not.toContain("APPROVED by");
+    });
+  });
+
+  it("names the job, the people, the solver and the input file's SHA-256 on the cover", () => {
+    const cover = unreviewed[0]!;
+    for (const s of [
+      "FLD-24 — Fenwick Lane depot extension",
+      "Warren roof truss, 8 panels",
+      "job-7q2c9x",
+      "Ines Okafor <ines.okafor@brightspan.example>",
+      "2026-11-30 09:00:31 UTC",
+      "strutwise-sqp 0.1.0, nested formulation",
+      "9c1f0a6e4b7d2c3a8e5f6b1d0c9a7e2f4b6d8a0c1e3f5a7b9d2c4e6f8a0b1c3d",
+    ])
+      expect(cover).toContain(s);
+  });
+
+  it("carries the licensed-engineer cautions in full", () => {
+    expect(unreviewed[0]).toContain(CAUTION_TEXT);
+    // the meaning of product.md's cautions, word for word where it lists what must be checked
+    for (const s of ["design aid, not a design", "lateral-torsional and local buckling", "connections, fatigue", "second-order effects", "fabrication and erection"])
+      expect(unreviewed[0]).toContain(s);
+  });
+
+  it("shows the solver figures: objective initial and final, iterations, KKT residual, violation", () => {
+    const all = unreviewed.join("\n");
+    // fixture mass figures to five significant figures, as the report prints them
+    expect(all).toContain(`initial ${Number(fx.initialMass.toPrecision(5))}, final ${Number(fx.finalMass.toPrecision(5))}`);
+    expect(all).toContain("9 iterations, 12 analyses");
+    expect(all).toContain("4.13e-9 (scaled)");
+    expect(all).toMatch(/Largest violation 0 \(relative/);
+  });
+
+  it("prints the member forces the method of sections gives by hand", () => {
+    const all = unreviewed.join("\n");
+    // LC1: 40 kN at each of the 8 top nodes, so each support takes 160 kN. Bottom chord BC4
+    // (L3-L4), moments about U4 at x = 8750 mm: M = 160000·8750 − 40000·(7500 + 5000 + 2500)
+    // = 8.0e8 N·mm; force = M / h = 8.0e8 / 2000 = 400000 N tension (method of sections,
+    // common practice). Its group then needs 400000 / 235 = 1702 mm² (fully stressed).
+    expect(all).toMatch(/BC4 L3–L4 bottom-chord 1702 2500 100\.0 % stress:LC1/);
+    expect(all).toMatch(/BC4 400000 235 /);
+    // End diagonal D1 (L0-U1) in LC1: shear 160000 N, sin θ = 2000 / 2358.5, force −188680 N
+    expect(all).toMatch(/D1 −188700 /);
+  });
+
+  it("states the shadow prices in plain words and the verification record", () => {
+    const all = unreviewed.join("\n");
+    expect(all).toContain("4 Governing constraints and their shadow prices");
+    expect(all).toMatch(/Allowing 1 N\/mm² more compression stress in member TC4 under LC1 would save about 0\.00215 t of steel\./);
+    expect(all).toContain("5 Independent verification of the final design");
+    expect(all).toMatch(/All limits met yes/);
+    expect(all).toMatch(/Checks performed 62/);
+  });
+
+  it("draws the plot and the truss with their legends, and embeds the shipped fonts", () => {
+    const all = unreviewed.join("\n");
+    expect(all).toContain("KKT residual (right axis)");
+    for (const band of ["below 50 %", "50–75 %", "75–90 %", "90–100 %", "over the limit"]) expect(all).toContain(band);
+    const f = fonts(unreviewedPdf);
+    if (f) {
+      expect(f.some((x) => x.name.includes("IBMPlexSans-Regular") && x.embedded)).toBe(true);
+      expect(f.some((x) => x.name.includes("RobotoMono-Regular") && x.embedded)).toBe(true);
+      expect(f.every((x) => x.embedded)).toBe(true);
+    }
+  });
+});
+
+describe("the report after review", () => {
+  it("after approval names who approved and when, with the comment, and drops the NOT REVIEWED mark", async () => {
+    const pages = await pageTexts(await buildReportPdf(reportDataFor(fx, [returnedBy, approvedBy])));
+    pages.forEach((p, i) => {
+      expect(p, `page ${i + 1}`).toContain("APPROVED by Priya Vantongeren on 2026-11-30 15:10:00 UTC");
+      expect(p, `page ${i + 1}`).not.toContain("NOT REVIEWED");
+      expect(p).not.toContain("NOT APPROVED");
+    });
+    expect(pages[0]).toContain("Comment: Chord groups checked by hand against the section method; agreed.");
+    // the earlier decision stays in the review record
+    expect(pages[0]).toMatch(/Tomasz Réveillon changes requested Add the drift case/);
+  });
+
+  it("shows a changes-requested decision as such on every page", async () => {
+    const pages = await pageTexts(await buildReportPdf(reportDataFor(fx, [returnedBy])));
+    pages.forEach((p, i) => {
+      expect(p, `page ${i + 1}`).toContain("CHANGES REQUESTED — NOT APPROVED (Tomasz Réveillon, 2026-11-30 11:00:00 UTC)");
+      expect(p).not.toContain("APPROVED by");
+    });
+    expect(pages[0]).toContain("Comment: Add the drift case on the right half.");
+  });
+
+  it("a later approval supersedes a request for changes, and a later request an approval", async () => {
+    const again = { ...returnedBy, id: "rev-3", at: new Date("2026-12-01T09:00:00Z") };
+    const pages = await pageTexts(await buildReportPdf(reportDataFor(fx, [approvedBy, again])));
+    expect(pages[0]).toContain("CHANGES REQUESTED — NOT APPROVED");
+    expect(pages[pages.length - 1]).toContain("CHANGES REQUESTED — NOT APPROVED");
+  });
+});
+
+describe("large tables and other alphabets", () => {
+  it("paginates a long member table without losing or repeating a row", async () => {
+    const big = warrenFixture({ panels: 40 }); // 159 members, 81 nodes
+    const pages = await pageTexts(await buildReportPdf(reportDataFor(big)));
+    const all = pages.join("\n");
+    expect(all).toContain("159 members (continued)");
+    // the results member table prints "id start–end": each member exactly once there
+    for (const m of big.result.members) {
+      const row = new RegExp(`(^| )${m.id} ${m.start}–${m.end} `, "g");
+      expect(all.match(row)?.length, m.id).toBe(1);
+    }
+    pages.forEach((p, i) => expect(p, `page ${i + 1}`).toContain("NOT REVIEWED"));
+  });
+
+  it("sets Latin Extended and Greek letters from their own font subsets", async () => {
+    const data = reportDataFor(fx);
+    data.model.name = "Dvořák Street footbridge, span Ł-2";
+    data.project.name = "Øresund quay — σ check";
+    const pages = await pageTexts(await buildReportPdf(data));
+    expect(pages[0]).toContain("Dvořák Street footbridge, span Ł-2");
+    expect(pages[0]).toContain("Øresund quay — σ check");
+  });
+});
