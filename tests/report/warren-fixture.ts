@@ -17,6 +17,8 @@ export interface WarrenOptions {
   panel?: number; // mm
   height?: number; // mm
   loadCases?: { id: string; name: string; load: (topIndex: number, n: number) => number }[]; // fy per top node, N
+  /** factor on the default loads; a long truss needs a small one to stay within the area bounds */
+  loadScale?: number;
 }
 
 export interface WarrenFixture {
@@ -40,9 +42,10 @@ export function warrenFixture(opts: WarrenOptions): WarrenFixture {
   const a = opts.panel ?? 2500;
   const h = opts.height ?? 2000;
   const span = n * a;
+  const k = opts.loadScale ?? 1;
   const lcs = opts.loadCases ?? [
-    { id: "LC1", name: "Roof dead load and snow", load: () => -40000 },
-    { id: "LC2", name: "Drifted snow on the left half", load: (i: number, nn: number) => (i <= Math.ceil(nn / 2) ? -60000 : -10000) },
+    { id: "LC1", name: "Roof dead load and snow", load: () => -40000 * k },
+    { id: "LC2", name: "Drifted snow on the left half", load: (i: number, nn: number) => (i <= Math.ceil(nn / 2) ? -60000 : -10000) * k },
   ];
 
   // nodes: L0..Ln on the bottom chord, U1..Un on the top chord at the panel middles
@@ -105,7 +108,11 @@ export function warrenFixture(opts: WarrenOptions): WarrenFixture {
       if (!g || need(f) > g.need) govern.set(varOf(m), { member: m.id, lc: lc.id, force: f, need: need(f) });
     }
   }
-  for (const [v, g] of govern) area.set(v, Math.min(A_MAX, Math.max(A_MIN, g.need)));
+  for (const [v, g] of govern) {
+    // beyond the upper bound no design meets the limits; a fixture must not pretend otherwise
+    if (g.need > A_MAX) throw new Error(`warrenFixture: ${v} needs ${g.need.toFixed(0)} mm², above the ${A_MAX} mm² bound; lower loadScale`);
+    area.set(v, Math.max(A_MIN, g.need));
+  }
 
   const loadsOf = (lcId: string) => {
     const lc = lcs.find((l) => l.id === lcId)!;
