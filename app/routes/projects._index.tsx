@@ -86,7 +86,7 @@ export default function Projects({ loaderData }: Route.ComponentProps) {
               <tbody>
                 {projects.map((p) => (
                   <tr key={p.id}>
-                    <td className="font-mono"><Link to={`/projects/${p.id}`} className="text-info underline">{p.code}</Link></td>
+                    <td className="whitespace-nowrap font-mono"><Link to={`/projects/${p.id}`} className="text-info underline">{p.code}</Link></td>
                     <td>
                       {p.name}
                       {p.description && <p className="text-xs text-ink-muted">{p.description}</p>}

@@ -69,8 +69,9 @@ function deniedMessage(user: SessionUser, permission: Permission): string {
   return `This needs permission ${permission}; your role is ${user.role} (it is granted to ${rolesWith(permission).join(", ")})`;
 }
 
+/** 403 with the reason as { error } JSON; a page's ErrorBoundary shows it as "403 Not allowed". */
 export function forbidden(message: string): Response {
-  return jsonError(403, message);
+  return Response.json({ error: message }, { status: 403, statusText: "Not allowed", headers: { "Cache-Control": "no-store" } });
 }
 
 /** The caller, if their role grants the permission; otherwise a 403 naming what was missing. */

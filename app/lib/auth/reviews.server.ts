@@ -10,7 +10,7 @@ import { jobs, reviews, user } from "~/db/schema";
 import { jsonError } from "~/lib/http.server";
 import { notifyDecision } from "~/lib/notify.server";
 import { audit } from "./audit.server";
-import type { SessionUser } from "./authorize.server";
+import { forbidden, type SessionUser } from "./authorize.server";
 import { can } from "./permissions";
 
 export const DECISIONS = ["approved", "changes-requested"] as const;
@@ -49,7 +49,7 @@ export async function createReview(
 ): Promise<Review> {
   const { reviewer } = input;
   if (!can(reviewer.role, "review:job")) {
-    throw jsonError(403, `Reviewing needs permission review:job; your role is ${reviewer.role}`);
+    throw forbidden(`Reviewing needs permission review:job; your role is ${reviewer.role}`);
   }
   const parsed = reviewInputSchema.safeParse({ decision: input.decision, comment: input.comment ?? "" });
   if (!parsed.success) {
@@ -58,7 +58,7 @@ export async function createReview(
   const job = await database.query.jobs.findFirst({ where: eq(jobs.id, input.jobId) });
   if (!job) throw jsonError(404, `Job ${input.jobId} not found`);
   if (job.submittedBy === reviewer.id) {
-    throw jsonError(403, "Four-eyes rule: you submitted this job, so a different checker must review it");
+    throw forbidden("Four-eyes rule: you submitted this job, so a different checker must review it");
   }
   if (job.status !== "succeeded") {
     throw jsonError(409, `Only a succeeded job can be reviewed; job ${job.id} is ${job.status}`);
