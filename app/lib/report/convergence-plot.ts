@@ -22,9 +22,11 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   return out;
 }
 
-export function convergencePlot(w: ReportWriter, history: HistoryEntry[], objectiveLabel: string, height = 200) {
+export function convergencePlot(w: ReportWriter, history: HistoryEntry[], objectiveLabel: string, opts: { title?: string; height?: number } = {}) {
   const doc = w.doc;
-  w.ensure(height + 40);
+  const height = opts.height ?? 200;
+  w.ensure(height + 30 + (opts.title ? 22 : 0)); // the title stays with its plot
+  if (opts.title) w.heading(opts.title, 2);
   const top = w.y;
   const box = { x: w.left + 46, y: top + 6, w: w.width - 46 - 46, h: height - 40 };
   const pts = history.filter((h) => Number.isFinite(h.iteration));
@@ -88,14 +90,16 @@ export function convergencePlot(w: ReportWriter, history: HistoryEntry[], object
 
   // legend
   const ly = box.y + box.h + 27;
-  const item = (x: number, color: string, dash: number[] | null, label: string) => {
+  let lx = w.left;
+  const item = (color: string, dash: number[] | null, label: string) => {
     doc.lineWidth(1.3).strokeColor(color);
     if (dash) doc.dash(dash[0]!, { space: dash[1]! });
-    doc.moveTo(x, ly + 4).lineTo(x + 18, ly + 4).stroke().undash();
-    w.line("sans", 7.5, label, x + 22, ly, { color: INK });
+    doc.moveTo(lx, ly + 4).lineTo(lx + 18, ly + 4).stroke().undash();
+    w.line("sans", 7.5, label, lx + 22, ly, { color: INK });
+    lx += 22 + w.measure("sans", 7.5, label) + 16;
   };
-  item(box.x, INK, null, `${objectiveLabel} (left axis)`);
-  item(box.x + 170, BRASS_STRONG, [3, 2], "KKT residual (right axis)");
-  item(box.x + 300, BAD, [1, 1.5], "largest violation (right axis)");
+  item(INK, null, `${objectiveLabel} (left axis)`);
+  item(BRASS_STRONG, [3, 2], "KKT residual (right axis)");
+  item(BAD, [1, 1.5], "largest violation (right axis; zero drawn at the floor)");
   w.y = top + height + 8;
 }

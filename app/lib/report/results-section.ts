@@ -41,11 +41,8 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
   if (r.solver?.elapsedMs !== undefined) facts.push(["Solve time", `${num(r.solver.elapsedMs / 1000, 3)} s`]);
   w.facts(facts);
 
-  w.heading("Convergence", 2);
-  convergencePlot(w, r.history, `${r.objective.kind} (${objUnit})`);
-
-  w.heading("The optimized truss", 2);
-  trussDrawing(w, drawingInput(r, data.model.file));
+  convergencePlot(w, r.history, `${r.objective.kind} (${objUnit})`, { title: "Convergence" });
+  trussDrawing(w, drawingInput(r, data.model.file), { title: "The optimized truss" });
 
   const lcs = loadCaseIds(data);
   const utilColor = (x: number) => UTIL_BANDS[utilBand(x)]!.color;

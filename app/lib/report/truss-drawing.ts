@@ -19,6 +19,8 @@ export interface DrawingInput {
   dim: number;
   nodes: Map<string, { now: P3; initial: P3; fixed: string[] }>;
   members: { id: string; start: string; end: string; area: number; utilization: number }[];
+  loadCase: string;
+  loads: { node: string; f: P3 }[];
 }
 
 /** Joins the result (final geometry, areas, utilization) with the model (connectivity, supports). */
@@ -38,12 +40,15 @@ export function drawingInput(result: TrussResult, model: ModelFile | null): Draw
     const end = r.end ?? modelMembers.get(r.id)?.end;
     if (start && end && nodes.has(start) && nodes.has(end)) members.push({ id: r.id, start, end, area: r.area, utilization: r.utilization });
   }
-  return { dim: model?.dimension ?? (result.nodes.some((n) => Math.abs(n.z ?? 0) > 0) ? 3 : 2), nodes, members };
+  const lc = model?.loadCases?.[0];
+  const loads = (lc?.loads ?? []).map((l) => ({ node: l.node, f: [l.fx ?? 0, l.fy ?? 0, l.fz ?? 0] as P3 }));
+  return { dim: model?.dimension ?? (result.nodes.some((n) => Math.abs(n.z ?? 0) > 0) ? 3 : 2), nodes, members, loadCase: lc?.id ?? "", loads };
 }
 
-export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHeight?: number } = {}) {
+export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHeight?: number; title?: string } = {}) {
   const doc = w.doc;
   if (input.members.length === 0) {
+    if (opts.title) w.heading(opts.title, 2);
     w.paragraph("The drawing needs the members' end nodes, which neither the result nor the model file gave.", { face: "sans-italic", color: INK_MUTED });
     return;
   }
@@ -58,11 +63,14 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
   const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
   const spanX = x1 - x0 || 1;
   const spanY = y1 - y0 || 1;
-  const maxH = opts.maxHeight ?? 300;
-  const pad = 14;
+  // use the rest of the page when it leaves room for a useful drawing
+  const rest = w.bottom - w.y - 40 - (opts.title ? 22 : 0);
+  const maxH = Math.min(opts.maxHeight ?? 300, rest >= 140 ? rest : Infinity);
+  const pad = 20; // room for the load arrows above the top nodes
   const scale = Math.min((w.width - 2 * pad) / spanX, (maxH - 2 * pad) / spanY);
   const height = Math.max(60, spanY * scale + 2 * pad);
-  w.ensure(height + 34);
+  w.ensure(height + 40 + (opts.title ? 22 : 0)); // the title stays with its drawing
+  if (opts.title) w.heading(opts.title, 2);
   const top = w.y;
   const ox = w.left + (w.width - spanX * scale) / 2;
   const T = (p: P3): [number, number] => {
@@ -93,6 +101,22 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
   }
   doc.lineCap("butt");
 
+  // loads of the first load case as arrows of one length, pointing the way the load acts
+  const arrows = input.loads.length <= 300 ? input.loads : [];
+  for (const l of arrows) {
+    const n = input.nodes.get(l.node);
+    if (!n) continue;
+    const [x, y] = T(n.now);
+    const [px, py] = T([n.now[0] + l.f[0], n.now[1] + l.f[1], n.now[2] + l.f[2]]);
+    const len = Math.hypot(px - x, py - y);
+    if (!(len > 0)) continue;
+    const [ux, uy] = [(px - x) / len, (py - y) / len];
+    const L = 16;
+    const [sx, sy] = [x - ux * L, y - uy * L];
+    doc.moveTo(sx, sy).lineTo(x - ux * 2, y - uy * 2).lineWidth(0.7).strokeColor(INK_MUTED).stroke();
+    doc.moveTo(x, y).lineTo(x - ux * 5 - uy * 2.2, y - uy * 5 + ux * 2.2).lineTo(x - ux * 5 + uy * 2.2, y - uy * 5 - ux * 2.2).closePath().fill(INK_MUTED);
+  }
+
   const few = input.nodes.size <= 60;
   for (const [id, n] of input.nodes) {
     const [x, y] = T(n.now);
@@ -115,7 +139,10 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
     lx += 17 + w.measure("sans", 7, band.label) + 12;
   }
   w.line("sans", 7, "Utilization (worst check over all load cases). Line width grows with the square root of the area.", w.left, ly + 11, { color: INK_MUTED });
-  if (moved) w.line("sans", 7, "Dashed: initial geometry before the shape variables moved the nodes.", w.left, ly + 20, { color: INK_MUTED });
+  const notes: string[] = [];
+  if (arrows.length) notes.push(`Arrows: the loads of ${input.loadCase} (direction only).`);
+  if (moved) notes.push("Dashed: initial geometry before the shape variables moved the nodes.");
+  if (notes.length) w.line("sans", 7, notes.join(" "), w.left, ly + 20, { color: INK_MUTED, width: w.width });
   doc.fillColor(INK);
-  w.y = top + height + (moved ? 36 : 28);
+  w.y = top + height + (notes.length ? 36 : 28);
 }
