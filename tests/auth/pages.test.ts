@@ -58,6 +58,9 @@ describe("sign-in page", () => {
     };
     expect(res.init.status).toBe(400);
     expect(res.data.errors.form).toBe("That e-mail and password do not match an account.");
+    const { listAudit } = await import("~/lib/auth/audit.server");
+    const [refused] = await listAudit({ action: "auth.sign-in-refused" });
+    expect(refused).toMatchObject({ actorId: ids.engineer, detail: { email: "engineer.pages@tarrowkeel-test.example" } });
   });
 
   it("every sign-in is in the audit trail", async () => {

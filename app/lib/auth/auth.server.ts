@@ -4,6 +4,7 @@
 import { createHash } from "node:crypto";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
+import { createAuthMiddleware, isAPIError } from "better-auth/api";
 import { admin } from "better-auth/plugins";
 import { eq } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
@@ -113,7 +114,23 @@ function createAuth(database: Db) {
         "/request-password-reset": { window: 60, max: 5 },
       },
     },
-    plugins: [admin({ defaultRole: "viewer", adminRoles: ["admin"] })],
+    plugins: [admin({ defaultRole: "viewer", adminRoles: ["admin"], bannedUserMessage: "This account is suspended" })],
+    hooks: {
+      // a refused password is part of the trail too (throttled attempts never get this far)
+      after: createAuthMiddleware(async (ctx) => {
+        if (ctx.path !== "/sign-in/email" || !isAPIError(ctx.context.returned)) return;
+        const email = typeof ctx.body?.email === "string" ? ctx.body.email.toLowerCase().slice(0, 200) : null;
+        const known = email ? await database.query.user.findFirst({ where: eq(schema.user.email, email) }) : undefined;
+        await audit({
+          actor: known ? { id: known.id, email: known.email } : null,
+          action: "auth.sign-in-refused",
+          entityType: "user",
+          entityId: known?.id,
+          detail: { email, reason: (ctx.context.returned as { body?: { code?: string } }).body?.code ?? "refused" },
+          ip: realAddress(ctx),
+        }, database);
+      }),
+    },
     databaseHooks: {
       user: {
         create: {
