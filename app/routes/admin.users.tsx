@@ -1,4 +1,5 @@
 import { Form, data, useActionData, useNavigation } from "react-router";
+import { listAllLiveApiKeys, revokeApiKey } from "~/lib/auth/api-keys.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { fieldErrors, formObject, inviteSchema, roleChangeSchema } from "~/lib/auth/forms";
 import { ROLE_LABELS, ROLES } from "~/lib/auth/permissions";
@@ -12,9 +13,10 @@ export function meta() {
 
 export async function loader({ request }: Route.LoaderArgs) {
   const me = await requirePermission(request, "manage:users");
-  const [users, invites] = await Promise.all([listUsers(), listOpenInvitations()]);
+  const [users, invites, keys] = await Promise.all([listUsers(), listOpenInvitations(), listAllLiveApiKeys()]);
   return {
     meId: me.id,
+    keys: keys.map((k) => ({ ...k, createdAt: k.createdAt.toISOString(), lastUsedAt: k.lastUsedAt?.toISOString() ?? null })),
     users: users.map((u) => ({ ...u, createdAt: u.createdAt.toISOString() })),
     invites: invites.map((i) => ({ email: i.email, role: i.role, createdAt: i.createdAt.toISOString() })),
   };
@@ -40,11 +42,15 @@ export async function action({ request }: Route.ActionArgs) {
     const res = await setBanned({ userId: values.userId ?? "", banned: intent === "suspend", by, request });
     return data({ intent, ok: res.ok, message: res.message, errors: {} }, { status: res.ok ? 200 : 400 });
   }
+  if (intent === "revoke-key") {
+    const ok = await revokeApiKey({ id: values.keyId ?? "", actor: by, asAdmin: true, request });
+    return data({ intent, ok, message: ok ? "The key is revoked." : "That key does not exist or is revoked already.", errors: {} }, { status: ok ? 200 : 404 });
+  }
   return data({ intent, ok: false, message: `Unknown request "${intent ?? ""}"`, errors: {} }, { status: 400 });
 }
 
 export default function AdminUsers({ loaderData }: Route.ComponentProps) {
-  const { users, invites, meId } = loaderData;
+  const { users, invites, meId, keys } = loaderData;
   const result = useActionData<typeof action>();
   const busy = useNavigation().state === "submitting";
   const errors: Record<string, string | undefined> = result?.errors ?? {};
@@ -114,6 +120,27 @@ export default function AdminUsers({ loaderData }: Route.ComponentProps) {
             </div>
             <button type="submit" className="btn btn-primary" disabled={busy}>Invite</button>
           </Form>
+          <div className="card">
+            <h2 className="text-lg font-semibold">API keys in use</h2>
+            {keys.length === 0 ? (
+              <p className="mt-2 text-sm text-ink-muted">No live keys.</p>
+            ) : (
+              <ul className="mt-2 space-y-2 text-sm">
+                {keys.map((k) => (
+                  <li key={k.id} className="flex items-center justify-between gap-2">
+                    <span>
+                      <span className="font-mono text-xs">{k.prefix}…</span> {k.name}
+                      <span className="block text-xs text-ink-muted">{k.ownerEmail} · used {k.lastUsedAt ? k.lastUsedAt.slice(0, 10) : "never"}</span>
+                    </span>
+                    <Form method="post">
+                      <input type="hidden" name="keyId" value={k.id} />
+                      <button type="submit" name="intent" value="revoke-key" className="btn btn-danger px-2 py-1" disabled={busy} aria-label={`Revoke key ${k.name} of ${k.ownerEmail}`}>Revoke</button>
+                    </Form>
+                  </li>
+                ))}
+              </ul>
+            )}
+          </div>
           {invites.length > 0 && (
             <div className="card">
               <h2 className="text-lg font-semibold">Open invitations</h2>

@@ -221,3 +221,18 @@ describe("admin: invitations and role changes", () => {
     await expect(ctx.db.delete(auditLog)).rejects.toThrow();
   });
 });
+
+describe("admin: API keys of others", () => {
+  it("an admin sees every live key (never its hash) and can revoke one; the owner's key is refused after", async () => {
+    const { createApiKey } = await import("~/lib/auth/api-keys.server");
+    const { getUser } = await import("~/lib/auth/authorize.server");
+    const { loader, action } = await import("~/routes/admin.users");
+    const { key, info } = await createApiKey({ userId: ids.engineer!, name: "left on a laptop" });
+    const page = (await loader({ request: req("/admin/users", { cookie: cookies.admin }), params: {}, context: {} } as never)) as { keys: Record<string, unknown>[] };
+    const listed = page.keys.find((k) => k.id === info.id);
+    expect(listed).toMatchObject({ name: "left on a laptop", ownerEmail: "engineer.pages@tarrowkeel-test.example" });
+    expect(JSON.stringify(page.keys)).not.toMatch(/hash|swk_[A-Za-z0-9_-]{20}/);
+    await action({ request: form({ intent: "revoke-key", keyId: info.id }, { cookie: cookies.admin, path: "/admin/users" }), params: {}, context: {} } as never);
+    expect(await getUser(req("/api/projects", { key }))).toBeNull();
+  });
+});

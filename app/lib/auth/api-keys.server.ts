@@ -49,6 +49,16 @@ export async function listApiKeys(userId: string, database: Db = defaultDb()): P
   return rows.map(({ hash: _hash, ...info }) => info);
 }
 
+/** Every live key with its owner, for the admin's overview. */
+export async function listAllLiveApiKeys(database: Db = defaultDb()) {
+  return database
+    .select({ id: apiKeys.id, name: apiKeys.name, prefix: apiKeys.prefix, createdAt: apiKeys.createdAt, lastUsedAt: apiKeys.lastUsedAt, ownerEmail: user.email })
+    .from(apiKeys)
+    .innerJoin(user, eq(user.id, apiKeys.userId))
+    .where(isNull(apiKeys.revokedAt))
+    .orderBy(desc(apiKeys.createdAt));
+}
+
 /**
  * Revoke a key. Owners revoke their own keys; `asAdmin` may revoke anyone's.
  * Returns false when there is no such (unrevoked) key for that caller.
