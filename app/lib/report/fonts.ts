@@ -5,6 +5,7 @@
 import fs from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
+import zlib from "node:zlib";
 
 export type Face = "sans" | "sans-semibold" | "sans-bold" | "sans-italic" | "mono";
 
@@ -37,6 +38,54 @@ const SUBSTITUTES: Record<string, string> = {
   "∞": "inf",
   "√": "sqrt",
 };
+
+/**
+ * WOFF 1.0 → plain sfnt (TrueType/OpenType), once per process: pdfkit would otherwise inflate
+ * every WOFF table again for each document, in JavaScript. Layout of both formats per the W3C
+ * WOFF 1.0 recommendation: a 44-byte header, 20-byte table entries, zlib-compressed tables.
+ */
+export function woffToSfnt(woff: Buffer): Buffer {
+  if (woff.readUInt32BE(0) !== 0x774f4646) throw new Error("not a WOFF 1.0 font file");
+  const flavor = woff.readUInt32BE(4);
+  const numTables = woff.readUInt16BE(12);
+  const entries = Array.from({ length: numTables }, (_, i) => {
+    const at = 44 + i * 20;
+    return {
+      tag: woff.readUInt32BE(at),
+      offset: woff.readUInt32BE(at + 4),
+      compLength: woff.readUInt32BE(at + 8),
+      origLength: woff.readUInt32BE(at + 12),
+      checksum: woff.readUInt32BE(at + 16),
+    };
+  });
+  const tables = entries.map((e) => {
+    const raw = woff.subarray(e.offset, e.offset + e.compLength);
+    const data = e.compLength < e.origLength ? zlib.inflateSync(raw) : raw;
+    if (data.length !== e.origLength) throw new Error("WOFF table has the wrong length after inflating");
+    return { ...e, data };
+  });
+  const pow2 = 2 ** Math.floor(Math.log2(numTables));
+  const headerLength = 12 + 16 * numTables;
+  const pad4 = (n: number) => (n + 3) & ~3;
+  const total = tables.reduce((sum, t) => sum + pad4(t.origLength), headerLength);
+  const out = Buffer.alloc(total);
+  out.writeUInt32BE(flavor, 0);
+  out.writeUInt16BE(numTables, 4);
+  out.writeUInt16BE(pow2 * 16, 6);
+  out.writeUInt16BE(Math.log2(pow2), 8);
+  out.writeUInt16BE(numTables * 16 - pow2 * 16, 10);
+  let offset = headerLength;
+  tables.forEach((t, i) => {
+    const rec = 12 + i * 16;
+    out.writeUInt32BE(t.tag, rec);
+    out.writeUInt32BE(t.checksum, rec + 4);
+    out.writeUInt32BE(offset, rec + 8);
+    out.writeUInt32BE(t.origLength, rec + 12);
+    t.data.copy(out, offset);
+    offset += pad4(t.origLength);
+  });
+  return out;
+}
 
 interface Subset {
   name: string; // the pdfkit font name
@@ -84,7 +133,7 @@ function faces(): Map<Face, Subset[]> {
       const file = path.join(dir, "files", `${base}.woff`);
       const r = ranges.get(base);
       if (!r || !fs.existsSync(file)) continue;
-      subsets.push({ name: `${face}:${sub}`, bytes: fs.readFileSync(file), ranges: r });
+      subsets.push({ name: `${face}:${sub}`, bytes: woffToSfnt(fs.readFileSync(file)), ranges: r });
     }
     if (subsets.length === 0) throw new Error(`No font files found for ${family} ${spec.weight} ${spec.style}`);
     map.set(face, subsets);

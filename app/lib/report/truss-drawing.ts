@@ -140,6 +140,7 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
   }
   w.line("sans", 7, "Utilization (worst check over all load cases). Line width grows with the square root of the area.", w.left, ly + 11, { color: INK_MUTED });
   const notes: string[] = [];
+  if (input.dim === 3) notes.push("Isometric view, z up.");
   if (arrows.length) notes.push(`Arrows: the loads of ${input.loadCase} (direction only).`);
   if (moved) notes.push("Dashed: initial geometry before the shape variables moved the nodes.");
   if (notes.length) w.line("sans", 7, notes.join(" "), w.left, ly + 20, { color: INK_MUTED, width: w.width });
