@@ -15,6 +15,15 @@ function day(value: string | null): Date | undefined {
   return Number.isNaN(d.getTime()) ? undefined : d;
 }
 
+/** { from: "viewer", to: "checker" } → "from viewer · to checker", for reading at a glance. */
+function describe(detail: unknown): string {
+  if (!detail || typeof detail !== "object") return "";
+  return Object.entries(detail as Record<string, unknown>)
+    .filter(([, v]) => v !== undefined && v !== null && v !== "")
+    .map(([k, v]) => `${k} ${typeof v === "object" ? JSON.stringify(v) : String(v)}`)
+    .join(" · ");
+}
+
 export async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "read:audit");
   const sp = new URL(request.url).searchParams;
@@ -29,7 +38,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   });
   const more = rows.length > PAGE;
   return {
-    rows: rows.slice(0, PAGE).map((r) => ({ ...r, at: r.at.toISOString(), detail: r.detail ? JSON.stringify(r.detail) : "" })),
+    rows: rows.slice(0, PAGE).map((r) => ({ ...r, at: r.at.toISOString(), detail: describe(r.detail) })),
     nextBefore: more ? rows[PAGE - 1]!.id : null,
   };
 }
@@ -77,9 +86,9 @@ export default function AdminAudit({ loaderData }: Route.ComponentProps) {
                 <tr key={r.id}>
                   <td className="whitespace-nowrap font-mono text-xs">{r.at.replace("T", " ").slice(0, 19)}</td>
                   <td className="font-mono text-xs">{r.actorEmail ?? r.actorId ?? "—"}</td>
-                  <td className="font-mono text-xs">{r.action}</td>
+                  <td className="whitespace-nowrap font-mono text-xs">{r.action}</td>
                   <td className="font-mono text-xs">{r.entityType ? `${r.entityType} ${r.entityId ?? ""}` : "—"}</td>
-                  <td className="max-w-md truncate font-mono text-xs" title={r.detail}>{r.detail}</td>
+                  <td className="max-w-md text-xs">{r.detail}</td>
                   <td className="font-mono text-xs">{r.ip ?? ""}</td>
                 </tr>
               ))}
