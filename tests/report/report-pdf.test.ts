@@ -160,3 +160,40 @@ describe("large tables and other alphabets", () => {
     expect(pages[0]).toContain("Øresund quay — σ check");
   });
 });
+
+describe("results that need attention", () => {
+  it("reports failed verification checks and a non-optimal status in words", async () => {
+    const f = warrenFixture({ panels: 4 });
+    const data = reportDataFor(f);
+    const r = structuredClone(data.result);
+    r.status = "not-converged";
+    r.message = "Stopped at the iteration limit (200) with the KKT residual at 3.2e-4";
+    r.hint = "Raise the iteration limit or start from larger areas";
+    // a member overstressed by 4 %: the verification must say so, and the table flag it
+    const bad = { id: "stress:BC2:LC1", kind: "stress" as const, value: 244.4, limit: 235, ratio: 1.04, ok: false };
+    r.verification = { ...r.verification!, allLimitsMet: false, failures: [bad], maxUtilization: 1.04 };
+    r.members[1]!.utilization = 1.04;
+    const pages = await pageTexts(await buildReportPdf({ ...data, result: r }));
+    const all = pages.join("\n");
+    expect(all).toContain("not converged: the solver stopped before meeting its tolerances");
+    expect(all).toContain("What to try Raise the iteration limit or start from larger areas");
+    expect(all).toContain("All limits met NO: 1 check failed");
+    expect(all).toMatch(/Failed checks .*stress:BC2:LC1 stress 244\.4 235 104\.0 % FAILED/s);
+    expect(all).toMatch(/BC2 L1–L2 bottom-chord \S+ 2500 104\.0 %/);
+  });
+
+  it("words the active constraints itself when the result has no shadow-price sentences", async () => {
+    const f = warrenFixture({ panels: 4 });
+    const data = reportDataFor(f);
+    const r = structuredClone(data.result);
+    delete r.shadowPrices;
+    r.activeConstraints = [
+      { id: "displacement:U2:y:LC1", multiplier: 0.0125 },
+      { id: "volume", multiplier: 2.5e-9 },
+    ];
+    const all = (await pageTexts(await buildReportPdf({ ...data, result: r }))).join("\n");
+    expect(all).toContain("2 limits govern the final design");
+    expect(all).toContain("Relaxing the displacement limit of node U2 along y in load case LC1 by one unit would change the mass by about −0.0125 t (0.0125 t per mm).");
+    expect(all).toContain("Relaxing the volume limit by one unit would change the mass by about −2.50e-9 t (2.50e-9 t per mm³).");
+  });
+});
