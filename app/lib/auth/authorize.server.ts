@@ -19,10 +19,10 @@ function isApi(request: Request): boolean {
 }
 
 function bearerToken(request: Request): string | null {
-  const h = request.headers.get("authorization");
-  if (!h) return null;
-  const m = /^Bearer\s+(\S+)\s*$/i.exec(h);
-  return m ? m[1]! : "";
+  const h = request.headers.get("authorization")?.trim();
+  if (!h || !/^bearer\b/i.test(h)) return null; // other schemes are not ours to judge
+  const m = /^Bearer\s+(\S+)$/i.exec(h);
+  return m ? m[1]! : ""; // "Bearer" with nothing usable: a key was meant, and it is not valid
 }
 
 type UserRow = { id: string; email: string; name: string; role?: string | null; banned?: boolean | null };
