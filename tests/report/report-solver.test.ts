@@ -1,0 +1,37 @@
+// A report made from a real solver run, not a fixture: the symmetric two-bar truss with its
+// apex height free. Closed form (common practice; the two-bar example of structural
+// optimization texts, from memory): the optimum has the apex as high as the half-span,
+// b = 1000 mm, so the bars sit at 45°, each 1000·√2 = 1414.2 mm long, carrying
+// P / (2 sin 45°) = 100000 / √2 = 70711 N in compression, needing 70711 / 200 = 353.6 mm².
+import { describe, expect, it } from "vitest";
+import fs from "node:fs";
+import { optimizeModel } from "~/engine/design";
+import { parseModel } from "~/engine/truss";
+import { buildReportPdf } from "~/lib/report/document";
+import type { ModelFile } from "~/lib/report/report-data";
+import { pageTexts } from "./pdf-text";
+
+describe("report of a solved two-bar truss", () => {
+  it("prints the closed-form optimum the solver reached", async () => {
+    const json = JSON.parse(fs.readFileSync("tests/fixtures/models/design/two-bar-shape.truss.json", "utf8")) as ModelFile;
+    const parsed = parseModel(json);
+    if (!parsed.ok) throw new Error(parsed.errors.map((e) => `${e.path}: ${e.message}`).join("; "));
+    const result = optimizeModel(parsed.model);
+    expect(result.status).toBe("optimal");
+    const pdf = await buildReportPdf({
+      job: { id: "job-2bar", status: "succeeded", options: {}, createdAt: new Date("2026-11-30T10:00:00Z"), startedAt: null, finishedAt: null, submitter: "Ines Okafor" },
+      project: { code: "QA-1", name: "Solver acceptance" },
+      model: { id: "m", name: json.name!, fileName: "two-bar-shape.truss.json", sha256: "c".repeat(64), sizeBytes: 1500, uploadedAt: null, file: json },
+      result,
+      reviews: [],
+      generatedAt: new Date("2026-11-30T12:00:00Z"),
+    });
+    const all = (await pageTexts(pdf)).join("\n");
+    expect(all).toMatch(/LC L–C bars 353\.6 1414\.2 100\.0 %/);
+    expect(all).toMatch(/RC R–C bars 353\.6 1414\.2 100\.0 %/);
+    expect(all).toMatch(/LC −70710 −200/); // 70711 N to four figures
+    expect(all).toMatch(/apex-rise 600 −300 2000/); // apex from y = 400 up to y = 1000
+    expect(all).toContain("optimal: the solver met its optimality and feasibility tolerances");
+    expect(all).toContain(result.message);
+  });
+});
