@@ -79,13 +79,19 @@ async function stillSignedIn(r: Role): Promise<void> {
   if (!(await getUser(req("/", { cookie: cookies[r] })))) cookies[r] = await sessionCookie(email(r)); // after /sign-out
 }
 
-async function callRoute(mod: Record<string, unknown>, method: Method, pattern: string, who: { cookie?: string; key?: string }): Promise<Outcome> {
+async function callRoute(
+  mod: Record<string, unknown>,
+  method: Method,
+  pattern: string,
+  who: { cookie?: string; key?: string },
+  fields: Record<string, string> = {},
+): Promise<Outcome> {
   const fn = (method === "GET" ? mod.loader : mod.action) as ((a: unknown) => Promise<unknown>) | undefined;
   if (!fn) return { kind: "allowed", status: 200, note: "no server function" };
   const isJsonApi = pattern.startsWith("/api/");
   const init: RequestInit = { method };
   if (method !== "GET") {
-    init.body = isJsonApi ? "{}" : new URLSearchParams();
+    init.body = isJsonApi ? JSON.stringify(fields) : new URLSearchParams(fields);
     init.headers = { "content-type": isJsonApi ? "application/json" : "application/x-www-form-urlencoded", origin: "http://localhost:4310" };
   }
   const request = req(urlFor(pattern), { ...init, cookie: who.cookie, key: who.key });
@@ -148,5 +154,27 @@ describe("role x route matrix", () => {
     if (errored.length) console.warn(`[route-matrix] allowed calls that threw (made-up ids or empty bodies):\n  ${errored.join("\n  ")}`);
     expect(mismatches).toEqual([]);
     expect(calls).toBeGreaterThan(100);
+  });
+
+  it("actions that branch on their body deny per case, as BODY_CASES says", async () => {
+    const { BODY_CASES, accessFor, allows, normalizePattern } = await import("~/lib/auth/route-access");
+    const mismatches: string[] = [];
+    let ran = 0;
+    for (const c of BODY_CASES) {
+      const f = flat.find((x) => normalizePattern(x.key) === normalizePattern(c.route));
+      if (!f) continue; // the route is not in app/routes.ts (yet)
+      expect(accessFor(f.key)?.[c.method], `${c.route} lists ${c.method}`).toBeDefined();
+      const mod = await import(/* @vite-ignore */ path.resolve("app", f.file));
+      const callers: { label: string; role: Role | null; cookie?: string }[] = [{ label: "anonymous", role: null }, ...ROLES.map((r) => ({ label: r, role: r, cookie: cookies[r] }))];
+      for (const who of callers) {
+        const got = await callRoute(mod, c.method, f.pattern, who, c.body);
+        ran++;
+        const want = allows(c.access, who.role) ? "allowed" : "denied";
+        if (got.kind !== want) mismatches.push(`${c.method} ${c.route} ${JSON.stringify(c.body)} as ${who.label}: expected ${want}, got ${got.status} ${got.note}`);
+        if (who.role) await stillSignedIn(who.role);
+      }
+    }
+    expect(mismatches).toEqual([]);
+    expect(ran).toBeGreaterThan(0);
   });
 });

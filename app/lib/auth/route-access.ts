@@ -61,6 +61,25 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/dev/inbox": { GET: ADMIN }, // any signed-in role too, but only when NODE_ENV=development
 };
 
+/**
+ * Actions that do different things by their body (a form's "intent") have their cases here:
+ * the matrix test also sends each body and checks the outcome per role.
+ */
+export interface BodyCase {
+  route: string; // a key of ROUTE_ACCESS
+  method: Exclude<Method, "GET">;
+  body: Record<string, string>; // form fields for pages, JSON for /api/*
+  access: Access;
+}
+
+export const BODY_CASES: BodyCase[] = [
+  { route: "/jobs/:id", method: "POST", body: { intent: "review", decision: "approved", comment: "checked" }, access: CHECKERS },
+  { route: "/api/jobs/:id/reviews", method: "POST", body: { decision: "approved", comment: "checked" }, access: CHECKERS },
+  { route: "/admin/users", method: "POST", body: { intent: "invite", email: "someone@example.com", role: "viewer" }, access: ADMIN },
+  { route: "/account", method: "POST", body: { intent: "create", name: "matrix key" }, access: ALL },
+  { route: "/projects", method: "POST", body: { code: "MATRIX", name: "matrix" }, access: PRODUCERS },
+];
+
 /** "/api/jobs/:jobId/reviews" and "/api/jobs/:id/reviews" are the same route. */
 export function normalizePattern(pattern: string): string {
   return pattern.replace(/:[^/]+/g, ":param").replace(/\/+$/, "") || "/";
