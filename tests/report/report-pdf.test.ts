@@ -117,7 +117,7 @@ describe("the report after review", () => {
     });
     expect(pages[0]).toContain("Comment: Chord groups checked by hand against the section method; agreed.");
     // the earlier decision stays in the review record
-    expect(pages[0]).toMatch(/Tomasz Réveillon changes requested Add the drift case/);
+    expect(pages[0]).toMatch(/2026-11-30 11:00:00 UTC · Tomasz Réveillon · changes requested Add the drift case on the right half\./);
   });
 
   it("shows a changes-requested decision as such on every page", async () => {

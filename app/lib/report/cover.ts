@@ -5,7 +5,6 @@ import { num, utc } from "./format";
 import type { ReportWriter } from "./layout";
 import { BAD, BAD_WASH, BRASS, BRASS_WASH, INK, INK_MUTED, INK_SOFT, OK, OK_WASH, WARN, WARN_WASH } from "./palette";
 import { reviewState, type ReportData } from "./report-data";
-import { table } from "./tables";
 
 const STATUS_WORDS: Record<string, string> = {
   optimal: "optimal: the solver met its optimality and feasibility tolerances",
@@ -86,16 +85,14 @@ export function coverPage(w: ReportWriter, data: ReportData) {
     w.line("sans-semibold", 9.5, "Review record", w.left, w.y, { color: INK });
     w.y += 14;
     w.paragraph("Decisions are kept in the order they were made; the latest one sets the state of this report.", { size: 8, color: INK_MUTED });
-    table(
-      w,
-      [
-        { header: "When", weight: 2.9 },
-        { header: "Checker", weight: 2.4 },
-        { header: "Decision", weight: 2 },
-        { header: "Comment", weight: 6 },
-      ],
-      data.reviews.map((r) => [utc(r.at), r.reviewer, r.decision === "approved" ? "approved" : "changes requested", r.comment]),
-    );
+    // a list, not a table: a checker's comment is part of the record and is never cut short
+    for (const r of data.reviews) {
+      const head = `${utc(r.at)} · ${r.reviewer} · ${r.decision === "approved" ? "approved" : "changes requested"}`;
+      w.ensure(14 + w.paragraphHeight(r.comment || "(no comment)", { size: 8.5, width: w.width - 14 }));
+      w.line("sans-semibold", 8.5, head, w.left, w.y, { color: r.decision === "approved" ? OK : WARN, width: w.width });
+      w.y += 12;
+      w.paragraph(r.comment || "(no comment)", { size: 8.5, x: w.left + 14, gap: 6, color: INK_SOFT });
+    }
   }
   w.doc.fillColor(INK);
 }
