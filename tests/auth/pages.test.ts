@@ -236,3 +236,19 @@ describe("admin: API keys of others", () => {
     expect(await getUser(req("/api/projects", { key }))).toBeNull();
   });
 });
+
+describe("sign-in form origin", () => {
+  it("a form posted from another site is refused; one from this host by any name is accepted", async () => {
+    const { action } = await import("~/routes/sign-in");
+    const body = () => new URLSearchParams({ email: "engineer.pages@tarrowkeel-test.example", password: PASSWORD });
+    const foreign = (await run(() =>
+      action({ request: new Request("http://127.0.0.1:4310/sign-in", { method: "POST", body: body(), headers: { origin: "https://elsewhere.example" } }), params: {}, context: {} } as never),
+    )) as unknown as { init: { status: number }; data: { errors: Record<string, string> } };
+    expect(foreign.init.status).toBe(400);
+    expect(foreign.data.errors.form).toMatch(/sent from another site/);
+    const local = (await run(() =>
+      action({ request: new Request("http://127.0.0.1:4310/sign-in", { method: "POST", body: body(), headers: { origin: "http://127.0.0.1:4310" } }), params: {}, context: {} } as never),
+    )) as Response;
+    expect(local.status).toBe(302);
+  });
+});

@@ -198,8 +198,16 @@ export async function callAuthEndpoint(
 ): Promise<{ status: number; data: any; setCookies: string[]; retryAfter: number | null }> {
   const base = config().APP_URL.replace(/\/$/, "");
   const headers = new Headers({ "content-type": "application/json" });
-  const origin = request.headers.get("origin") ?? new URL(base).origin;
-  headers.set("origin", origin);
+  // A form posted from this very host (whatever name it was reached by: localhost, 127.0.0.1)
+  // speaks for our own origin.
+  // A form from elsewhere is refused here, before better-auth (which skips its own origin
+  // check when NODE_ENV=test, so this keeps the rule the same everywhere).
+  const sent = request.headers.get("origin");
+  const own = new URL(base).origin;
+  if (sent && sent !== new URL(request.url).origin && sent !== own) {
+    return { status: 403, data: { code: "INVALID_ORIGIN", message: `Forms from ${sent} are not accepted` }, setCookies: [], retryAfter: null };
+  }
+  headers.set("origin", own);
   for (const h of ["cookie", "user-agent", "x-forwarded-for"]) {
     const v = request.headers.get(h);
     if (v) headers.set(h, v);
