@@ -86,7 +86,7 @@ describe("pages and API keys in the browser", () => {
     await page.getByRole("button", { name: "Create key" }).click();
     const key = (await page.getByTestId("new-api-key").innerText()).trim();
     expect(key).toMatch(/^swk_/);
-    await page.getByRole("cell", { name: "slipway study" }).waitFor(); // listed, by its prefix only
+    await page.getByRole("cell", { name: "slipway study", exact: true }).waitFor(); // listed, by its prefix only
     await screenshot(page, "auth-account-key-1440x900");
 
     const bearer = { authorization: `Bearer ${key}` };
