@@ -62,9 +62,9 @@ export default function JobsIndex({ loaderData }: Route.ComponentProps) {
         </div>
       </header>
       <Form method="get" className="card flex flex-wrap items-end gap-3" aria-label="Filter jobs">
-        <label className="block">
+        <label className="block w-full sm:w-auto">
           <span className="field-label">Status</span>
-          <select name="status" defaultValue={filters.status} className="field-input w-auto">
+          <select name="status" defaultValue={filters.status} className="field-input sm:w-auto">
             <option value="">any</option>
             <option value="active">queued or running</option>
             {JOB_STATUSES.map((s) => (
@@ -74,7 +74,7 @@ export default function JobsIndex({ loaderData }: Route.ComponentProps) {
             ))}
           </select>
         </label>
-        <label className="block min-w-0 flex-1 sm:max-w-xs">
+        <label className="block w-full min-w-0 sm:w-auto sm:max-w-xs sm:flex-1">
           <span className="field-label">Project</span>
           <select name="projectId" defaultValue={filters.projectId} className="field-input">
             <option value="">all projects</option>

@@ -179,8 +179,14 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
         </dl>
         {stability && (
           <p className={`mt-4 rounded-md px-3 py-2 text-sm ${stability.ok ? "bg-ok-wash text-ok" : "bg-bad-wash text-bad"}`} data-testid="stability">
-            <strong>{stability.ok ? "Stable: " : "Not stable: "}</strong>
-            {stability.message}
+            {/^(stable|not stable|unstable)/i.test(stability.message) ? (
+              stability.message.charAt(0).toUpperCase() + stability.message.slice(1)
+            ) : (
+              <>
+                <strong>{stability.ok ? "Stable: " : "Not stable: "}</strong>
+                {stability.message}
+              </>
+            )}
           </p>
         )}
       </section>

@@ -23,14 +23,16 @@ export function GoverningConstraints({ result, limit = 12 }: { result: TrussResu
     <div data-testid="governing">
       <ol className="space-y-2">
         {shown.map((r) => (
-          <li key={r.id} className="flex flex-col gap-1 rounded-md border border-rule px-3 py-2 sm:flex-row sm:items-baseline sm:gap-4">
-            <code className="shrink-0 font-mono text-xs text-ink-muted sm:w-56 sm:truncate" title={r.id}>
-              {r.id}
-            </code>
-            <span className="flex-1 text-sm text-ink-soft">{r.sentence}</span>
-            <span className="num shrink-0 text-sm text-ink" title="shadow price (Lagrange multiplier)">
-              {fmtSci(r.multiplier)} {r.unit}
-            </span>
+          <li key={r.id} className="rounded-md border border-rule px-3 py-2">
+            <div className="flex flex-wrap items-baseline justify-between gap-x-4">
+              <code className="min-w-0 truncate font-mono text-xs text-ink-muted" title={r.id}>
+                {r.id}
+              </code>
+              <span className="num text-sm text-ink" title="shadow price (Lagrange multiplier)">
+                {fmtSci(r.multiplier)} {r.unit}
+              </span>
+            </div>
+            <p className="mt-1 text-sm text-ink-soft">{r.sentence}</p>
           </li>
         ))}
       </ol>

@@ -70,7 +70,7 @@ export function UploadBox({ projectId, limitBytes }: { projectId: string; limitB
       {fetcher.data?.error && !busy && (
         <>
           {fetcher.data.details?.length ? (
-            <IssueList title={fetcher.data.error} issues={fetcher.data.details} />
+            <IssueList title="Nothing was stored: fix these problems and upload the file again" issues={fetcher.data.details} />
           ) : (
             <ErrorNote title="The model was not stored">{fetcher.data.error}</ErrorNote>
           )}

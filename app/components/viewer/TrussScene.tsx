@@ -4,7 +4,7 @@
 // loads arrows. The camera frames the truss on demand ("fit"); planar trusses get a 2D
 // projection (orthographic, pan and zoom only) unless the user asks for 3D.
 import { OrbitControls, OrthographicCamera, PerspectiveCamera } from "@react-three/drei";
-import { Canvas, useThree, type ThreeEvent } from "@react-three/fiber";
+import { Canvas, useThree } from "@react-three/fiber";
 import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
@@ -37,17 +37,19 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
   const up = upAxis(view);
   const ortho = view.planar && settings.projection2d;
   const span = view.bounds.span;
+  // big trusses: no multisampling and one pixel per CSS pixel, so orbiting stays fluid on
+  // software renderers and small GPUs; thin members hardly show aliasing at that density
+  const heavy = view.members.length > 1200;
   return (
     <Canvas
       key={ortho ? "ortho" : "persp"}
       frameloop="demand"
-      dpr={[1, 2]}
-      gl={{ antialias: true, preserveDrawingBuffer: true }}
+      dpr={heavy ? 1 : [1, 2]}
+      gl={{ antialias: !heavy, preserveDrawingBuffer: true, powerPreference: "high-performance" }}
       onCreated={({ gl }) => {
         gl.setClearColor(new THREE.Color(cssColor("--color-paper-raised", "#ffffff")));
         gl.domElement.addEventListener("webglcontextlost", () => onContextLost?.());
       }}
-      onPointerMissed={() => onSelectMember?.(null)}
       data-testid="truss-canvas"
     >
       {ortho ? (
@@ -87,7 +89,8 @@ function Members({ view, settings, onSelect }: { view: TrussView; settings: Scen
   const invalidate = useThree((s) => s.invalidate);
   const mesh = useMemo(() => {
     // few radial segments: at 2,500 members the triangle count stays modest and members still read as round
-    const geometry = new THREE.CylinderGeometry(1, 1, 1, view.members.length > 1500 ? 6 : 10, 1, false);
+    // the joints' spheres cover the member ends, so the cylinders need no caps
+    const geometry = new THREE.CylinderGeometry(1, 1, 1, view.members.length > 1200 ? 6 : 10, 1, true);
     const material = new THREE.MeshLambertMaterial({ color: 0xffffff });
     const m = new THREE.InstancedMesh(geometry, material, Math.max(1, view.members.length));
     m.count = view.members.length;
@@ -124,21 +127,47 @@ function Members({ view, settings, onSelect }: { view: TrussView; settings: Scen
   }, [mesh, view, colourKey, invalidate]);
 
   return (
-    <primitive
-      object={mesh}
-      onClick={(e: ThreeEvent<MouseEvent>) => {
-        e.stopPropagation();
-        onSelect?.(e.instanceId ?? null);
-      }}
-    />
+    <>
+      <primitive object={mesh} />
+      {onSelect && <Picker mesh={mesh} onSelect={onSelect} />}
+    </>
   );
+}
+
+/**
+ * Click a member to select it. One raycast per click, not per pointer move: with thousands
+ * of instances a hover test on every move would cost more than drawing the frame.
+ */
+function Picker({ mesh, onSelect }: { mesh: THREE.InstancedMesh; onSelect: (i: number | null) => void }) {
+  const gl = useThree((s) => s.gl);
+  const camera = useThree((s) => s.camera);
+  useEffect(() => {
+    const el = gl.domElement;
+    const ray = new THREE.Raycaster();
+    let down: { x: number; y: number } | null = null;
+    const onDown = (e: PointerEvent) => (down = { x: e.clientX, y: e.clientY });
+    const onUp = (e: PointerEvent) => {
+      if (!down || Math.hypot(e.clientX - down.x, e.clientY - down.y) > 4) return; // a drag, not a click
+      const r = el.getBoundingClientRect();
+      ray.setFromCamera(new THREE.Vector2(((e.clientX - r.left) / r.width) * 2 - 1, -((e.clientY - r.top) / r.height) * 2 + 1), camera);
+      const hit = ray.intersectObject(mesh, false)[0];
+      onSelect(hit?.instanceId ?? null);
+    };
+    el.addEventListener("pointerdown", onDown);
+    el.addEventListener("pointerup", onUp);
+    return () => {
+      el.removeEventListener("pointerdown", onDown);
+      el.removeEventListener("pointerup", onUp);
+    };
+  }, [gl, camera, mesh, onSelect]);
+  return null;
 }
 
 function Joints({ view }: { view: TrussView }) {
   const invalidate = useThree((s) => s.invalidate);
   const mesh = useMemo(() => {
     const m = new THREE.InstancedMesh(
-      new THREE.SphereGeometry(1, 8, 6),
+      view.nodes.length > 400 ? new THREE.SphereGeometry(1, 6, 4) : new THREE.SphereGeometry(1, 10, 8),
       new THREE.MeshLambertMaterial({ color: new THREE.Color(cssColor("--color-ink", "#16202c")) }),
       Math.max(1, view.nodes.length),
     );
@@ -239,37 +268,73 @@ function Supports({ view }: { view: TrussView }) {
   return <primitive object={mesh} raycast={() => null} />;
 }
 
-/** Load arrows of one load case, their heads on the node, length by magnitude. */
+/**
+ * Load arrows of one load case, heads on the node, length by magnitude: all shafts in one
+ * line set and all heads in one instanced cone mesh (two draw calls for any number of loads).
+ */
 function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
-  const group = useMemo(() => {
-    const g = new THREE.Group();
+  const invalidate = useThree((s) => s.invalidate);
+  const arrows = useMemo(() => {
     const lc = view.loadCases[loadCase];
-    if (!lc) return g;
-    const maxF = lc.loads.reduce((m, l) => Math.max(m, Math.hypot(...l.f)), 0);
-    if (!(maxF > 0)) return g;
-    const colour = new THREE.Color(cssColor("--color-info", "#2c5d8a"));
-    const longest = Math.min(view.bounds.span * 0.15, view.medianLength * 1.2);
-    for (const l of lc.loads) {
-      const mag = Math.hypot(...l.f);
-      if (!(mag > 0)) continue;
-      const len = longest * Math.max(0.25, mag / maxF);
-      const dir = new THREE.Vector3(...l.f).normalize();
-      const tip = new THREE.Vector3(...view.nodes[l.node]!.position);
-      const origin = tip.clone().addScaledVector(dir, -len);
-      g.add(new THREE.ArrowHelper(dir, origin, len, colour, len * 0.28, len * 0.14));
-    }
-    return g;
+    const maxF = lc ? lc.loads.reduce((m, l) => Math.max(m, Math.hypot(...l.f)), 0) : 0;
+    if (!lc || !(maxF > 0)) return [];
+    const longest = Math.min(view.bounds.span * 0.09, view.medianLength * 0.7);
+    return lc.loads
+      .filter((l) => Math.hypot(...l.f) > 0)
+      .map((l) => {
+        const mag = Math.hypot(...l.f);
+        return { tip: view.nodes[l.node]!.position, dir: new THREE.Vector3(...l.f).normalize(), len: longest * Math.max(0.25, mag / maxF) };
+      });
   }, [view, loadCase]);
+  const objects = useMemo(() => {
+    const colour = new THREE.Color(cssColor("--color-info", "#2c5d8a"));
+    const shaft = new Float32Array(arrows.length * 6);
+    arrows.forEach((a, i) => {
+      const tip = new THREE.Vector3(...a.tip);
+      const start = tip.clone().addScaledVector(a.dir, -a.len);
+      const neck = tip.clone().addScaledVector(a.dir, -a.len * 0.28);
+      shaft.set([start.x, start.y, start.z, neck.x, neck.y, neck.z], i * 6);
+    });
+    const g = new THREE.BufferGeometry();
+    g.setAttribute("position", new THREE.BufferAttribute(shaft, 3));
+    const lines = new THREE.LineSegments(g, new THREE.LineBasicMaterial({ color: colour }));
+    const cone = new THREE.ConeGeometry(0.5, 1, 10);
+    cone.translate(0, -0.5, 0);
+    const heads = new THREE.InstancedMesh(cone, new THREE.MeshLambertMaterial({ color: colour }), Math.max(1, arrows.length));
+    heads.count = arrows.length;
+    return { lines, heads };
+  }, [arrows]);
+  useLayoutEffect(() => {
+    const mat = new THREE.Matrix4();
+    const s = new THREE.Vector3();
+    const q = new THREE.Quaternion();
+    arrows.forEach((a, i) => {
+      // a head a quarter of the arrow long, half as wide as long; tip at the node
+      q.setFromUnitVectors(new THREE.Vector3(0, 1, 0), a.dir);
+      s.set(a.len * 0.14, a.len * 0.28, a.len * 0.14);
+      mat.compose(new THREE.Vector3(...a.tip), q, s);
+      objects.heads.setMatrixAt(i, mat);
+    });
+    objects.heads.instanceMatrix.needsUpdate = true;
+    objects.heads.computeBoundingSphere();
+    invalidate();
+  }, [arrows, objects, invalidate]);
   useEffect(
-    () => () =>
-      group.traverse((o) => {
-        const m = o as THREE.Mesh;
-        m.geometry?.dispose();
-        (m.material as THREE.Material | undefined)?.dispose?.();
-      }),
-    [group],
+    () => () => {
+      for (const o of [objects.lines, objects.heads]) {
+        o.geometry.dispose();
+        (o.material as THREE.Material).dispose();
+      }
+      objects.heads.dispose();
+    },
+    [objects],
   );
-  return <primitive object={group} raycast={() => null} />;
+  return (
+    <>
+      <primitive object={objects.lines} raycast={() => null} />
+      <primitive object={objects.heads} raycast={() => null} />
+    </>
+  );
 }
 
 /** Frames the truss: on mount, on "fit" and when the view changes. */

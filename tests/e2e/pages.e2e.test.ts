@@ -1,0 +1,256 @@
+// The product's pages end to end, in headless chromium against the built app with a worker:
+// each role sees only what it may do; an engineer uploads a good and a broken truss (the
+// broken one's errors are listed with the items they name), queues a run and watches it
+// finish without a page reload; the 3D view draws (its pixels are sampled); the numbers on
+// the page match the API's; a checker approves; the downloads arrive. Screenshots at
+// 1440×900 and 390×844 go to test-artifacts/screenshots/.
+import crypto from "node:crypto";
+import fs from "node:fs";
+import path from "node:path";
+import type { Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { startApp, type RunningApp } from "./harness";
+import { launchBrowser, screenshot, signIn, type Browser } from "./support/browser";
+
+const fixtures = path.resolve(import.meta.dirname, "fixtures");
+const GOOD = path.join(fixtures, "kiln-roof.truss.json");
+const BROKEN = path.join(fixtures, "kiln-roof-broken.truss.json");
+
+let app: RunningApp;
+let browser: Browser;
+const errors: string[] = [];
+const state: { projectId?: string; modelId?: string; jobId?: string } = {};
+
+function account(role: string) {
+  const a = app.accounts.find((x) => x.role === role);
+  if (!a) throw new Error(`The seed made no ${role} account (accounts: ${app.accounts.map((x) => x.role).join(", ") || "none"})`);
+  return a;
+}
+
+async function pageAs(role: string, viewport = { width: 1440, height: 900 }): Promise<Page> {
+  await browser.context.clearCookies();
+  const page = await browser.newPage(viewport);
+  page.on("pageerror", (e) => errors.push(`${role}: ${e.message}`));
+  const a = account(role);
+  await signIn(page, a.email, a.password, app.baseUrl);
+  return page;
+}
+
+/** Share of canvas pixels that differ clearly from the background, and how many colours. */
+async function canvasInk(page: Page) {
+  return page.evaluate(() => {
+    const c = document.querySelector<HTMLCanvasElement>('[data-testid="truss-viewer"] canvas');
+    if (!c || c.width === 0) return { ratio: 0, colours: 0, width: 0 };
+    const off = document.createElement("canvas");
+    off.width = c.width;
+    off.height = c.height;
+    const ctx = off.getContext("2d")!;
+    ctx.drawImage(c, 0, 0);
+    const d = ctx.getImageData(0, 0, c.width, c.height).data;
+    const bg = [d[0]!, d[1]!, d[2]!];
+    let ink = 0;
+    const colours = new Set<number>();
+    for (let i = 0; i < d.length; i += 4) {
+      if (Math.abs(d[i]! - bg[0]!) + Math.abs(d[i + 1]! - bg[1]!) + Math.abs(d[i + 2]! - bg[2]!) > 40) {
+        ink++;
+        colours.add(((d[i]! >> 4) << 8) | ((d[i + 1]! >> 4) << 4) | (d[i + 2]! >> 4));
+      }
+    }
+    return { ratio: ink / (d.length / 4), colours: colours.size, width: c.width };
+  });
+}
+
+async function waitForCanvas(page: Page) {
+  await page.locator('[data-testid="truss-viewer"] canvas').waitFor({ state: "visible", timeout: 30_000 });
+  // frames are drawn on demand; give the first frames a moment
+  await page.waitForTimeout(1200);
+}
+
+beforeAll(async () => {
+  app = await startApp();
+  browser = await launchBrowser();
+  // the project the engineer works in, through the API with the engineer's session
+  const page = await pageAs("engineer");
+  const code = `KS-${Date.now().toString(36).toUpperCase()}`;
+  const res = await page.request.post(`${app.baseUrl}/api/projects`, { data: { code, name: "Kiln shed, Marlow Ridge brickworks", client: "Marlow Ridge Brick Co." } });
+  expect(res.status(), await res.text()).toBe(201);
+  const body = (await res.json()) as { id?: string; project?: { id: string } };
+  state.projectId = body.id ?? body.project?.id;
+  expect(state.projectId).toBeTruthy();
+  await page.close();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+describe("pages", () => {
+  it("shows each role only what it may do", async () => {
+    for (const role of ["admin", "engineer", "checker", "viewer"]) {
+      const page = await pageAs(role);
+      await page.goto(`${app.baseUrl}/`);
+      await expect(page.getByTestId("nav-role").innerText()).resolves.toMatch(new RegExp(role, "i"));
+      expect(await page.getByTestId("nav-admin-users").count(), `${role}: admin links`).toBe(role === "admin" ? 1 : 0);
+      expect(await page.getByRole("region", { name: "Waiting for review" }).count(), `${role}: review queue`).toBe(role === "checker" || role === "admin" ? 1 : 0);
+      await page.goto(`${app.baseUrl}/projects/${state.projectId}`);
+      expect(await page.getByTestId("upload").count(), `${role}: upload box`).toBe(role === "admin" || role === "engineer" ? 1 : 0);
+      if (role === "engineer") {
+        await screenshot(page, "pages-desk-project-engineer-1440x900");
+      }
+      await page.close();
+    }
+  });
+
+  it("lists every problem of a broken file with the item it names, and stores nothing", async () => {
+    const page = await pageAs("engineer");
+    await page.goto(`${app.baseUrl}/projects/${state.projectId}`);
+    await page.locator('[data-testid="upload"] input[type="file"]').setInputFiles(BROKEN);
+    const issues = page.getByTestId("issues-bad");
+    await issues.waitFor({ timeout: 20_000 });
+    const text = await issues.innerText();
+    expect(text).toContain("members[3].end"); // the member ending at the unknown node B9
+    expect(text).toContain("B9");
+    expect(text).toContain("materials[0].E");
+    expect(text).toMatch(/same node/);
+    expect(page.url()).toContain(`/projects/${state.projectId}`);
+    expect(await page.getByTestId("model-row").count()).toBe(0);
+    await screenshot(page, "pages-upload-errors-1440x900");
+    await page.close();
+  });
+
+  it("uploads a good file and previews it: summary, stability, 3D view, SHA-256", async () => {
+    const page = await pageAs("engineer");
+    await page.goto(`${app.baseUrl}/projects/${state.projectId}`);
+    await page.locator('[data-testid="upload"] input[type="file"]').setInputFiles(GOOD);
+    await page.waitForURL(/\/models\/[^/]+$/, { timeout: 20_000 });
+    state.modelId = new URL(page.url()).pathname.split("/").pop();
+    const sha = crypto.createHash("sha256").update(fs.readFileSync(GOOD)).digest("hex");
+    await expect(page.getByTestId("model-sha256").innerText()).resolves.toContain(sha);
+    await expect(page.getByTestId("stability").innerText()).resolves.toMatch(/^Stable/);
+    await expect(page.locator("h1").innerText()).resolves.toBe("Kiln shed roof truss KR-12");
+    await waitForCanvas(page);
+    const ink = await canvasInk(page);
+    expect(ink.ratio, "the initial geometry is drawn").toBeGreaterThan(0.003);
+    await screenshot(page, "pages-model-1440x900");
+    await page.close();
+  });
+
+  it("refuses a bad queue form in the browser before sending it, naming the field", async () => {
+    const page = await pageAs("engineer");
+    await page.goto(`${app.baseUrl}/models/${state.modelId}`);
+    let posted = false;
+    page.on("request", (r) => {
+      if (r.method() === "POST") posted = true;
+    });
+    await page.getByLabel("Iteration cap").fill("0");
+    await page.getByRole("button", { name: "Queue job" }).click();
+    await expect(page.locator("#maxIterations-error").innerText()).resolves.toMatch(/Iteration cap/);
+    expect(posted).toBe(false);
+    await page.close();
+  });
+
+  it("queues a job and follows its progress to the end without reloading the page", async () => {
+    const page = await pageAs("engineer");
+    await page.goto(`${app.baseUrl}/models/${state.modelId}`);
+    await page.getByLabel("Iteration cap").fill("120");
+    await page.getByRole("button", { name: "Queue job" }).click();
+    await page.waitForURL(/\/jobs\/[^/]+$/, { timeout: 20_000 });
+    state.jobId = new URL(page.url()).pathname.split("/").pop();
+    await page.evaluate(() => ((window as unknown as { __stillHere: boolean }).__stillHere = true));
+    const polls: string[] = [];
+    page.on("request", (r) => {
+      if (r.url().includes(`/api/jobs/${state.jobId}`)) polls.push(r.url());
+    });
+    // the outcome panel replaces the live panel when the job ends
+    await page.getByTestId("outcome").waitFor({ timeout: 150_000 });
+    const status = await page.locator("h1 [data-status]").getAttribute("data-status");
+    expect(status, app.logs().slice(-2000)).toBe("succeeded");
+    expect(await page.evaluate(() => (window as unknown as { __stillHere?: boolean }).__stillHere)).toBe(true);
+    expect(polls.length, "progress came from the API by fetch").toBeGreaterThan(0);
+    await page.close();
+  });
+
+  it("shows the result: numbers match the API, the 3D view draws, cautions are there", async () => {
+    const page = await pageAs("engineer");
+    await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
+    const api = await page.request.get(`${app.baseUrl}/api/jobs/${state.jobId}/result`);
+    expect(api.status()).toBe(200);
+    const result = (await api.json()) as { format: string; objective: { final: number }; members: unknown[] };
+    expect(result.format).toBe("strutwise.result");
+    const shown = (await page.getByTestId("objective-final").innerText()).replace(/,/g, "");
+    expect(Number(shown)).toBeCloseTo(result.objective.final, 3 - Math.floor(Math.log10(Math.abs(result.objective.final))));
+    await expect(page.getByTestId("cautions").innerText()).resolves.toMatch(/licensed or chartered structural engineer/);
+    expect(await page.getByTestId("member-row").count()).toBe(Math.min(25, result.members.length));
+    await page.getByTestId("convergence-plot").waitFor();
+    await waitForCanvas(page);
+    const ink = await canvasInk(page);
+    expect(ink.ratio, "members are drawn").toBeGreaterThan(0.003);
+    expect(ink.colours, "more than one colour: utilization bands, supports, loads").toBeGreaterThan(3);
+    // the deformed shape and the force-sense colouring switch on without errors
+    await page.getByLabel("deformed shape").check();
+    await page.getByLabel("Colour").selectOption("force");
+    await page.waitForTimeout(500);
+    expect((await canvasInk(page)).ratio).toBeGreaterThan(0.003);
+    await screenshot(page, "pages-job-1440x900");
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.waitForTimeout(800);
+    await screenshot(page, "pages-job-390x844");
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+    expect(overflow, "no sideways scrolling of the whole page on a phone").toBeLessThanOrEqual(1);
+    // the submitter gets no review form on their own job (four-eyes rule)
+    expect(await page.getByTestId("review-form").count()).toBe(0);
+    await page.close();
+  });
+
+  it("delivers the member CSV, the result JSON and the PDF report", async () => {
+    const page = await pageAs("viewer");
+    await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("members-csv").click()]);
+    const csv = fs.readFileSync((await download.path())!, "utf8");
+    expect(csv.split("\r\n")[0]).toMatch(/^member,start,end,group,area_mm2,length_mm,force_SNOW_N,stress_SNOW,force_DRIFT_N,stress_DRIFT,utilization,governing$/);
+    expect(csv.trim().split("\r\n").length).toBe(1 + 21);
+    const json = await page.request.get(`${app.baseUrl}/api/jobs/${state.jobId}/result`);
+    expect(json.status()).toBe(200);
+    const pdf = await page.request.get(`${app.baseUrl}/api/jobs/${state.jobId}/report`);
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()["content-type"]).toContain("application/pdf");
+    expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+    // a viewer may read but not cancel, review or queue
+    expect(await page.getByTestId("review-form").count()).toBe(0);
+    await page.goto(`${app.baseUrl}/models/${state.modelId}`);
+    expect(await page.getByTestId("queue-form").count()).toBe(0);
+    await page.close();
+  });
+
+  it("lets a checker approve, and records who and when", async () => {
+    const page = await pageAs("checker");
+    await page.goto(`${app.baseUrl}/`);
+    await expect(page.getByRole("region", { name: "Waiting for review" }).innerText()).resolves.toContain(state.jobId!.slice(0, 8));
+    await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
+    const form = page.getByTestId("review-form");
+    await form.getByLabel("Approve").check();
+    await form.getByLabel("Comment").fill("Checked member forces against a hand calculation of the snow case.");
+    await form.getByRole("button", { name: "Record decision" }).click();
+    await page.getByText("Decision recorded.").waitFor({ timeout: 15_000 });
+    const history = await page.getByTestId("review-history").innerText();
+    expect(history).toMatch(/approved/i);
+    const checkerName = (account("checker") as { name?: string }).name;
+    if (checkerName) expect(history).toContain(checkerName);
+    expect(history).toContain("hand calculation of the snow case");
+    await screenshot(page, "pages-review-1440x900");
+    await page.close();
+  });
+
+  it("lists jobs with filters from the address, on a phone too", async () => {
+    const page = await pageAs("viewer", { width: 390, height: 844 });
+    await page.goto(`${app.baseUrl}/jobs?status=succeeded&projectId=${state.projectId}`);
+    await expect(page.getByTestId("job-row").count()).resolves.toBeGreaterThan(0);
+    await page.goto(`${app.baseUrl}/jobs?status=cancelled&projectId=${state.projectId}`);
+    await expect(page.getByText("No jobs match these filters").count()).resolves.toBe(1);
+    await page.goto(`${app.baseUrl}/jobs`);
+    await screenshot(page, "pages-jobs-390x844");
+    await page.close();
+    expect(errors).toEqual([]);
+  });
+});
