@@ -136,6 +136,20 @@ describe("pages", () => {
     await page.close();
   });
 
+  it("says so instead of drawing a blank box when the browser has no WebGL", async () => {
+    const page = await pageAs("viewer");
+    await page.addInitScript(`(() => {
+      const orig = HTMLCanvasElement.prototype.getContext;
+      HTMLCanvasElement.prototype.getContext = function (kind, ...rest) {
+        return /webgl/.test(String(kind)) ? null : orig.call(this, kind, ...rest);
+      };
+    })()`);
+    await page.goto(`${app.baseUrl}/models/${state.modelId}`);
+    await page.getByTestId("truss-viewer").getByText(/cannot draw 3D graphics here/).waitFor({ timeout: 15_000 });
+    expect(await page.locator('[data-testid="truss-viewer"] canvas').count()).toBe(0);
+    await page.close();
+  });
+
   it("refuses a bad queue form in the browser before sending it, naming the field", async () => {
     const page = await pageAs("engineer");
     await page.goto(`${app.baseUrl}/models/${state.modelId}`);

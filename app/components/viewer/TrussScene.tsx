@@ -342,7 +342,17 @@ function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolea
   const camera = useThree((s) => s.camera);
   const size = useThree((s) => s.size);
   const invalidate = useThree((s) => s.invalidate);
+  const gl = useThree((s) => s.gl);
   const controls = useRef<OrbitControlsImpl>(null);
+
+  // keyboard: the canvas takes focus; arrow keys pan (OrbitControls), F frames the truss (viewer)
+  useEffect(() => {
+    const el = gl.domElement;
+    el.tabIndex = 0;
+    el.setAttribute("aria-label", "3D view of the truss. Arrow keys pan, F fits the truss to the view.");
+    controls.current?.listenToKeyEvents(el);
+    return () => controls.current?.stopListenToKeyEvents?.();
+  }, [gl]);
 
   useLayoutEffect(() => {
     const { min, max, center, span } = view.bounds;

@@ -71,8 +71,8 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
   const fallback = (
     <div className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-muted" role="status">
       {lost
-        ? "The graphics context was lost (the browser reclaimed the GPU). Reload the page to draw the truss again; the tables below show every value."
-        : "This browser cannot draw 3D graphics here (WebGL is off or unavailable). The tables below show every member and node."}
+        ? "The graphics context was lost (the browser reclaimed the GPU). Reload the page to draw the truss again; the tables and downloads hold every value."
+        : "This browser cannot draw 3D graphics here (WebGL is off or unavailable). Every figure on this page is also in its tables and downloads."}
     </div>
   );
 
@@ -141,7 +141,12 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
         )}
       </div>
 
-      <div className={`relative ${height} bg-paper-raised`}>
+      <div
+        className={`relative ${height} bg-paper-raised`}
+        onKeyDown={(e) => {
+          if ((e.key === "f" || e.key === "F") && !e.ctrlKey && !e.metaKey && !e.altKey) set("fitNonce", settings.fitNonce + 1);
+        }}
+      >
         {!mounted || gl === null ? (
           <div className="flex h-full items-center justify-center text-sm text-ink-muted" role="status">
             Preparing the 3D view…
@@ -167,7 +172,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
           </SceneBoundary>
         )}
         <p className="pointer-events-none absolute bottom-2 left-3 text-2xs text-ink-muted">
-          {view.planar && settings.projection2d ? "drag to pan · wheel to zoom" : "drag to orbit · right-drag to pan · wheel to zoom"}
+          {view.planar && settings.projection2d ? "drag or arrow keys to pan · wheel to zoom · F to fit" : "drag to orbit · right-drag or arrow keys to pan · wheel to zoom · F to fit"}
         </p>
       </div>
 
