@@ -219,7 +219,8 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               <Stat label={`${result.objective.kind} initial`} value={fmtNum(result.objective.initial)} />
               <Stat label={`${result.objective.kind} final`} value={<span data-testid="objective-final">{fmtNum(result.objective.final)}</span>} hint={u ? (result.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
               <Stat label="change" value={saving !== null ? fmtPercent(-saving) : "–"} />
-              <Stat label="iterations" value={`${result.iterations} (${result.analyses} analyses)`} />
+              <Stat label="iterations" value={result.iterations} />
+              <Stat label="analyses" value={result.analyses} hint="stiffness solves or KKT evaluations used" />
               <Stat label="KKT residual" value={fmtSci(result.kktResidual)} />
               <Stat label="max violation" value={fmtSci(result.maxViolation)} />
               <Stat label={`volume (${u?.length}³)`} value={fmtNum(result.volume)} />
@@ -291,7 +292,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       )}
 
       <div className="grid gap-6 lg:grid-cols-3">
-        <section className="card lg:col-span-2" aria-label="Review">
+        <section className="card min-w-0 lg:col-span-2" aria-label="Review">
           <h2 className="mb-3 font-semibold">Review</h2>
           <ReviewHistory reviews={reviews} />
           {job.status === "succeeded" && may.review && (
@@ -303,7 +304,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             <p className="mt-3 text-sm text-ink-muted">You submitted this job, so another checker reviews it (four-eyes rule).</p>
           )}
         </section>
-        <section className="card" aria-label="Downloads">
+        <section className="card min-w-0" aria-label="Downloads">
           <h2 className="mb-3 font-semibold">Downloads</h2>
           <ul className="space-y-2 text-sm">
             {result && (

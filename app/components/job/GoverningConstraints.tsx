@@ -8,7 +8,12 @@ import { describeConstraint } from "./constraint-words";
 export function GoverningConstraints({ result, limit = 12 }: { result: TrussResult; limit?: number }) {
   const rows =
     result.shadowPrices && result.shadowPrices.length
-      ? result.shadowPrices.map((p) => ({ id: p.constraint, multiplier: p.multiplier, unit: p.unit, sentence: p.sentence }))
+      ? result.shadowPrices.map((p) => ({
+          id: p.constraint,
+          multiplier: p.multiplier,
+          unit: p.unit,
+          sentence: p.sentence || `Relaxing the ${describeConstraint(p.constraint)} by one unit would change the ${result.objective.kind} by about ${fmtSci(p.multiplier)} ${p.unit}.`,
+        }))
       : result.activeConstraints.map((a) => ({
           id: a.id,
           multiplier: a.multiplier,

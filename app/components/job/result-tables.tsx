@@ -44,13 +44,6 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
   const columns = useMemo(
     () => [
       col.accessor("id", { header: "member" }),
-      col.accessor((m) => `${m.start ?? topology.members.get(m.id)?.start ?? "?"}–${m.end ?? topology.members.get(m.id)?.end ?? "?"}`, { id: "nodes", header: "nodes" }),
-      col.accessor((m) => m.group ?? topology.members.get(m.id)?.group ?? "", { id: "group", header: "group" }),
-      col.accessor("area", { header: `area (${u.length}²)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor("length", { header: `length (${u.length})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${u.force})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${u.force}/${u.length}²)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
       col.accessor("utilization", {
         header: "utilization",
         meta: { numeric: true },
@@ -61,6 +54,13 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
           </span>
         ),
       }),
+      col.accessor("area", { header: `area (${u.length}²)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${u.force})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${u.force}/${u.length}²)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
+      col.accessor("length", { header: `length (${u.length})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => `${m.start ?? topology.members.get(m.id)?.start ?? "?"}–${m.end ?? topology.members.get(m.id)?.end ?? "?"}`, { id: "nodes", header: "nodes" }),
+      col.accessor((m) => m.group ?? topology.members.get(m.id)?.group ?? "", { id: "group", header: "group" }),
       col.accessor((m) => m.governing ?? "", { id: "governing", header: "governed by" }),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps

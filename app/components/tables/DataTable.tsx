@@ -84,7 +84,7 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
                       return (
                         <th
                           key={h.id}
-                          className={numeric ? "num" : undefined}
+                          className={numeric ? "whitespace-nowrap text-right" : "whitespace-nowrap"}
                           aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
                         >
                           {h.isPlaceholder ? null : h.column.getCanSort() ? (
@@ -111,7 +111,7 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
                 {rows.map((r) => (
                   <tr key={r.id} className="hover:bg-paper" data-testid={rowTestId}>
                     {r.getVisibleCells().map((c) => (
-                      <td key={c.id} className={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? "num" : undefined}>
+                      <td key={c.id} className={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? "num whitespace-nowrap" : "whitespace-nowrap"}>
                         {flexRender(c.column.columnDef.cell, c.getContext())}
                       </td>
                     ))}
