@@ -66,6 +66,37 @@ async function waitForCanvas(page: Page) {
   await page.waitForTimeout(1200);
 }
 
+/** A double-layer grid roof on perimeter supports (n × n top nodes), with a design block. */
+function gridRoof(n: number) {
+  const bay = 3000;
+  const nodes: { id: string; x: number; y: number; z: number; fixed?: string[] }[] = [];
+  const members: { id: string; start: string; end: string; material: string; area: number }[] = [];
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++)
+      nodes.push({ id: `T${i}_${j}`, x: i * bay, y: j * bay, z: 2000, ...(i === 0 || j === 0 || i === n - 1 || j === n - 1 ? { fixed: ["x", "y", "z"] } : {}) });
+  for (let i = 0; i < n - 1; i++) for (let j = 0; j < n - 1; j++) nodes.push({ id: `L${i}_${j}`, x: (i + 0.5) * bay, y: (j + 0.5) * bay, z: 0 });
+  const add = (a: string, b: string) => members.push({ id: `${a}-${b}`, start: a, end: b, material: "S355", area: 1500 });
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) {
+      if (i + 1 < n) add(`T${i}_${j}`, `T${i + 1}_${j}`);
+      if (j + 1 < n) add(`T${i}_${j}`, `T${i}_${j + 1}`);
+    }
+  for (let i = 0; i < n - 1; i++)
+    for (let j = 0; j < n - 1; j++) {
+      if (i + 2 < n) add(`L${i}_${j}`, `L${i + 1}_${j}`);
+      if (j + 2 < n) add(`L${i}_${j}`, `L${i}_${j + 1}`);
+      for (const [di, dj] of [[0, 0], [1, 0], [0, 1], [1, 1]]) add(`L${i}_${j}`, `T${i + di!}_${j + dj!}`);
+    }
+  const inner = nodes.filter((x) => x.id.startsWith("T") && !x.fixed);
+  return {
+    dimension: 3,
+    nodes,
+    members,
+    loadCases: [{ id: "ROOF", name: "Roof load", loads: inner.map((x) => ({ node: x.id, fz: -9000 })) }],
+    design: { objective: "mass", areaBounds: { min: 100, max: 20000 }, constraints: { stress: true, displacement: [{ node: "*", axis: "z", limit: 60 }] }, solver: { maxIterations: 500, tolerance: 1e-9 } },
+  };
+}
+
 beforeAll(async () => {
   app = await startApp();
   browser = await launchBrowser();
@@ -185,6 +216,23 @@ describe("pages", () => {
     await page.close();
   });
 
+  it("cancels a run on request of its submitter", async () => {
+    const page = await pageAs("engineer");
+    // a double-layer grid big enough that the run is still going when cancel is pressed
+    const model = JSON.parse(fs.readFileSync(GOOD, "utf8")) as Record<string, unknown>;
+    const grid = gridRoof(12);
+    Object.assign(model, grid, { name: "Kiln shed roof grid (cancel test)" });
+    await page.goto(`${app.baseUrl}/projects/${state.projectId}`);
+    await page.locator('[data-testid="upload"] input[type="file"]').setInputFiles({ name: "grid.truss.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(model)) });
+    await page.waitForURL(/\/models\/[^/]+$/, { timeout: 20_000 });
+    await page.getByRole("button", { name: "Queue job" }).click();
+    await page.waitForURL(/\/jobs\/[^/]+$/, { timeout: 20_000 });
+    await page.getByRole("button", { name: "Cancel job" }).click();
+    await page.getByTestId("outcome").waitFor({ timeout: 60_000 });
+    await expect(page.locator("h1 [data-status]").getAttribute("data-status")).resolves.toBe("cancelled");
+    await page.close();
+  });
+
   it("shows the result: numbers match the API, the 3D view draws, cautions are there", async () => {
     const page = await pageAs("engineer");
     await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
@@ -260,7 +308,7 @@ describe("pages", () => {
     const page = await pageAs("viewer", { width: 390, height: 844 });
     await page.goto(`${app.baseUrl}/jobs?status=succeeded&projectId=${state.projectId}`);
     await expect(page.getByTestId("job-row").count()).resolves.toBeGreaterThan(0);
-    await page.goto(`${app.baseUrl}/jobs?status=cancelled&projectId=${state.projectId}`);
+    await page.goto(`${app.baseUrl}/jobs?status=failed&projectId=${state.projectId}`);
     await expect(page.getByText("No jobs match these filters").count()).resolves.toBe(1);
     await page.goto(`${app.baseUrl}/jobs`);
     await screenshot(page, "pages-jobs-390x844");
