@@ -1,0 +1,247 @@
+// The queue as the routes and pages see it: submit, list, read, cancel, fetch the result.
+// The worker's side (claim, lease, finish) lives in claim.server.ts.
+import { randomUUID } from "node:crypto";
+import { and, asc, desc, eq, inArray, lt, or, type SQL } from "drizzle-orm";
+import { db as defaultDb, type Db } from "~/db/client.server";
+import { jobProgress, jobs, models, projects, type JobStatus } from "~/db/schema";
+import { jobOptionsSchema, type JobOptions } from "~/engine/design/options";
+import type { HistoryEntry, JobSummary, TrussResult } from "~/engine/design/result-types";
+import { config } from "~/lib/config.server";
+import { jsonError } from "~/lib/http.server";
+import { getText } from "~/lib/storage.server";
+import { fromStatuses, isTerminal } from "./transitions";
+
+export type JobRow = typeof jobs.$inferSelect;
+
+export interface JobProgressView {
+  iteration: number;
+  objective: number | null;
+  maxViolation: number | null;
+  kktResidual: number | null;
+  at: string | null;
+}
+
+export interface JobView {
+  id: string;
+  projectId: string;
+  projectCode: string | null;
+  modelId: string;
+  modelName: string | null;
+  submittedBy: string | null;
+  status: JobStatus;
+  outcome: JobRow["outcome"];
+  options: JobOptions;
+  attempts: number;
+  maxAttempts: number;
+  cancelRequested: boolean;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  error: string | null;
+  summary: JobSummary | null;
+  progress: JobProgressView | null;
+  hasResult: boolean;
+}
+
+export interface Actor {
+  id: string;
+  role?: string;
+}
+
+const iso = (d: Date | null) => (d ? d.toISOString() : null);
+
+export function toJobView(r: JobRow, extra: { modelName?: string | null; projectCode?: string | null } = {}): JobView {
+  return {
+    id: r.id,
+    projectId: r.projectId,
+    projectCode: extra.projectCode ?? null,
+    modelId: r.modelId,
+    modelName: extra.modelName ?? null,
+    submittedBy: r.submittedBy,
+    status: r.status,
+    outcome: r.outcome,
+    options: (r.options as JobOptions) ?? {},
+    attempts: r.attempts,
+    maxAttempts: r.maxAttempts,
+    cancelRequested: r.cancelRequested,
+    createdAt: r.createdAt.toISOString(),
+    startedAt: iso(r.startedAt),
+    finishedAt: iso(r.finishedAt),
+    error: r.error,
+    summary: (r.summary as JobSummary | null) ?? null,
+    progress:
+      r.progressIteration === null
+        ? null
+        : {
+            iteration: r.progressIteration,
+            objective: r.progressObjective,
+            maxViolation: r.progressMaxViolation,
+            kktResidual: r.progressKktResidual,
+            at: iso(r.progressAt),
+          },
+    hasResult: r.status === "succeeded" && r.resultKey !== null,
+  };
+}
+
+/** Queue an optimization of a stored model. Throws a 400/404 Response for a bad request. */
+export async function enqueueJob(
+  input: { modelId: string; options?: unknown; user: Actor | null },
+  database: Db = defaultDb(),
+): Promise<JobView> {
+  const parsed = jobOptionsSchema.safeParse(input.options ?? {});
+  if (!parsed.success) {
+    throw jsonError(
+      400,
+      "The job options are not valid",
+      parsed.error.issues.map((i) => ({ path: ["options", ...i.path].map(String).join("."), message: i.message })),
+    );
+  }
+  const [model] = await database
+    .select({ id: models.id, projectId: models.projectId, name: models.name, hasDesign: models.hasDesign })
+    .from(models)
+    .where(eq(models.id, input.modelId))
+    .limit(1);
+  if (!model) throw jsonError(404, `Model ${input.modelId} not found`, [{ path: "modelId", message: "no such model" }]);
+  if (!model.hasDesign) {
+    throw jsonError(400, `Model "${model.name}" has no design block, so there is nothing to optimize; add one (truss-format.md) and upload it again`, [
+      { path: "modelId", message: "the model has no design block" },
+    ]);
+  }
+  const [row] = await database
+    .insert(jobs)
+    .values({
+      id: randomUUID(),
+      projectId: model.projectId,
+      modelId: model.id,
+      submittedBy: input.user?.id ?? null,
+      status: "queued",
+      options: parsed.data,
+      maxAttempts: config().JOB_MAX_ATTEMPTS,
+    })
+    .returning();
+  return toJobView(row!, { modelName: model.name });
+}
+
+async function selectJobs(where: SQL | undefined, database: Db, limit?: number) {
+  const q = database
+    .select({ job: jobs, modelName: models.name, projectCode: projects.code })
+    .from(jobs)
+    .leftJoin(models, eq(models.id, jobs.modelId))
+    .leftJoin(projects, eq(projects.id, jobs.projectId))
+    .where(where)
+    .orderBy(desc(jobs.createdAt), desc(jobs.id));
+  const rows = limit === undefined ? await q : await q.limit(limit);
+  return rows.map((r) => toJobView(r.job, r));
+}
+
+export async function getJob(id: string, database: Db = defaultDb()): Promise<JobView | null> {
+  const [view] = await selectJobs(eq(jobs.id, id), database, 1);
+  return view ?? null;
+}
+
+export const LIST_LIMIT_DEFAULT = 50;
+export const LIST_LIMIT_MAX = 200;
+
+export interface ListJobsFilter {
+  status?: JobStatus | JobStatus[];
+  projectId?: string;
+  modelId?: string;
+  submittedBy?: string;
+  limit?: number;
+  cursor?: string | null;
+}
+
+// The cursor is the (created_at, id) of the last job on the page: stable under inserts.
+function encodeCursor(j: JobView): string {
+  return Buffer.from(`${Date.parse(j.createdAt)}:${j.id}`).toString("base64url");
+}
+
+export function decodeCursor(cursor: string): { at: Date; id: string } | null {
+  const text = Buffer.from(cursor, "base64url").toString("utf8");
+  const m = /^(\d{1,16}):(.+)$/.exec(text);
+  return m ? { at: new Date(Number(m[1])), id: m[2]! } : null;
+}
+
+/** Newest first; `nextCursor` is null on the last page. Throws a 400 Response for a bad cursor. */
+export async function listJobs(filter: ListJobsFilter = {}, database: Db = defaultDb()): Promise<{ jobs: JobView[]; nextCursor: string | null }> {
+  const limit = Math.min(Math.max(1, Math.floor(filter.limit ?? LIST_LIMIT_DEFAULT)), LIST_LIMIT_MAX);
+  const where: SQL[] = [];
+  if (filter.status) {
+    const list = Array.isArray(filter.status) ? filter.status : [filter.status];
+    where.push(inArray(jobs.status, list));
+  }
+  if (filter.projectId) where.push(eq(jobs.projectId, filter.projectId));
+  if (filter.modelId) where.push(eq(jobs.modelId, filter.modelId));
+  if (filter.submittedBy) where.push(eq(jobs.submittedBy, filter.submittedBy));
+  if (filter.cursor) {
+    const c = decodeCursor(filter.cursor);
+    if (!c) throw jsonError(400, "The cursor is not one this server handed out", [{ path: "cursor", message: "unreadable cursor" }]);
+    where.push(or(lt(jobs.createdAt, c.at), and(eq(jobs.createdAt, c.at), lt(jobs.id, c.id)))!);
+  }
+  const page = await selectJobs(where.length ? and(...where) : undefined, database, limit + 1);
+  const more = page.length > limit;
+  const list = more ? page.slice(0, limit) : page;
+  return { jobs: list, nextCursor: more ? encodeCursor(list[list.length - 1]!) : null };
+}
+
+/**
+ * Cancel a job: a queued one at once, a running one by asking its worker (which stops the
+ * task within about a second and records "cancelled"). Only the submitter or an admin may.
+ * Throws 404 / 403 / 409 Responses.
+ */
+export async function cancelJob(id: string, user: Actor | null, database: Db = defaultDb()): Promise<JobView> {
+  const job = await getJob(id, database);
+  if (!job) throw jsonError(404, `Job ${id} not found`);
+  if (user && user.role !== "admin" && job.submittedBy !== user.id) {
+    throw jsonError(403, "Only the engineer who submitted this job, or an admin, may cancel it");
+  }
+  if (isTerminal(job.status)) throw jsonError(409, `Job ${id} has already ${job.status === "cancelled" ? "been cancelled" : job.status}; there is nothing to cancel`);
+
+  const now = new Date();
+  const queued = await database
+    .update(jobs)
+    .set({ status: "cancelled", cancelRequested: true, finishedAt: now, error: cancelMessage(user) })
+    .where(and(eq(jobs.id, id), eq(jobs.status, "queued")))
+    .returning({ id: jobs.id });
+  if (queued.length === 0) {
+    await database
+      .update(jobs)
+      .set({ cancelRequested: true })
+      .where(and(eq(jobs.id, id), inArray(jobs.status, fromStatuses("cancel") as JobStatus[])));
+  }
+  return (await getJob(id, database))!;
+}
+
+export function cancelMessage(user: Actor | null): string {
+  return user ? `Cancelled on request (${user.role ?? "user"} ${user.id})` : "Cancelled on request";
+}
+
+/** The result JSON of a succeeded job; null while there is none. */
+export async function getJobResult(id: string, database: Db = defaultDb()): Promise<TrussResult | null> {
+  const text = await getJobResultText(id, database);
+  return text === null ? null : (JSON.parse(text) as TrussResult);
+}
+
+/** The stored result as text, for downloads that pass it through unchanged. */
+export async function getJobResultText(id: string, database: Db = defaultDb()): Promise<string | null> {
+  const [row] = await database.select({ status: jobs.status, resultKey: jobs.resultKey }).from(jobs).where(eq(jobs.id, id)).limit(1);
+  if (!row || row.status !== "succeeded" || !row.resultKey) return null;
+  return getText(row.resultKey);
+}
+
+/** The convergence history of the job's latest attempt, oldest iteration first. */
+export async function getJobHistory(id: string, database: Db = defaultDb()): Promise<HistoryEntry[]> {
+  const [row] = await database.select({ attempts: jobs.attempts }).from(jobs).where(eq(jobs.id, id)).limit(1);
+  if (!row || row.attempts === 0) return [];
+  const rows = await database
+    .select()
+    .from(jobProgress)
+    .where(and(eq(jobProgress.jobId, id), eq(jobProgress.attempt, row.attempts)))
+    .orderBy(asc(jobProgress.iteration));
+  return rows.map((r) => ({
+    iteration: r.iteration,
+    objective: r.objective ?? Number.NaN,
+    maxViolation: r.maxViolation ?? Number.NaN,
+    kktResidual: r.kktResidual ?? Number.NaN,
+  }));
+}

@@ -1,0 +1,292 @@
+// The queue worker's loop: claim jobs while pool threads are free, run each one on the pool,
+// keep its lease alive, watch for cancel requests, store the result, record the outcome.
+// The process entry (queue-worker.ts) adds signals; tests and the benchmark use this directly.
+import { eq } from "drizzle-orm";
+import { randomBytes } from "node:crypto";
+import os from "node:os";
+import { MessageChannel } from "node:worker_threads";
+import type { Piscina } from "piscina";
+import type { Db } from "~/db/client.server";
+import { models } from "~/db/schema";
+import { summarizeResult } from "~/engine/design";
+import type { JobOptions } from "~/engine/design/options";
+import type { JobSummary, TrussResult } from "~/engine/design/result-types";
+import {
+  checkJob,
+  claimNextJob,
+  completeJob,
+  failJob,
+  markCancelled,
+  renewLease,
+  requeueJob,
+  settleAbandonedJobs,
+  type Lease,
+} from "~/lib/jobs/claim.server";
+import { describeTaskError, solverFailureMessage, timeLimitMessage } from "~/lib/jobs/failure-messages";
+import { jobResultKey } from "~/lib/jobs/keys";
+import { ProgressRecorder, type ProgressPoint } from "~/lib/jobs/progress.server";
+import { getText, putObject } from "~/lib/storage.server";
+import type { SolveTaskInput, SolveTaskOutput } from "./solve-task";
+
+type StopReason = "cancel" | "time" | "lost" | "shutdown";
+
+export interface RunnerOptions {
+  db: Db;
+  pool: Piscina;
+  workerId?: string;
+  /** jobs at once; the pool's thread count by default */
+  concurrency?: number;
+  leaseMs: number;
+  timeLimitMs: number;
+  /** for the memory-limit message */
+  maxOldGenerationMb: number;
+  /** how often a running job checks for a cancel request */
+  cancelPollMs?: number;
+  /** how long an idle worker waits before looking for work again */
+  idlePollMs?: number;
+  /** e-mail the submitter / checkers (off in the benchmark) */
+  notify?: boolean;
+  log?: (line: string) => void;
+}
+
+export interface RunnerStats {
+  claimed: number;
+  succeeded: number;
+  failed: number;
+  cancelled: number;
+  requeued: number;
+  lost: number;
+}
+
+interface Active {
+  lease: Lease;
+  stop(reason: StopReason): void;
+  done: Promise<void>;
+}
+
+export function newWorkerId(): string {
+  return `${os.hostname()}:${process.pid}:${randomBytes(3).toString("hex")}`;
+}
+
+export class QueueRunner {
+  readonly workerId: string;
+  readonly stats: RunnerStats = { claimed: 0, succeeded: 0, failed: 0, cancelled: 0, requeued: 0, lost: 0 };
+  private readonly active = new Map<string, Active>();
+  private stopping = false;
+  private wake: (() => void) | null = null;
+  private loopDone: Promise<void> | null = null;
+  private lastSettle = 0;
+  private readonly log: (line: string) => void;
+
+  constructor(private readonly o: RunnerOptions) {
+    this.workerId = o.workerId ?? newWorkerId();
+    this.log = o.log ?? ((line) => console.log(`[worker ${this.workerId}] ${line}`));
+  }
+
+  get concurrency(): number {
+    return this.o.concurrency ?? this.o.pool.options.maxThreads;
+  }
+
+  get runningJobs(): string[] {
+    return [...this.active.keys()];
+  }
+
+  start(): void {
+    this.loopDone ??= this.loop();
+  }
+
+  /**
+   * Stop claiming; give running jobs `graceMs` to finish, then stop them and hand them back
+   * to the queue (without spending an attempt).
+   */
+  async stop(graceMs = 0): Promise<void> {
+    this.stopping = true;
+    this.wake?.();
+    await this.loopDone;
+    const all = () => Promise.all([...this.active.values()].map((a) => a.done));
+    if (this.active.size > 0 && graceMs > 0) {
+      this.log(`stopping: waiting up to ${Math.round(graceMs / 1000)} s for ${this.active.size} running job(s)`);
+      await Promise.race([all(), sleep(graceMs)]);
+    }
+    for (const a of this.active.values()) a.stop("shutdown");
+    await all();
+  }
+
+  private async loop(): Promise<void> {
+    while (!this.stopping) {
+      try {
+        await this.settle();
+        while (!this.stopping && this.active.size < this.concurrency) {
+          const lease = await claimNextJob(this.o.db, this.workerId, this.o.leaseMs);
+          if (!lease) break;
+          this.launch(lease);
+        }
+      } catch (e) {
+        // a busy or unreachable database: wait and try again, never exit
+        this.log(`queue access failed, retrying: ${(e as Error).message}`);
+      }
+      if (this.stopping) break;
+      await new Promise<void>((resolve) => {
+        const t = setTimeout(resolve, this.active.size >= this.concurrency ? 60_000 : (this.o.idlePollMs ?? 500));
+        this.wake = () => {
+          clearTimeout(t);
+          resolve();
+        };
+      });
+      this.wake = null;
+    }
+  }
+
+  private async settle(): Promise<void> {
+    const now = Date.now();
+    if (now - this.lastSettle < Math.min(5000, this.o.leaseMs / 2)) return;
+    this.lastSettle = now;
+    const { cancelled, failed } = await settleAbandonedJobs(this.o.db, now);
+    for (const id of failed) {
+      this.log(`job ${id} failed: its workers stopped responding on every attempt`);
+      await this.notifyFinished(id);
+    }
+    for (const id of cancelled) this.log(`job ${id} cancelled after its worker stopped`);
+  }
+
+  private launch(lease: Lease): void {
+    this.stats.claimed++;
+    const controller = new AbortController();
+    let reason: StopReason | null = null;
+    const active: Active = {
+      lease,
+      stop: (r) => {
+        reason ??= r;
+        controller.abort();
+      },
+      done: Promise.resolve(),
+    };
+    active.done = this.run(lease, controller.signal, () => reason, active.stop)
+      .catch((e) => this.log(`job ${lease.job.id}: unexpected error: ${(e as Error).stack ?? e}`))
+      .finally(() => {
+        this.active.delete(lease.job.id);
+        this.wake?.();
+      });
+    this.active.set(lease.job.id, active);
+  }
+
+  private async run(lease: Lease, signal: AbortSignal, reason: () => StopReason | null, stop: (r: StopReason) => void): Promise<void> {
+    const { db } = this.o;
+    const job = lease.job;
+    const recorder = new ProgressRecorder(db, lease);
+    const timers: NodeJS.Timeout[] = [];
+    const started = Date.now();
+    this.log(`job ${job.id} started (attempt ${lease.attempt} of ${job.maxAttempts})`);
+
+    // lease and cancel checks run for the whole job, storage writes included
+    let checking = false;
+    timers.push(
+      setInterval(() => {
+        if (checking) return;
+        checking = true;
+        checkJob(db, lease)
+          .then((s) => {
+            if (!s.held) stop("lost");
+            else if (s.cancelRequested) stop("cancel");
+          })
+          .catch(() => undefined)
+          .finally(() => (checking = false));
+      }, this.o.cancelPollMs ?? 250),
+      setInterval(() => {
+        renewLease(db, lease, this.o.leaseMs)
+          .then((ok) => ok || stop("lost"))
+          .catch((e) => this.log(`job ${job.id}: lease renewal failed: ${(e as Error).message}`));
+      }, Math.max(250, Math.floor(this.o.leaseMs / 3))),
+      setTimeout(() => stop("time"), this.o.timeLimitMs),
+    );
+
+    try {
+      await recorder.reset();
+      const resultKey = jobResultKey(job.id);
+      // at-least-once: an earlier attempt may have stored the result and died before
+      // recording it; then that result is taken as it is, not computed and stored again
+      const earlier = await getText(resultKey);
+      let summary: JobSummary;
+      let message: string;
+      if (earlier !== null) {
+        const result = JSON.parse(earlier) as TrussResult;
+        summary = summarizeResult(result);
+        message = solverFailureMessage(result.message, result.hint);
+        this.log(`job ${job.id}: result of an earlier attempt found in storage, recording it`);
+      } else {
+        const out = await this.solve(lease, recorder, signal);
+        await putObject(resultKey, out.resultJson, "application/json");
+        summary = out.summary;
+        message = solverFailureMessage(out.message, out.hint);
+      }
+      await recorder.close();
+      if (summary.status === "failed") {
+        // the solver broke down: no design to review, so the job fails with the solver's words
+        if (await failJob(db, lease, message)) {
+          this.stats.failed++;
+          this.log(`job ${job.id} failed: ${message}`);
+          await this.notifyFinished(job.id);
+        }
+        return;
+      }
+      if (await completeJob(db, lease, { resultKey, summary, outcome: summary.status })) {
+        this.stats.succeeded++;
+        this.log(`job ${job.id} succeeded (${summary.status}, ${summary.iterations} iterations, ${Date.now() - started} ms)`);
+        await this.notifyFinished(job.id, true);
+      } else {
+        this.stats.lost++;
+        this.log(`job ${job.id}: finished, but another worker holds it now; its record is left to that worker`);
+      }
+    } catch (e) {
+      await recorder.close();
+      const why = reason();
+      if (why === "cancel") {
+        if (await markCancelled(db, lease, "Cancelled on request while running")) this.stats.cancelled++;
+        this.log(`job ${job.id} cancelled after ${Date.now() - started} ms`);
+      } else if (why === "lost") {
+        this.stats.lost++;
+        this.log(`job ${job.id}: lease lost to another worker; stopped here`);
+      } else if (why === "shutdown") {
+        if (await requeueJob(db, lease)) this.stats.requeued++;
+        this.log(`job ${job.id} handed back to the queue (worker stopping)`);
+      } else {
+        const message = why === "time" ? timeLimitMessage(this.o.timeLimitMs) : describeTaskError(e, this.o.maxOldGenerationMb);
+        if (await failJob(db, lease, message)) {
+          this.stats.failed++;
+          this.log(`job ${job.id} failed: ${message}`);
+          await this.notifyFinished(job.id);
+        }
+      }
+    } finally {
+      for (const t of timers) clearTimeout(t);
+    }
+  }
+
+  private async solve(lease: Lease, recorder: ProgressRecorder, signal: AbortSignal): Promise<SolveTaskOutput> {
+    const job = lease.job;
+    const [model] = await this.o.db.select({ fileKey: models.fileKey }).from(models).where(eq(models.id, job.modelId)).limit(1);
+    if (!model) throw new Error(`The model ${job.modelId} of this job no longer exists`);
+    const modelText = await getText(model.fileKey);
+    if (modelText === null) throw new Error(`The file of model ${job.modelId} is missing from storage (${model.fileKey})`);
+    signal.throwIfAborted();
+
+    const { port1, port2 } = new MessageChannel();
+    port1.on("message", (p: ProgressPoint) => recorder.push(p));
+    const input: SolveTaskInput = { jobId: job.id, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2 };
+    try {
+      return (await this.o.pool.run(input, { transferList: [port2] as never, signal })) as SolveTaskOutput;
+    } finally {
+      port1.close();
+    }
+  }
+
+  private async notifyFinished(jobId: string, succeeded = false): Promise<void> {
+    if (this.o.notify === false) return;
+    // imported on first use: the mail module reads the config, tests of the loop need no SMTP
+    const { notifyJobFinished, notifyReviewWaiting } = await import("~/lib/notify.server");
+    await notifyJobFinished(jobId).catch((e) => this.log(`job ${jobId}: finish mail failed: ${(e as Error).message}`));
+    if (succeeded) await notifyReviewWaiting(jobId).catch((e) => this.log(`job ${jobId}: review mail failed: ${(e as Error).message}`));
+  }
+}
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));

@@ -1,0 +1,65 @@
+// The piscina task: one optimization run on a worker thread. Plain data in (the model file's
+// text and the job options), the result JSON text and its summary out; progress goes back
+// through the MessagePort the caller hands over. Cancel and the time limit are the caller's
+// AbortSignal, which makes piscina end this thread, so the task itself never polls.
+import type { MessagePort } from "node:worker_threads";
+import { optimizeModel, summarizeResult } from "~/engine/design";
+import type { JobOptions } from "~/engine/design/options";
+import type { JobSummary } from "~/engine/design/result-types";
+import { parseModel } from "~/engine/truss";
+
+export interface SolveTaskInput {
+  jobId: string;
+  modelText: string;
+  options: JobOptions;
+  progressPort?: MessagePort;
+}
+
+export interface SolveTaskOutput {
+  resultJson: string;
+  summary: JobSummary;
+  message: string;
+  hint?: string;
+  elapsedMs: number;
+}
+
+/** A model the engine refuses; the message names the offending item. */
+export class ModelRejectedError extends Error {
+  override name = "ModelRejectedError";
+}
+
+type Progress = { iteration: number; objective?: number; f?: number; maxViolation: number; kktResidual: number };
+
+export default function solveTask(input: SolveTaskInput): SolveTaskOutput {
+  const started = performance.now();
+  const parsed = parseModel(JSON.parse(input.modelText));
+  if (!parsed.ok) {
+    const first = parsed.errors[0];
+    const more = parsed.errors.length > 1 ? ` (and ${parsed.errors.length - 1} more)` : "";
+    throw new ModelRejectedError(`The model is not valid: ${first ? `${first.path}: ${first.message}` : "no details"}${more}`);
+  }
+  const port = input.progressPort;
+  try {
+    const result = optimizeModel(parsed.model, {
+      ...input.options,
+      onProgress: port
+        ? (p: Progress) =>
+            port.postMessage({
+              iteration: p.iteration,
+              objective: p.objective ?? p.f ?? Number.NaN,
+              maxViolation: p.maxViolation,
+              kktResidual: p.kktResidual,
+            })
+        : undefined,
+    });
+    return {
+      resultJson: JSON.stringify(result),
+      summary: summarizeResult(result),
+      message: result.message,
+      hint: result.hint,
+      elapsedMs: performance.now() - started,
+    };
+  } finally {
+    port?.close();
+  }
+}
