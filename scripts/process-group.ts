@@ -25,6 +25,8 @@ export interface SpawnOptions {
   /** Echo each output line prefixed with "[name] " (default true); lines are always kept. */
   echo?: boolean;
   keepLines?: number;
+  /** On stop, send SIGTERM once more after this long if the process is still running. */
+  repeatTermAfterMs?: number;
 }
 
 const live = new Set<Child>();
@@ -95,11 +97,23 @@ export function spawnChild(name: string, command: string, args: string[], opts: 
     recentOutput: () => lines.join("\n"),
     async stop(graceMs = 8000) {
       const pid = proc.pid;
-      const leaderDone = proc.exitCode !== null || proc.signalCode !== null;
-      if (!leaderDone || groupAlive(pid)) {
-        killGroup(pid, "SIGTERM");
-        const deadline = Date.now() + graceMs;
-        while (groupAlive(pid) && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
+      const leaderAlive = proc.exitCode === null && proc.signalCode === null;
+      if (leaderAlive || groupAlive(pid)) {
+        // The leader alone gets SIGTERM while it lives: tsx passes signals on to its node
+        // child, so a signal to the whole group would reach that child twice.
+        const term = () => (leaderAlive && proc.exitCode === null && proc.signalCode === null ? proc.kill("SIGTERM") : killGroup(pid, "SIGTERM"));
+        term();
+        const started = Date.now();
+        let repeated = false;
+        while (groupAlive(pid) && Date.now() - started < graceMs) {
+          // a second SIGTERM after a while asks a graceful process to hurry (the queue worker
+          // then hands its running jobs back instead of finishing them)
+          if (opts.repeatTermAfterMs !== undefined && !repeated && Date.now() - started >= opts.repeatTermAfterMs) {
+            repeated = true;
+            term();
+          }
+          await new Promise((r) => setTimeout(r, 50));
+        }
         if (groupAlive(pid)) killGroup(pid, "SIGKILL");
       }
       await Promise.race([exited, new Promise((r) => setTimeout(r, 2000))]);

@@ -4,6 +4,7 @@
 // web server and the queue worker as child process groups with prefixed output.
 // Ctrl-C / SIGTERM stops everything; a child that dies on its own stops the rest (exit 1).
 // `npm run dev` (--dev): the same, with `react-router dev` (hot reload) as the web server.
+// `--no-build`: serve the existing build/ without checking whether it is stale.
 import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
@@ -13,6 +14,8 @@ import { ConfigError, parseConfig, type Config } from "~/lib/config.server";
 const root = path.resolve(import.meta.dirname, "..");
 const bin = (name: string) => path.join(root, "node_modules/.bin", name);
 const dev = process.argv.includes("--dev");
+// --no-build: serve build/ as it is (the tests use it; they build once beforehand)
+const skipBuild = process.argv.includes("--no-build");
 
 function log(message: string) {
   console.log(`[start] ${message}`);
@@ -104,7 +107,7 @@ async function main() {
     if (stopping) return;
     stopping = true;
     log("stopping…");
-    await Promise.all(children.map((ch) => ch.stop()));
+    await Promise.all(children.map((ch) => ch.stop(12_000)));
     await services?.stop().catch(() => undefined);
     log("stopped");
     process.exit(exitCode);
@@ -126,7 +129,10 @@ async function main() {
   }
 
   try {
-    if (!dev) {
+    if (!dev && skipBuild && !fs.existsSync(path.join(root, "build/server/index.js"))) {
+      throw new Error("--no-build was given but there is no build/ yet: run `npm run build` first");
+    }
+    if (!dev && !skipBuild) {
       const why = buildNeeded();
       if (why) {
         log(`building (${why})…`);
@@ -163,7 +169,7 @@ async function main() {
     });
     const report = await seed(db());
     const created = report.projects.filter((p) => p.created).length;
-    log(created ? `seeded ${created} demo project(s)` : "demo data already there, reusing it");
+    log(created ? `seeded ${created} demo project(s)` : "demo projects already there: reusing the data");
     for (const m of report.missing) log(`skipped: ${m}`);
     db().$client.close();
 
@@ -173,7 +179,7 @@ async function main() {
       : spawnChild("web", bin("react-router-serve"), [path.join(root, "build/server/index.js")], { cwd: root });
     children.push(web);
     const workerFile = path.join(root, "workers/queue-worker.ts");
-    if (fs.existsSync(workerFile)) children.push(spawnChild("worker", bin("tsx"), [workerFile], { cwd: root }));
+    if (fs.existsSync(workerFile)) children.push(spawnChild("worker", bin("tsx"), [workerFile], { cwd: root, repeatTermAfterMs: 5000 }));
     else log("no workers/queue-worker.ts in this checkout: queued jobs wait until a worker runs");
 
     for (const ch of children) {

@@ -126,7 +126,7 @@ export async function startApp(opts: StartAppOptions = {}): Promise<RunningApp> 
     });
     children.push(web);
     const withWorker = opts.worker !== false && fs.existsSync(workerFile);
-    if (withWorker) children.push(spawnChild("worker", tsx, [workerFile], { env: childEnv, cwd: root, echo }));
+    if (withWorker) children.push(spawnChild("worker", tsx, [workerFile], { env: childEnv, cwd: root, echo, repeatTermAfterMs: 3000 }));
 
     await waitForHealth(baseUrl, children, 60_000);
 
