@@ -26,5 +26,13 @@ export default [
     route("projects", "routes/api/projects.ts"),
     route("jobs/:jobId/reviews", "routes/api/jobs.$jobId.reviews.ts"),
     route("jobs/:jobId/report", "routes/api/jobs.$jobId.report.ts"),
+    route("models", "routes/api/models.ts"),
+    route("models/:modelId", "routes/api/models.$modelId.ts"),
+    route("models/:modelId/file", "routes/api/models.$modelId.file.ts"),
+    route("jobs", "routes/api/jobs.ts"),
+    route("jobs/:jobId", "routes/api/jobs.$jobId.ts"),
+    route("jobs/:jobId/cancel", "routes/api/jobs.$jobId.cancel.ts"),
+    route("jobs/:jobId/result", "routes/api/jobs.$jobId.result.ts"),
+    route("jobs/:jobId/progress", "routes/api/jobs.$jobId.progress.ts"),
   ]),
 ] satisfies RouteConfig;

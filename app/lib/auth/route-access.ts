@@ -43,13 +43,14 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
 
   // API of api.md (entries stand ready for routes other parts add)
   "/api/health": { GET: "public" },
-  "/api/models": { POST: PRODUCERS },
+  "/api/models": { GET: ALL, POST: PRODUCERS },
   "/api/models/:id": { GET: ALL },
   "/api/models/:id/file": { GET: ALL },
   "/api/jobs": { GET: ALL, POST: PRODUCERS },
   "/api/jobs/:id": { GET: ALL },
   "/api/jobs/:id/cancel": { POST: PRODUCERS }, // and then only the submitter, unless admin
   "/api/jobs/:id/result": { GET: ALL },
+  "/api/jobs/:id/progress": { GET: ALL },
   "/api/jobs/:id/reviews": { GET: ALL, POST: CHECKERS }, // and never on one's own job
   "/api/jobs/:id/report": { GET: ALL },
 

@@ -1,0 +1,27 @@
+// GET /api/jobs/:jobId/result: the result JSON of truss-format.md; 409 while there is none.
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { jsonError, notFound } from "~/lib/http.server";
+import { getJob, getJobResultText } from "~/lib/jobs/queue.server";
+import type { Route } from "./+types/jobs.$jobId.result";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  await requirePermission(request, "read:job");
+  const job = await getJob(params.jobId);
+  if (!job) notFound(`Job ${params.jobId}`);
+  if (job.status === "queued" || job.status === "running") {
+    return jsonError(409, `Job ${job.id} is ${job.status}; its result is there once it has finished`);
+  }
+  if (job.status !== "succeeded") {
+    return jsonError(409, `Job ${job.id} ${job.status === "failed" ? "failed" : "was cancelled"}, so it has no result${job.error ? `: ${job.error}` : ""}`);
+  }
+  const text = await getJobResultText(job.id);
+  if (text === null) return jsonError(500, `The result of job ${job.id} is missing from storage`);
+  const download = new URL(request.url).searchParams.has("download");
+  return new Response(text, {
+    headers: {
+      "Content-Type": "application/json; charset=utf-8",
+      "Cache-Control": "private, max-age=3600", // a stored result never changes
+      ...(download ? { "Content-Disposition": `attachment; filename="job-${job.id}.result.json"` } : {}),
+    },
+  });
+}

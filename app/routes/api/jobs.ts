@@ -1,0 +1,44 @@
+// GET /api/jobs (?status=&projectId=&modelId=&limit=&cursor=), POST /api/jobs (queue a run).
+import { z } from "zod";
+import { JOB_STATUSES } from "~/db/schema";
+import { audit } from "~/lib/auth/audit.server";
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { jsonError, readJson, zodDetails } from "~/lib/http.server";
+import { enqueueJob, LIST_LIMIT_MAX, listJobs } from "~/lib/jobs/queue.server";
+import type { Route } from "./+types/jobs";
+
+const listQuerySchema = z.object({
+  status: z
+    .string()
+    .transform((s) => s.split(",").map((x) => x.trim()).filter(Boolean))
+    .pipe(z.array(z.enum(JOB_STATUSES, { error: `status must be one of ${JOB_STATUSES.join(", ")}` })))
+    .optional(),
+  projectId: z.string().min(1).optional(),
+  modelId: z.string().min(1).optional(),
+  limit: z.coerce.number({ error: "limit must be a number" }).int("limit must be a whole number").min(1).max(LIST_LIMIT_MAX).optional(),
+  cursor: z.string().min(1).optional(),
+});
+
+const submitSchema = z.object({
+  modelId: z.string({ error: "modelId is required" }).min(1, "modelId is required"),
+  options: z.record(z.string(), z.unknown()).optional(),
+});
+
+export async function loader({ request }: Route.LoaderArgs) {
+  await requirePermission(request, "read:job");
+  const params = Object.fromEntries([...new URL(request.url).searchParams].filter(([, v]) => v !== ""));
+  const q = listQuerySchema.safeParse(params);
+  if (!q.success) return jsonError(400, "The job list filter is not valid", zodDetails(q.error.issues));
+  const page = await listJobs(q.data);
+  return Response.json(page, { headers: { "Cache-Control": "no-store" } });
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to queue a job`);
+  const user = await requirePermission(request, "create:job");
+  const body = submitSchema.safeParse(await readJson(request));
+  if (!body.success) return jsonError(400, "The job request is not valid", zodDetails(body.error.issues));
+  const job = await enqueueJob({ modelId: body.data.modelId, options: body.data.options, user });
+  await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, options: job.options } });
+  return Response.json({ id: job.id, status: job.status }, { status: 202, headers: { Location: `/api/jobs/${job.id}` } });
+}

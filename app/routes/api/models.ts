@@ -1,0 +1,65 @@
+// POST /api/models: upload a truss model (multipart: file, projectId); GET ?projectId= lists them.
+import { MaxFileSizeExceededError, parseFormData, type FileUpload } from "@mjackson/form-data-parser";
+import { audit } from "~/lib/auth/audit.server";
+import { requirePermission } from "~/lib/auth/authorize.server";
+import { config } from "~/lib/config.server";
+import { jsonError } from "~/lib/http.server";
+import { listModels, storeModel, uploadTooLarge } from "~/lib/models.server";
+import type { Route } from "./+types/models";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  await requirePermission(request, "read:model");
+  const projectId = new URL(request.url).searchParams.get("projectId") ?? undefined;
+  return Response.json({ models: await listModels({ projectId }) });
+}
+
+// room for the form's other field and the multipart framing around the file
+const FORM_OVERHEAD_BYTES = 64 * 1024;
+
+export async function action({ request }: Route.ActionArgs) {
+  if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to upload a model`);
+  const user = await requirePermission(request, "create:model");
+  if (!/^multipart\/form-data/i.test(request.headers.get("content-type") ?? "")) {
+    return jsonError(415, "Send the model as multipart/form-data with the fields 'file' and 'projectId'");
+  }
+  const limit = config().UPLOAD_LIMIT_BYTES;
+  const declared = Number(request.headers.get("content-length") ?? NaN);
+  if (Number.isFinite(declared) && declared > limit + FORM_OVERHEAD_BYTES) return tooLarge("the file", null);
+
+  let upload: { name: string; bytes: Uint8Array } | null = null;
+  let form: FormData;
+  try {
+    form = await parseFormData(request, { maxFileSize: limit, maxFiles: 1 }, async (file: FileUpload) => {
+      if (file.fieldName !== "file") return null;
+      upload = { name: file.name || "model.truss.json", bytes: new Uint8Array(await file.arrayBuffer()) };
+      return null;
+    });
+  } catch (e) {
+    if (e instanceof MaxFileSizeExceededError) return tooLarge("the file", null);
+    return jsonError(400, `The upload could not be read: ${(e as Error).message}`);
+  }
+  const projectId = form.get("projectId");
+  const details = [];
+  if (typeof projectId !== "string" || !projectId.trim()) details.push({ path: "projectId", message: "required: the project to file the model under" });
+  if (!upload) details.push({ path: "file", message: "required: the truss JSON file" });
+  if (details.length) return jsonError(400, "The upload is incomplete", details);
+  const file = upload as unknown as { name: string; bytes: Uint8Array };
+
+  const stored = await storeModel({ projectId: (projectId as string).trim(), fileName: file.name, bytes: file.bytes, user });
+  if (!stored.ok) return jsonError(stored.status, stored.error, stored.details);
+  const m = stored.model;
+  await audit({
+    request,
+    actor: user,
+    action: "model.upload",
+    entityType: "model",
+    entityId: m.id,
+    detail: { projectId: m.projectId, name: m.name, fileName: m.fileName, sha256: m.sha256, sizeBytes: m.sizeBytes },
+  });
+  return Response.json({ id: m.id, name: m.name, sha256: m.sha256, summary: m.summary, warnings: m.warnings, projectId: m.projectId }, { status: 201 });
+
+  function tooLarge(name: string, size: number | null) {
+    const r = uploadTooLarge(name, size, limit);
+    return r.ok ? jsonError(413, "too large") : jsonError(413, r.error, r.details);
+  }
+}
