@@ -133,8 +133,8 @@ export function shadowPrices(p: DesignProblem, priced: PricedConstraint[], objec
       const share = objectiveFinal > 0 ? (100 * c.scaled * objectiveScale) / objectiveFinal : 0;
       const sentence =
         rank < 3
-          ? `The ${c.what} governs: allowing 1 ${c.relaxUnit} more would save about ${fmt(c.price)} ${objUnit} of ${noun}` +
-            ` (1% more allowance saves about ${fmt(share / 100)}% of the total).`
+          ? `The ${c.what} governs: relaxing it by 1 ${c.relaxUnit} would save about ${fmt(c.price)} ${objUnit} of ${noun}` +
+            ` (relaxing it by 1% saves about ${fmt(share / 100)}% of the total).`
           : "";
       return { constraint: c.id, multiplier: c.price, unit: c.unit, sentence };
     });

@@ -3,8 +3,11 @@
 // degree of freedom and load case. No stiffness solve happens inside the optimizer; an
 // evaluation is one element loop.
 //
-// Variables: z = [design (scaled as in problem.ts) | w_1 | ... | w_nLc], u = u_ref,l * w_l on the
-//   free dofs, u_ref,l = largest starting displacement of load case l.
+// Variables: z = [design (scaled as in problem.ts) | w_1 | ... | w_nLc] with
+//   u = u_0 + u_ref,l (w_l - 1) on the free dofs, u_0 the starting displacements and u_ref,l the
+//   largest of them in load case l: every displacement variable starts at exactly 1 and moves
+//   on the same scale (a dof that starts with a tiny displacement is not magnified the way a
+//   per-variable |x0| scaling would magnify it).
 // Equalities: r = ((K u)_q - f_q) / f_ref,l, f_ref,l = largest load of case l.
 // Jacobian: exact and sparse (SparseRow). Equilibrium is linear in u and bilinear in (A, u),
 //   so a row of node q holds only the areas, the displacements and the shape variables of the
@@ -64,7 +67,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
   const x0 = new Float64Array(n);
   x0.set(p.x0);
   for (let l = 0; l < nLc; l++) {
-    for (let k = 0; k < nFree; k++) x0[nD + l * nFree + k] = a0.displacements[l][freeDofs[k]] / uRef[l];
+    for (let k = 0; k < nFree; k++) x0[nD + l * nFree + k] = 1;
   }
   const lower = new Float64Array(n).fill(-Infinity);
   const upper = new Float64Array(n).fill(Infinity);
@@ -123,7 +126,8 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     for (let l = 0; l < nLc; l++) {
       const u = new Float64Array(nDof);
       const off = nD + l * nFree;
-      for (let k = 0; k < nFree; k++) u[freeDofs[k]] = uRef[l] * z[off + k];
+      const u0 = a0.displacements[l];
+      for (let k = 0; k < nFree; k++) u[freeDofs[k]] = u0[freeDofs[k]] + uRef[l] * (z[off + k] - 1);
       displacements.push(u);
     }
     return { areas, coords, lengths, volume, displacements };

@@ -1,9 +1,10 @@
 // Model files of the design tests and small inline models (invented geometry).
 import fs from "node:fs";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { trussModelSchema, type TrussModel, type TrussModelInput } from "~/engine/truss";
 
-const dir = path.resolve(__dirname, "../../fixtures/models/design");
+const dir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../fixtures/models/design");
 
 export function fixture(name: string): TrussModel {
   return trussModelSchema.parse(JSON.parse(fs.readFileSync(path.join(dir, name), "utf8")));

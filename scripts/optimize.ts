@@ -1,0 +1,90 @@
+// `npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json]`
+// Result JSON on stdout (or into --out), progress on stderr.
+// Exit codes: 0 optimal, 2 invalid input, 3 infeasible, 4 not converged, 1 anything else.
+import fs from "node:fs";
+import { parseModel } from "../app/engine/truss";
+import { optimizeModel, DesignSetupError } from "../app/engine/design";
+
+const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--quiet]";
+const EXIT = { optimal: 0, failed: 1, infeasible: 3, "not-converged": 4 } as const;
+
+function fail(code: number, lines: string[]): never {
+  for (const l of lines) process.stderr.write(`${l}\n`);
+  process.exit(code);
+}
+
+function parseArgs(argv: string[]) {
+  const out: { file?: string; formulation?: "nested" | "simultaneous"; out?: string; maxIterations?: number; quiet: boolean } = { quiet: false };
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a === "--formulation") {
+      const v = argv[++i];
+      if (v !== "nested" && v !== "simultaneous") fail(2, [`--formulation must be nested or simultaneous, got "${v ?? ""}"`, USAGE]);
+      out.formulation = v;
+    } else if (a === "--out") {
+      out.out = argv[++i];
+      if (!out.out) fail(2, ["--out needs a file name", USAGE]);
+    } else if (a === "--max-iterations") {
+      const v = Number(argv[++i]);
+      if (!Number.isInteger(v) || v < 1) fail(2, [`--max-iterations must be a positive whole number, got "${argv[i] ?? ""}"`, USAGE]);
+      out.maxIterations = v;
+    } else if (a === "--quiet") out.quiet = true;
+    else if (a === "--help" || a === "-h") fail(0, [USAGE]);
+    else if (a.startsWith("--")) fail(2, [`unknown option ${a}`, USAGE]);
+    else if (out.file) fail(2, [`only one model file, got "${out.file}" and "${a}"`, USAGE]);
+    else out.file = a;
+  }
+  if (!out.file) fail(2, ["no model file given", USAGE]);
+  return out;
+}
+
+function main() {
+  const args = parseArgs(process.argv.slice(2));
+  let text: string;
+  try {
+    text = fs.readFileSync(args.file!, "utf8");
+  } catch (e) {
+    fail(1, [`cannot read ${args.file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`]);
+  }
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (e) {
+    fail(2, [`${args.file} is not valid JSON: ${(e as Error).message}`]);
+  }
+  const parsed = parseModel(json);
+  if (!parsed.ok) fail(2, [`${args.file} is not a valid truss model:`, ...parsed.errors.map((e) => `  ${e.path || "(file)"}: ${e.message}`)]);
+  for (const w of parsed.warnings) process.stderr.write(`warning ${w.path}: ${w.message}\n`);
+  if (!parsed.model.design) fail(2, [`${args.file}: the model has no design block, so there is nothing to optimize (npm run analyze analyses it).`]);
+
+  const units = parsed.model.units;
+  const objUnit = (parsed.model.design.objective ?? "mass") === "mass" ? units.mass : `${units.force}·${units.length}`;
+  let result;
+  try {
+    result = optimizeModel(parsed.model, {
+      formulation: args.formulation,
+      maxIterations: args.maxIterations,
+      onProgress: args.quiet
+        ? undefined
+        : (p) => process.stderr.write(
+            `iteration ${String(p.iteration).padStart(4)}  objective ${p.objective.toPrecision(7)} ${objUnit}  violation ${p.maxViolation.toExponential(2)}  KKT ${p.kktResidual.toExponential(2)}\n`,
+          ),
+    });
+  } catch (e) {
+    if (e instanceof DesignSetupError) fail(2, [`${args.file}: ${e.message}`]);
+    const err = e as Error;
+    fail(1, [`optimization could not run: ${err.message}`]);
+  }
+  const json2 = JSON.stringify(result, null, 2);
+  if (args.out) fs.writeFileSync(args.out, json2 + "\n");
+  else process.stdout.write(json2 + "\n");
+  process.stderr.write(
+    `${result.status}: ${result.message}\n` +
+      `objective ${result.objective.initial.toPrecision(6)} -> ${result.objective.final.toPrecision(6)} ${objUnit} in ${result.iterations} iterations, ${result.analyses} analyses; ` +
+      `re-analysis: max utilization ${result.verification?.maxUtilization.toFixed(3)}, ${result.verification?.allLimitsMet ? "all limits met" : `${result.verification?.failures.length} limit(s) not met`}\n` +
+      (result.status !== "optimal" && result.hint ? `hint: ${result.hint}\n` : ""),
+  );
+  process.exitCode = EXIT[result.status] ?? 1;
+}
+
+main();

@@ -1,0 +1,61 @@
+// Runs tests/python/slsqp_truss.py (scipy.optimize SLSQP, Debian's python3-scipy) on the same
+// sizing problem the design engine solves, with the same scaled variables and ratio limits.
+import { spawnSync } from "node:child_process";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import type { DesignProblem } from "~/engine/design/problem";
+
+const script = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../python/slsqp_truss.py");
+
+let pythonFound: string | null | undefined;
+/** A python3 that imports scipy, or null (callers skip loudly). */
+export function scipyPython(): string | null {
+  if (pythonFound !== undefined) return pythonFound;
+  pythonFound = null;
+  for (const exe of ["/usr/bin/python3", "python3"]) {
+    const r = spawnSync(exe, ["-c", "import scipy, numpy"], { encoding: "utf8" });
+    if (r.status === 0) { pythonFound = exe; break; }
+  }
+  return pythonFound;
+}
+
+export interface SlsqpOutcome {
+  x: number[];
+  f: number;
+  nit: number;
+  nfev: number;
+  njev: number;
+  success: boolean;
+  message: string;
+  seconds: number;
+}
+
+export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
+  if (p.shapeVars.length) throw new Error("the scipy reference covers sizing problems only");
+  const s = p.structure;
+  return {
+    coords: Array.from(s.coords),
+    fixed: Array.from(s.fixed).flatMap((v, i) => (v ? [i] : [])),
+    start: Array.from(s.start), end: Array.from(s.end),
+    E: Array.from(s.E), density: Array.from(s.density),
+    loads: s.loads.map((f) => Array.from(f)),
+    areaVar: Array.from(p.memberVar), scale: p.areaVars.map((v) => v.scale),
+    x0: Array.from(p.x0), lower: Array.from(p.lower), upper: Array.from(p.upper),
+    objective: p.objective, f0,
+    limits: p.limits.map((l) => {
+      if (l.kind === "buckling" || l.kind === "length") throw new Error(`the scipy reference has no ${l.kind} limits`);
+      return { kind: l.kind, member: l.member, dof: l.dof, sign: l.sign, loadCase: l.loadCase, limit: l.limit };
+    }),
+    maxiter,
+    ftol: 1e-10,
+  };
+}
+
+export function runSlsqp(p: DesignProblem, f0: number, opts: { maxiter?: number; timeoutMs?: number } = {}): SlsqpOutcome | null {
+  const py = scipyPython();
+  if (!py) return null;
+  const input = JSON.stringify(slsqpProblemData(p, f0, opts.maxiter));
+  const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs });
+  if (r.status !== 0) throw new Error(`slsqp_truss.py failed (${r.status ?? r.signal}): ${r.stderr}`);
+  return JSON.parse(r.stdout.trim().split("\n").pop()!) as SlsqpOutcome;
+}

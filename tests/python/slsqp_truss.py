@@ -1,0 +1,116 @@
+#!/usr/bin/env python3
+"""Reference solve of a truss sizing problem with scipy.optimize SLSQP.
+
+Reads one JSON problem on stdin (written by tests/engine/design/slsqp-reference.ts), solves it
+with the same analytic formulas the Strutwise design engine uses (direct stiffness analysis,
+adjoint gradients, limits as ratios g <= 0, areas scaled by A_ref, objective divided by f0)
+and prints one JSON line: x (scaled), f (model units), nit, nfev, njev, success, message, seconds.
+"""
+import json
+import sys
+import time
+
+import numpy as np
+from scipy.linalg import cho_factor, cho_solve
+from scipy.optimize import minimize
+
+
+def main():
+    P = json.load(sys.stdin)
+    coords = np.array(P["coords"], dtype=float).reshape(-1, 3)
+    nn = coords.shape[0]
+    fixed = np.zeros(nn * 3, dtype=bool)
+    fixed[P["fixed"]] = True
+    free = np.flatnonzero(~fixed)
+    start = np.array(P["start"]); end = np.array(P["end"])
+    E = np.array(P["E"], dtype=float); rho = np.array(P["density"], dtype=float)
+    loads = [np.array(f, dtype=float) for f in P["loads"]]
+    var = np.array(P["areaVar"]); scale = np.array(P["scale"], dtype=float)
+    nv = len(scale)
+    d = coords[end] - coords[start]
+    L = np.linalg.norm(d, axis=1)
+    n_ = d / L[:, None]
+    m = len(L)
+    # element dof map (6 per member) and unit element blocks n n^T
+    edofs = np.hstack([3 * start[:, None] + np.arange(3), 3 * end[:, None] + np.arange(3)])
+    B = np.hstack([-n_, n_])  # elongation = B . u_e
+    pos = -np.ones(nn * 3, dtype=int); pos[free] = np.arange(len(free))
+    limits = P["limits"]
+    f0 = P["f0"]
+    objective = P["objective"]
+    cache = {}
+
+    def analysis(x):
+        key = x.tobytes()
+        if key in cache:
+            return cache[key]
+        A = scale[var] * x[var]
+        k = (E * A / L)
+        K = np.zeros((nn * 3, nn * 3))
+        blocks = k[:, None, None] * (B[:, :, None] * B[:, None, :])
+        np.add.at(K, (edofs[:, :, None], edofs[:, None, :]), blocks)
+        Kf = K[np.ix_(free, free)]
+        c = cho_factor(Kf)
+        U = []
+        for f in loads:
+            u = np.zeros(nn * 3); u[free] = cho_solve(c, f[free]); U.append(u)
+        cache.clear()
+        cache[key] = (A, c, U)
+        return cache[key]
+
+    def response_rows(x):
+        A, c, U = analysis(x)
+        vals = []; grads = []
+        for lim in limits:
+            kind = lim["kind"]
+            if kind == "volume":
+                vals.append(np.dot(A, L) / lim["limit"] - 1)
+                g = np.zeros(nv); np.add.at(g, var, L * scale[var] / lim["limit"]); grads.append(g)
+                continue
+            u = U[lim["loadCase"]]
+            cvec = np.zeros(nn * 3)
+            if kind == "displacement":
+                val = lim["sign"] * u[lim["dof"]] / lim["limit"] - 1
+                cvec[lim["dof"]] = lim["sign"] / lim["limit"]
+            else:  # stress-tension / stress-compression
+                e = lim["member"]
+                sig = E[e] / L[e] * np.dot(B[e], u[edofs[e]])
+                val = lim["sign"] * sig / lim["limit"] - 1
+                cvec[edofs[e]] = lim["sign"] * E[e] / L[e] * B[e] / lim["limit"]
+            lam = np.zeros(nn * 3); lam[free] = cho_solve(c, cvec[free])
+            # dg/dA_e = -lambda_e^T (k_e / A_e) u_e
+            de = -(E / L) * np.einsum("ij,ij->i", B, lam[edofs]) * np.einsum("ij,ij->i", B, u[edofs])
+            g = np.zeros(nv); np.add.at(g, var, de * scale[var]); grads.append(g)
+            vals.append(val)
+        return np.array(vals), np.array(grads)
+
+    def fun(x):
+        A, c, U = analysis(x)
+        if objective == "mass":
+            return float(np.dot(rho * A, L) / f0)
+        return float(sum(np.dot(f, u) for f, u in zip(loads, U)) / f0)
+
+    def grad(x):
+        A, c, U = analysis(x)
+        g = np.zeros(nv)
+        if objective == "mass":
+            np.add.at(g, var, rho * L * scale[var])
+        else:
+            for u in U:
+                de = -(E / L) * np.einsum("ij,ij->i", B, u[edofs]) ** 2
+                np.add.at(g, var, de * scale[var])
+        return g / f0
+
+    x0 = np.array(P["x0"], dtype=float)
+    bounds = list(zip(P["lower"], P["upper"]))
+    cons = [{"type": "ineq", "fun": lambda x: -response_rows(x)[0], "jac": lambda x: -response_rows(x)[1]}] if limits else []
+    t = time.perf_counter()
+    r = minimize(fun, x0, jac=grad, bounds=bounds, constraints=cons, method="SLSQP",
+                 options={"maxiter": P.get("maxiter", 500), "ftol": P.get("ftol", 1e-10)})
+    secs = time.perf_counter() - t
+    print(json.dumps({"x": r.x.tolist(), "f": float(r.fun * f0), "nit": int(r.nit), "nfev": int(r.nfev),
+                      "njev": int(r.njev), "success": bool(r.success), "message": str(r.message), "seconds": secs}))
+
+
+if __name__ == "__main__":
+    main()
