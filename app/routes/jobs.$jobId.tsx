@@ -1,5 +1,5 @@
 import { eq } from "drizzle-orm";
-import { useMemo } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { data, Link } from "react-router";
 import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
 import { GoverningConstraints } from "~/components/job/GoverningConstraints";
@@ -148,6 +148,9 @@ export function ErrorBoundary() {
 export default function JobPage({ loaderData }: Route.ComponentProps) {
   const { job, facts, topology, result, history, reviews, may, maxIterations } = loaderData;
   const live = job.status === "queued" || job.status === "running";
+  // the header follows the live poll between loader runs
+  const [shownStatus, setShownStatus] = useState<string>(job.status);
+  useEffect(() => setShownStatus(job.status), [job.status]);
   const objectiveLabel = result?.objective.kind ?? (job.options.objective as string | undefined) ?? "objective";
   const current = reviews.at(-1);
   const topo = useMemo<Topology>(
@@ -175,7 +178,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         </p>
         <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-semibold sm:text-3xl">
           <span>Job {job.id.slice(0, 8)}</span>
-          <StatusBadge status={job.status} />
+          <StatusBadge status={shownStatus} />
           <OutcomeBadge outcome={job.outcome} />
           {job.status === "succeeded" && <ReviewBadge decision={current?.decision} />}
         </h1>
@@ -204,6 +207,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           maxIterations={maxIterations}
           canCancel={may.cancel}
           objectiveLabel={objectiveLabel}
+          onStatus={setShownStatus}
         />
       )}
 

@@ -227,6 +227,9 @@ describe("pages", () => {
     await page.waitForURL(/\/models\/[^/]+$/, { timeout: 20_000 });
     await page.getByRole("button", { name: "Queue job" }).click();
     await page.waitForURL(/\/jobs\/[^/]+$/, { timeout: 20_000 });
+    // live: the iteration count and the convergence plot fill in while it runs
+    await page.getByTestId("live-status").getByText(/^iteration \d+/).waitFor({ timeout: 60_000 });
+    await screenshot(page, "pages-job-running-1440x900");
     await page.getByRole("button", { name: "Cancel job" }).click();
     await page.getByTestId("outcome").waitFor({ timeout: 60_000 });
     await expect(page.locator("h1 [data-status]").getAttribute("data-status")).resolves.toBe("cancelled");

@@ -46,7 +46,9 @@ export function LiveProgress({
   maxIterations,
   canCancel,
   objectiveLabel,
+  onStatus,
 }: {
+  onStatus?: (status: string) => void;
   initial: LiveJob;
   initialHistory: ConvergencePoint[];
   maxIterations: number | null;
@@ -62,6 +64,8 @@ export function LiveProgress({
 
   usePoll(() => job.state === "idle" && job.load(`/api/jobs/${initial.id}`), 1000, !done);
   usePoll(() => history.state === "idle" && history.load(`/api/jobs/${initial.id}/progress`), 2000, !done && live.status === "running");
+
+  useEffect(() => onStatus?.(live.status), [live.status, onStatus]);
 
   useEffect(() => {
     if (done && revalidator.state === "idle") revalidator.revalidate();

@@ -363,13 +363,23 @@ function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolea
       camera.position.set(center[0], center[1], center[2] + span);
       camera.zoom = 0.85 * Math.min(size.width / w, size.height / h);
     } else if (camera instanceof THREE.PerspectiveCamera) {
-      // a three-quarter view from the front, slightly above
-      const dir = up === "z" ? new THREE.Vector3(0.9, -1.6, 0.8) : new THREE.Vector3(0.9, 0.7, 1.6);
-      const radius = span / 2;
-      const fov = (camera.fov * Math.PI) / 180;
-      const fit = Math.min(fov, 2 * Math.atan(Math.tan(fov / 2) * camera.aspect));
-      const distance = (radius / Math.sin(fit / 2)) * 1.05;
-      camera.position.copy(target).addScaledVector(dir.normalize(), distance);
+      // a three-quarter view from the front, slightly above; the distance is the least that
+      // keeps every corner of the bounding box inside the view (tighter than a bounding sphere)
+      const back = (up === "z" ? new THREE.Vector3(0.9, -1.6, 0.8) : new THREE.Vector3(0.9, 0.7, 1.6)).normalize();
+      const upVec = up === "z" ? new THREE.Vector3(0, 0, 1) : new THREE.Vector3(0, 1, 0);
+      const right = new THREE.Vector3().crossVectors(upVec, back).normalize();
+      const upCam = new THREE.Vector3().crossVectors(back, right);
+      const tanV = Math.tan((camera.fov * Math.PI) / 360);
+      const tanH = tanV * camera.aspect;
+      let distance = span * 0.05;
+      for (const cx of [min[0], max[0]])
+        for (const cy of [min[1], max[1]])
+          for (const cz of [min[2], max[2]]) {
+            const d = new THREE.Vector3(cx, cy, cz).sub(target);
+            const along = d.dot(back);
+            distance = Math.max(distance, along + Math.abs(d.dot(right)) / tanH, along + Math.abs(d.dot(upCam)) / tanV);
+          }
+      camera.position.copy(target).addScaledVector(back, distance * 1.08);
     }
     camera.lookAt(target);
     camera.updateProjectionMatrix();
