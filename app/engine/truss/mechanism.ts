@@ -1,4 +1,5 @@
 // Turning a zero-energy mode of the stiffness matrix into a sentence an engineer can act on.
+import { Matrix, solve } from "ml-matrix";
 import { AXIS_NAMES, type Structure } from "./structure";
 
 export interface MechanismInfo {
@@ -65,9 +66,6 @@ export function describeMode(s: Structure, mode: Float64Array): MechanismInfo {
   const node = s.nodeIds[best];
   const names = involved.map((i) => s.nodeIds[i]);
 
-  let connectedCount = 0;
-  for (let i = 0; i < nNodes; i++) if (s.connected[i]) connectedCount++;
-
   if (involved.length === 1) {
     return {
       node, axis, nodes: names, kind: "free-node",
@@ -79,7 +77,8 @@ export function describeMode(s: Structure, mode: Float64Array): MechanismInfo {
   for (const i of involved) {
     for (let a = 0; a < 3; a++) if (Math.abs(mode[3 * i + a] - mode[3 * best + a]) > 1e-6 * bestMag) translation = false;
   }
-  const wholeStructure = involved.length >= connectedCount;
+  // the whole structure moves as a rigid body (supports included, standing still or not)
+  const wholeStructure = isRigidMotion(s, mode, bestMag);
   if (translation && wholeStructure) {
     return {
       node, axis, nodes: names, kind: "rigid-translation",
@@ -101,4 +100,53 @@ export function describeMode(s: Structure, mode: Float64Array): MechanismInfo {
 function round(v: number): string {
   const r = Math.round(v * 100) / 100;
   return String(Object.is(r, -0) ? 0 : r);
+}
+
+/**
+ * Whether the motion of all connected nodes is u = t + w x r (least-squares fit of t and w,
+ * 6 unknowns, solved densely; a small problem whatever the model size).
+ */
+function isRigidMotion(s: Structure, mode: Float64Array, scale: number): boolean {
+  const A = new Matrix(6, 6);
+  const b = new Array<number>(6).fill(0);
+  const rows: number[][] = [];
+  const rhs: number[] = [];
+  // about the centroid, so that the fit is well conditioned whatever the length unit
+  const o = [0, 0, 0];
+  let count = 0;
+  for (let i = 0; i < s.nodeIds.length; i++) {
+    if (!s.connected[i]) continue;
+    for (let a = 0; a < 3; a++) o[a] += s.coords[3 * i + a];
+    count++;
+  }
+  for (let a = 0; a < 3; a++) o[a] /= Math.max(count, 1);
+  for (let i = 0; i < s.nodeIds.length; i++) {
+    if (!s.connected[i]) continue;
+    const x = s.coords[3 * i] - o[0], y = s.coords[3 * i + 1] - o[1], z = s.coords[3 * i + 2] - o[2];
+    // rows of [I, -[r]x] for t and w
+    const block = [
+      [1, 0, 0, 0, z, -y],
+      [0, 1, 0, -z, 0, x],
+      [0, 0, 1, y, -x, 0],
+    ];
+    for (let a = 0; a < 3; a++) {
+      if (s.dim === 2 && a === 2) continue;
+      rows.push(block[a]);
+      rhs.push(mode[3 * i + a]);
+    }
+  }
+  for (let r = 0; r < rows.length; r++) {
+    for (let p = 0; p < 6; p++) {
+      b[p] += rows[r][p] * rhs[r];
+      for (let q = 0; q < 6; q++) A.set(p, q, A.get(p, q) + rows[r][p] * rows[r][q]);
+    }
+  }
+  const c = solve(A, Matrix.columnVector(b), true).to1DArray();
+  let worst = 0;
+  for (let r = 0; r < rows.length; r++) {
+    let v = -rhs[r];
+    for (let p = 0; p < 6; p++) v += rows[r][p] * c[p];
+    worst = Math.max(worst, Math.abs(v));
+  }
+  return worst <= 1e-6 * scale;
 }
