@@ -31,7 +31,11 @@ export function reanalyze(p: DesignProblem, areas: Float64Array, coords: Float64
   const push = (id: string, kind: VerificationCheck["kind"], value: number, limit: number, ratio: number) =>
     checks.push({ id, kind, value, limit, ratio, ok: ratio <= 1 + slack });
 
-  const usesStress = p.limits.some((l) => l.kind === "stress-tension");
+  // The stress limits checked are the problem's own (normally the material allowables).
+  const stressLimit = new Map<string, number>();
+  for (const l of p.limits) {
+    if (l.kind === "stress-tension" || l.kind === "stress-compression") stressLimit.set(`${l.member}|${l.loadCase}|${l.sign}`, l.limit);
+  }
   const members: MemberCheck[] = [];
   for (let e = 0; e < m; e++) members.push({ utilization: 0, governing: "" });
   for (let l = 0; l < s.loadCaseIds.length; l++) {
@@ -43,7 +47,9 @@ export function reanalyze(p: DesignProblem, areas: Float64Array, coords: Float64
       // Utilization always reads the material allowables, even when the stress limit is off.
       const allow = sigma >= 0 ? s.allowTension[e] : s.allowCompression[e];
       const ratio = Math.abs(sigma) / allow;
-      if (usesStress) push(`stress:${id}:${lc}`, "stress", sigma, sigma >= 0 ? allow : -allow, ratio);
+      const sign = sigma >= 0 ? 1 : -1;
+      const lim = stressLimit.get(`${e}|${l}|${sign}`);
+      if (lim !== undefined) push(`stress:${id}:${lc}`, "stress", sigma, sign * lim, Math.abs(sigma) / lim);
       if (ratio > members[e].utilization) members[e] = { utilization: ratio, governing: `stress:${lc}` };
       if (p.buckling && sigma < 0) {
         const L = analysis.lengths[e];
