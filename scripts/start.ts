@@ -10,6 +10,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { spawnChild, type Child } from "./process-group";
 import { ConfigError, parseConfig, type Config } from "~/lib/config.server";
+import type { DemoAccount } from "./seed";
 
 const root = path.resolve(import.meta.dirname, "..");
 const bin = (name: string) => path.join(root, "node_modules/.bin", name);
@@ -167,10 +168,14 @@ async function main() {
     await ensureBucket().catch((e: Error) => {
       throw new Error(`the bucket "${c.S3_BUCKET}" at ${c.S3_ENDPOINT} cannot be reached or created: ${e.message}`);
     });
-    const report = await seed(db());
-    const created = report.projects.filter((p) => p.created).length;
-    log(created ? `seeded ${created} demo project(s)` : "demo projects already there: reusing the data");
-    for (const m of report.missing) log(`skipped: ${m}`);
+    let accounts: DemoAccount[] | null = null;
+    if (c.SEED_DEMO === "on") {
+      const report = await seed(db());
+      accounts = report.accounts;
+      const created = report.projects.filter((p) => p.created).length;
+      log(created ? `seeded ${created} demo project(s)` : "demo projects already there: reusing the data");
+      for (const m of report.missing) log(`skipped: ${m}`);
+    } else log("SEED_DEMO=off: no demo accounts or projects");
     db().$client.close();
 
     const host = process.env.HOST || "127.0.0.1";
@@ -195,7 +200,7 @@ async function main() {
     if (health !== "ok") log(`/api/health is not green yet: ${health}`);
     console.log("");
     log(`Strutwise is running at ${c.APP_URL}${dev ? " (development, hot reload)" : ""}`);
-    log(`demo accounts:\n${accountsTable(report.accounts)}`);
+    if (accounts) log(`demo accounts:\n${accountsTable(accounts)}`);
     log("Ctrl-C stops everything.");
   } catch (e) {
     console.error(`[start] ${e instanceof Error ? e.message : String(e)}`);

@@ -26,6 +26,8 @@ const schema = z.object({
   DATA_DIR: z.string().default(".data"),
   // `npm start` runs the S3 fake and the mail catcher itself unless this is off (real S3/SMTP)
   LOCAL_SERVICES: z.enum(["on", "off"]).default("on"),
+  // demo accounts and projects on start: default on with the local services, off without
+  SEED_DEMO: z.enum(["on", "off"]).optional(),
   S3_PORT: port().default(4569),
   MAIL_HTTP_PORT: port().default(2526),
   BETTER_AUTH_SECRET: z.string().min(32, "must be at least 32 characters").default(DEV_SECRET),
@@ -53,7 +55,12 @@ const schema = z.object({
   JOB_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(3),
 });
 
-export type Config = z.infer<typeof schema> & { APP_URL: string; DATABASE_URL: string; S3_ENDPOINT: string };
+export type Config = z.infer<typeof schema> & {
+  APP_URL: string;
+  DATABASE_URL: string;
+  S3_ENDPOINT: string;
+  SEED_DEMO: "on" | "off";
+};
 
 export class ConfigError extends Error {}
 
@@ -82,6 +89,7 @@ export function parseConfig(env: Record<string, string | undefined>): Config {
     DATABASE_URL: c.DATABASE_URL ?? `file:${path.join(c.DATA_DIR, "strutwise.db")}`,
     S3_ENDPOINT: c.S3_ENDPOINT ?? `http://127.0.0.1:${c.S3_PORT}`,
     MAIL_CATCHER_URL: c.MAIL_CATCHER_URL ?? (local ? `http://127.0.0.1:${c.MAIL_HTTP_PORT}` : undefined),
+    SEED_DEMO: c.SEED_DEMO ?? (local ? "on" : "off"),
   };
 }
 

@@ -50,6 +50,7 @@ describe("parseConfig", () => {
     expect(c.MAIL_CATCHER_URL).toBe("http://127.0.0.1:4601");
     expect(c.PORT).toBe(4310);
     expect(c.APP_URL).toBe("http://localhost:4310");
+    expect(c.SEED_DEMO).toBe("on");
   });
 
   it("keeps explicit hosted-service settings, and no mail catcher with LOCAL_SERVICES=off", () => {
@@ -63,6 +64,7 @@ describe("parseConfig", () => {
     expect(c.S3_ENDPOINT).toBe("https://s3.eu-central-1.amazonaws.com");
     expect(c.S3_FORCE_PATH_STYLE).toBe(false);
     expect(c.MAIL_CATCHER_URL).toBeUndefined();
+    expect(c.SEED_DEMO).toBe("off"); // public demo passwords stay out of a deployment
   });
 
   it("treats empty variables as unset", () => {
