@@ -35,7 +35,8 @@ export function ConvergencePlot({
     const ro = new ResizeObserver((entries) => setWidth(Math.max(280, Math.round(entries[0]!.contentRect.width))));
     ro.observe(el);
     return () => ro.disconnect();
-  }, []);
+    // the box exists only once there is something to plot
+  }, [history.length > 0]);
 
   if (history.length === 0)
     return (
@@ -52,9 +53,9 @@ export function ConvergencePlot({
   const yLog = logScale(history.flatMap((h) => [h.maxViolation ?? NaN, h.kktResidual ?? NaN]), bottom);
   const height = bottom[0] + M.bottom;
   const series = [
-    { key: "objective", label: objectiveLabel, cls: "stroke-ink", y: yObj, pick: (h: ConvergencePoint) => h.objective, dash: undefined },
-    { key: "maxViolation", label: "max violation", cls: "stroke-compression", y: yLog, pick: (h: ConvergencePoint) => h.maxViolation, dash: undefined },
-    { key: "kktResidual", label: "KKT residual", cls: "stroke-info", y: yLog, pick: (h: ConvergencePoint) => h.kktResidual, dash: "5 3" },
+    { key: "objective", label: objectiveLabel, cls: "stroke-ink", dot: "fill-ink", y: yObj, pick: (h: ConvergencePoint) => h.objective, dash: undefined },
+    { key: "maxViolation", label: "max violation", cls: "stroke-compression", dot: "fill-compression", y: yLog, pick: (h: ConvergencePoint) => h.maxViolation, dash: undefined },
+    { key: "kktResidual", label: "KKT residual", cls: "stroke-info", dot: "fill-info", y: yLog, pick: (h: ConvergencePoint) => h.kktResidual, dash: "5 3" },
   ];
   const last = history[history.length - 1]!;
 
@@ -85,6 +86,11 @@ export function ConvergencePlot({
           <text x={width - M.right} y={bottom[0] + 28} textAnchor="end" className="fill-ink-soft font-sans text-[11px]">
             iteration
           </text>
+          {series.map((s) => {
+            // mark the newest point, so a run that has reported once already shows something
+            const v = valueOrNull(s.pick(last), s.y.log);
+            return v === null ? null : <circle key={`${s.key}-last`} cx={x(last.iteration)} cy={s.y(v)} r={2.5} className={s.dot} />;
+          })}
           {series.map((s) => (
             <path
               key={s.key}
