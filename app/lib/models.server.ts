@@ -55,14 +55,10 @@ export function toModelView(r: ModelRow): ModelView {
 
 const mb = (n: number) => `${(n / (1024 * 1024)).toFixed(n < 1024 * 1024 ? 2 : 1)} MB`;
 
-export function uploadTooLarge(fileName: string, size: number | null, limit = config().UPLOAD_LIMIT_BYTES): StoreModelResult {
-  const what = size === null ? `The file ${fileName} is larger` : `The file ${fileName} is ${mb(size)}`;
-  return {
-    ok: false,
-    status: 413,
-    error: `${what} than the upload limit of ${mb(limit)}`,
-    details: [{ path: "file", message: `over the upload limit of ${limit} bytes` }],
-  };
+export function uploadTooLarge(fileName: string | null, size: number | null, limit = config().UPLOAD_LIMIT_BYTES): StoreModelResult & { ok: false } {
+  const what = fileName ? `The file ${fileName}` : "The upload";
+  const error = size === null ? `${what} is larger than the upload limit of ${mb(limit)}` : `${what} is ${mb(size)}, larger than the upload limit of ${mb(limit)}`;
+  return { ok: false, status: 413, error, details: [{ path: "file", message: `over the upload limit of ${limit} bytes` }] };
 }
 
 /**

@@ -24,7 +24,7 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const limit = config().UPLOAD_LIMIT_BYTES;
   const declared = Number(request.headers.get("content-length") ?? NaN);
-  if (Number.isFinite(declared) && declared > limit + FORM_OVERHEAD_BYTES) return tooLarge("the file", null);
+  if (Number.isFinite(declared) && declared > limit + FORM_OVERHEAD_BYTES) return tooLarge();
 
   let upload: { name: string; bytes: Uint8Array } | null = null;
   let form: FormData;
@@ -35,7 +35,7 @@ export async function action({ request }: Route.ActionArgs) {
       return null;
     });
   } catch (e) {
-    if (e instanceof MaxFileSizeExceededError) return tooLarge("the file", null);
+    if (e instanceof MaxFileSizeExceededError) return tooLarge();
     return jsonError(400, `The upload could not be read: ${(e as Error).message}`);
   }
   const projectId = form.get("projectId");
@@ -58,8 +58,8 @@ export async function action({ request }: Route.ActionArgs) {
   });
   return Response.json({ id: m.id, name: m.name, sha256: m.sha256, summary: m.summary, warnings: m.warnings, projectId: m.projectId }, { status: 201 });
 
-  function tooLarge(name: string, size: number | null) {
-    const r = uploadTooLarge(name, size, limit);
-    return r.ok ? jsonError(413, "too large") : jsonError(413, r.error, r.details);
+  function tooLarge() {
+    const r = uploadTooLarge(null, null, limit);
+    return jsonError(413, r.error, r.details);
   }
 }
