@@ -121,7 +121,7 @@ describe("every rule names the item and what is wrong (truss-format.md)", () => 
     expectError((m) => delete m.members[0].area, "members[0].area", /member AB: "area" is missing/);
   });
   it("stress constraint needs allowables; shape and displacement references", () => {
-    expectError((m) => delete m.materials[0].allowableTension, "materials[0]", /allowableTension and allowableCompression are both needed/);
+    expectError((m) => delete (m.materials[0] as Record<string, unknown>).allowableTension, "materials[0]", /allowableTension and allowableCompression are both needed/);
     expectError((m) => ((m.design as Record<string, unknown>).shape = [{ id: "rise", min: -1, max: 1, moves: [{ node: "Q", axis: "y" }] }]), "design.shape[0].moves[0].node", /move #1 of shape variable rise: moves unknown node "Q"/);
     expectError((m) => ((m.design as Record<string, unknown>).shape = [{ id: "rise", min: -1, max: 1, moves: [{ node: "C", axis: "z" }] }]), "design.shape[0].moves[0].axis", /model is 2D/);
     expectError((m) => ((m.design as Record<string, unknown>).constraints = { displacement: [{ node: "Q", axis: "y", limit: 5 }] }), "design.constraints.displacement[0].node", /unknown node "Q"/);
