@@ -114,3 +114,26 @@ describe("three-bar suspended system (Timoshenko, Strength of Materials, part I:
     close(a.displacements[0][1], -(P * l) / (E * A * (1 + 2 * c ** 3)));
   });
 });
+
+describe("three-bar plane truss, D. L. Logan's finite element textbook, Example 3.5 (printed values from memory)", () => {
+  // Node 1 joined to three pinned nodes: a vertical bar (120 in), a 45-degree bar (120 sqrt 2 in)
+  // and a horizontal bar (120 in); E = 30e6 psi, A = 2 in^2, 10,000 lb down at node 1.
+  // Printed: u1 = 0.414e-2 in, v1 = -1.59e-2 in; stresses 3965, 1471, -1035 psi (the book
+  // rounds the displacements before the stresses, hence the loose tolerance).
+  const s = buildStructure({
+    ...model(2, [["1", 0, 0], ["2", 0, 120, 0, ["x", "y"]], ["3", 120, 120, 0, ["x", "y"]], ["4", 120, 0, 0, ["x", "y"]]],
+      [["e1", "1", "2", 2], ["e2", "1", "3", 2], ["e3", "1", "4", 2]], [{ id: "P", loads: [{ node: "1", fy: -10000 }] }], { E: 30e6 }),
+    units: { length: "in", force: "lbf", mass: "lb" },
+  });
+  const a = analyze(s);
+  const near = (v: number, printed: number, rel: number) => expect(Math.abs(v - printed)).toBeLessThanOrEqual(rel * Math.abs(printed));
+  it("displacements of node 1", () => {
+    near(a.displacements[0][0], 0.414e-2, 0.005);
+    near(a.displacements[0][1], -1.59e-2, 0.005);
+  });
+  it("bar stresses", () => {
+    near(a.stresses[0][0], 3965, 0.005);
+    near(a.stresses[0][1], 1471, 0.006);
+    near(a.stresses[0][2], -1035, 0.005);
+  });
+});
