@@ -16,7 +16,8 @@ import { TrussViewer } from "~/components/viewer/TrussViewer";
 import type { ModelLike } from "~/components/viewer/truss-view";
 import { db } from "~/db/client.server";
 import { models, projects, user as users } from "~/db/schema";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { audit } from "~/lib/auth/audit.server";
+import { assertPermission, requirePermission, requireUser } from "~/lib/auth/authorize.server";
 import { can } from "~/lib/auth/permissions";
 import { createReview, listReviews } from "~/lib/auth/reviews.server";
 import { notFound } from "~/lib/http.server";
@@ -112,12 +113,15 @@ async function errorOf(e: unknown): Promise<{ status: number; error: string; det
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUser(request);
   const form = await request.formData();
   const intent = form.get("intent");
   if (intent === "cancel") {
-    const user = await requirePermission(request, "read:job");
+    // own jobs for engineers; cancelJob itself lets only the submitter or an admin through
+    assertPermission(user, "cancel:job:own");
     try {
-      await cancelJob(params.jobId, user);
+      const job = await cancelJob(params.jobId, user);
+      await audit({ request, actor: user, action: "job.cancel", entityType: "job", entityId: job.id, detail: { status: job.status } });
       return { ok: true };
     } catch (e) {
       const err = await errorOf(e);
@@ -125,7 +129,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     }
   }
   if (intent === "review") {
-    const user = await requirePermission(request, "review:job");
+    assertPermission(user, "review:job");
     const decision = String(form.get("decision") ?? "");
     if (decision !== "approved" && decision !== "changes-requested")
       return data<ReviewActionData>({ fieldErrors: { decision: "Choose approve or return with changes" } }, { status: 400 });

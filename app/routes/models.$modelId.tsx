@@ -11,6 +11,7 @@ import { TrussViewer } from "~/components/viewer/TrussViewer";
 import type { ModelLike } from "~/components/viewer/truss-view";
 import { db } from "~/db/client.server";
 import { projects, user as users } from "~/db/schema";
+import { audit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { can } from "~/lib/auth/permissions";
 import { notFound } from "~/lib/http.server";
@@ -127,6 +128,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors }, { status: 400 });
   try {
     const job = await enqueueJob({ modelId: params.modelId, options: parsed.options, user });
+    await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, options: job.options } });
     throw redirect(`/jobs/${job.id}`);
   } catch (e) {
     if (e instanceof Response && e.status >= 400) {
