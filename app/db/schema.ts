@@ -77,6 +77,9 @@ export const jobs = sqliteTable(
   (t) => [
     index("jobs_status_created_idx").on(t.status, t.createdAt),
     index("jobs_project_idx").on(t.projectId, t.createdAt),
+    // newest-first listing (created_at, id) without a sort, with and without a status filter
+    index("jobs_created_id_idx").on(t.createdAt, t.id),
+    index("jobs_status_created_id_idx").on(t.status, t.createdAt, t.id),
     index("jobs_model_idx").on(t.modelId),
   ],
 );
