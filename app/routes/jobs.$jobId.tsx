@@ -238,7 +238,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               {result.verification && (
                 <Stat label="independent check" value={result.verification.allLimitsMet ? "all limits met" : `${result.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${fmtSci(result.verification.equilibriumResidual)}, ${result.verification.checked} checks`} />
               )}
-              {result.solver && <Stat label="solver" value={`${result.solver.name} ${result.solver.version}`} />}
+              {result.solver && <Stat label="solver" value={`${result.solver.name} ${result.solver.version}`} wrap />}
             </dl>
           </section>
         </>

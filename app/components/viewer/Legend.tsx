@@ -36,7 +36,7 @@ export function Legend({ mode, showInitial, showDeformed }: { mode: "utilization
         support
       </li>
       <li className="flex items-center gap-1.5">
-        <span className="inline-block w-5 border-t-2 border-info" aria-hidden />
+        <span className="inline-block w-5 border-t-2 border-ink" aria-hidden />
         load
       </li>
     </ul>

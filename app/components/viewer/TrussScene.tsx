@@ -287,7 +287,7 @@ function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
       });
   }, [view, loadCase]);
   const objects = useMemo(() => {
-    const colour = new THREE.Color(cssColor("--color-info", "#2c5d8a"));
+    const colour = new THREE.Color(cssColor("--color-ink", "#16202c")); // not blue: tension members are
     const shaft = new Float32Array(arrows.length * 6);
     arrows.forEach((a, i) => {
       const tip = new THREE.Vector3(...a.tip);
@@ -388,9 +388,10 @@ function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolea
       controls.current.update();
     }
     invalidate();
-    // re-frame on explicit request or a new truss, not on every resize
+    // re-frame on request, for a new truss, and when the box changes size (a phone turned,
+    // a window resized): the fit depends on the aspect ratio
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [view, ortho, up, fitNonce, camera]);
+  }, [view, ortho, up, fitNonce, camera, Math.round(size.width / 40), Math.round(size.height / 40)]);
 
   return (
     <OrbitControls
