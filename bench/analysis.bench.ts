@@ -18,11 +18,13 @@ if (!haveScipy) console.log("!!! python3 with scipy not found: the scipy.sparse 
 
 function run(label: string, model: TrussModel, repeats = 3) {
   gc();
+  gc(); // twice: array buffers of the previous model are released on a later pass
   const before = mem();
   const t0 = performance.now();
   const s = buildStructure(model);
   let a = analyze(s);
   const first = performance.now() - t0;
+  gc();
   const held = mem() - before; // structure + analysis with its factor, still referenced
   const times: number[] = [];
   for (let r = 0; r < repeats; r++) {
@@ -45,7 +47,7 @@ function run(label: string, model: TrussModel, repeats = 3) {
   }
   console.log(
     `${label.padEnd(22)} members ${String(model.members.length).padStart(6)}  dofs ${String(s.nodeIds.length * 3).padStart(6)}  ` +
-      `first ${ms(first)}  again ${ms(times[0])}  held ${mb(held)}  factor ${String(a.profile).padStart(9)} entries${scipyText}`,
+      `first ${ms(first)}  again ${ms(times[0])}  held ${mb(held)} (${String(Math.round(held / model.members.length)).padStart(4)} B/member)  factor ${String(a.profile).padStart(9)} entries${scipyText}`,
   );
 }
 

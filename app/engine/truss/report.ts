@@ -1,8 +1,8 @@
 // The analysis of a model as plain JSON, with the field names of the result format
 // (truss-format.md): what `npm run analyze` prints.
-import { analyze } from "./analysis";
+import { analyze, internalForces, type Analysis } from "./analysis";
 import type { TrussModel, Units } from "./schema";
-import { AXIS_NAMES, buildStructure } from "./structure";
+import { AXIS_NAMES, buildStructure, type Structure } from "./structure";
 
 export interface AnalysisReport {
   format: "strutwise.analysis";
@@ -81,25 +81,14 @@ export function analyzeModelToJson(model: TrussModel): AnalysisReport {
   };
 }
 
-function caseResidual(s: ReturnType<typeof buildStructure>, a: ReturnType<typeof analyze>, k: number): number {
+function caseResidual(s: Structure, a: Analysis, k: number): number {
   const f = s.loads[k];
-  const res = new Float64Array(f.length);
-  const N = a.forces[k];
-  for (let e = 0; e < N.length; e++) {
-    const i = 3 * s.start[e];
-    const j = 3 * s.end[e];
-    const q = N[e] / a.lengths[e];
-    for (let c = 0; c < 3; c++) {
-      const v = q * (a.coords[j + c] - a.coords[i + c]);
-      res[i + c] -= v;
-      res[j + c] += v;
-    }
-  }
+  const internal = internalForces(s, a.coords, a.lengths, a.forces[k]);
   let fMax = 0;
   let rMax = 0;
   for (let d = 0; d < f.length; d++) {
     fMax = Math.max(fMax, Math.abs(f[d]));
-    if (!s.fixed[d] && s.connected[Math.floor(d / 3)]) rMax = Math.max(rMax, Math.abs(res[d] - f[d]));
+    if (!s.fixed[d] && s.connected[Math.floor(d / 3)]) rMax = Math.max(rMax, Math.abs(internal[d] - f[d]));
   }
   return fMax > 0 ? rMax / fMax : rMax;
 }
