@@ -61,3 +61,19 @@ describe("mechanism detection (zero pivot of K, mode recovered from the factor)"
     expect(a.displacements[0].every(Number.isFinite)).toBe(true);
   });
 });
+
+describe("edge cases of the solve", () => {
+  it("every node restrained: zero displacements, the load goes into the supports", () => {
+    const a = analyze(buildStructure(model(2, [["A", 0, 0, 0, ["x", "y"]], ["B", 3, 0, 0, ["x", "y"]]], [["AB", "A", "B"]], [{ id: "LC1", loads: [{ node: "B", fx: 4 }] }])));
+    expect(a.displacements[0].every((v) => v === 0)).toBe(true);
+    expect(a.reactions[0][3]).toBe(-4);
+    expect(a.equilibriumResidual).toBe(0);
+  });
+  it("an area that is not positive is named, not turned into NaN", () => {
+    const s = buildStructure(model(2, [["A", 0, 0, 0, ["x", "y"]], ["B", 3, 0, 0, ["y"]], ["C", 1, 2]], [["AB", "A", "B"], ["BC", "B", "C"], ["CA", "C", "A"]], [{ id: "LC1", loads: [{ node: "C", fy: -1 }] }]));
+    expect(() => analyze(s, { areas: Float64Array.from([1, Number.NaN, 1]) })).toThrow(/member BC has area NaN/);
+    const moved = s.coords.slice();
+    moved[6] = 3; moved[7] = 0; // C onto B
+    expect(() => analyze(s, { coords: moved })).toThrow(/member BC has zero or invalid length/);
+  });
+});

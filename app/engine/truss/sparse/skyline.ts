@@ -76,6 +76,7 @@ export function choleskyInPlace(m: SkylineMatrix, opts: FactorOptions = {}): Zer
   const relTol = opts.relTol ?? 1e-10;
   const maxZero = opts.maxZeroPivots ?? 1;
   const { n, first, rowStart, data } = m;
+  if (n === 0) return [];
   const groups = rowGroups(m);
   const removed = new Uint8Array(n);
   const zeros: ZeroPivot[] = [];
