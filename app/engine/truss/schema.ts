@@ -19,8 +19,7 @@ const nonNegative = (what: string) => finite(what).min(0, { error: `${what} must
 const id = (what: string) =>
   z
     .string({ error: `${what} must be a text id` })
-    .trim()
-    .min(1, { error: `${what} must not be empty` })
+    .regex(/\S/, { error: `${what} must not be empty` }) // ids are compared exactly, so no trimming
     .max(100, { error: `${what} must be at most 100 characters` });
 
 export const unitsSchema = z.object({
