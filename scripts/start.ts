@@ -174,7 +174,7 @@ async function main() {
       accounts = report.accounts;
       const created = report.projects.filter((p) => p.created).length;
       log(created ? `seeded ${created} demo project(s)` : "demo projects already there: reusing the data");
-      for (const m of report.missing) log(`skipped: ${m}`);
+
     } else log("SEED_DEMO=off: no demo accounts or projects");
     db().$client.close();
 
