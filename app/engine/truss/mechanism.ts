@@ -91,9 +91,10 @@ export function describeMode(s: Structure, mode: Float64Array): MechanismInfo {
       message: `the supports do not hold the structure: it can turn as a rigid body (node ${node} moves ${dir}); add or rearrange supports`,
     };
   }
+  const how = translation ? `can move together ${dir} without straining any member` : `can move without straining any member (node ${node} moves most, ${dir})`;
   return {
-    node, axis, nodes: names, kind: translation ? "rigid-translation" : "local-mechanism",
-    message: `nodes ${listNames(names)} can move without straining any member (node ${node} moves most, ${dir}): the truss is a mechanism there; add a member (bracing) or a support`,
+    node, axis, nodes: names, kind: "local-mechanism",
+    message: `nodes ${listNames(names)} ${how}: the truss is a mechanism there; add a member (bracing) or a support`,
   };
 }
 
