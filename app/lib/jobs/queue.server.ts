@@ -121,6 +121,7 @@ export async function enqueueJob(
       maxAttempts: config().JOB_MAX_ATTEMPTS,
     })
     .returning();
+  clearJobListCache();
   return toJobView(row!, { modelName: model.name });
 }
 
@@ -164,8 +165,38 @@ export function decodeCursor(cursor: string): { at: Date; id: string } | null {
   return m ? { at: new Date(Number(m[1])), id: m[2]! } : null;
 }
 
-/** Newest first; `nextCursor` is null on the last page. Throws a 400 Response for a bad cursor. */
-export async function listJobs(filter: ListJobsFilter = {}, database: Db = defaultDb()): Promise<{ jobs: JobView[]; nextCursor: string | null }> {
+export interface JobPage {
+  jobs: JobView[];
+  nextCursor: string | null;
+}
+
+// Pages poll the list every second or two, often many at once. Identical list queries share
+// one database read for LIST_CACHE_MS: a burst of 50 callers costs one query, and a list is
+// at most that much older than the rows (writes made in this process clear it at once).
+const LIST_CACHE_MS = 250;
+const listCache = new Map<string, { at: number; page: Promise<JobPage>; database: Db }>();
+
+export function clearJobListCache(): void {
+  listCache.clear();
+}
+
+/**
+ * Newest first; `nextCursor` is null on the last page. Throws a 400 Response for a bad cursor.
+ * `fresh` skips the shared short-lived copy (for callers that just wrote).
+ */
+export async function listJobs(filter: ListJobsFilter = {}, database: Db = defaultDb(), opts: { fresh?: boolean } = {}): Promise<JobPage> {
+  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, filter.limit, filter.cursor]);
+  const now = Date.now();
+  const hit = listCache.get(key);
+  if (!opts.fresh && hit && hit.database === database && now - hit.at < LIST_CACHE_MS) return hit.page;
+  const page = readJobPage(filter, database);
+  if (listCache.size > 200) listCache.clear();
+  listCache.set(key, { at: now, page, database });
+  page.catch(() => listCache.delete(key));
+  return page;
+}
+
+async function readJobPage(filter: ListJobsFilter, database: Db): Promise<JobPage> {
   const limit = Math.min(Math.max(1, Math.floor(filter.limit ?? LIST_LIMIT_DEFAULT)), LIST_LIMIT_MAX);
   const where: SQL[] = [];
   if (filter.status) {
@@ -211,6 +242,7 @@ export async function cancelJob(id: string, user: Actor | null, database: Db = d
       .set({ cancelRequested: true })
       .where(and(eq(jobs.id, id), inArray(jobs.status, fromStatuses("cancel") as JobStatus[])));
   }
+  clearJobListCache();
   return (await getJob(id, database))!;
 }
 
