@@ -4,12 +4,20 @@
 // 2. latency of GET /api/jobs over 1,000 stored jobs under 50 concurrent connections
 //    (autocannon on loopback, the real route handler behind node:http, API-key auth included).
 // Runs against its own temp database, S3 fake and mail catcher; prints its own figures.
-import autocannon from "autocannon";
 import fs from "node:fs";
 import http from "node:http";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
 import { startTestServices } from "../tests/support/services";
+
+// autocannon ships no type declarations; this is the part of its API used here
+interface LoadResult {
+  requests: { average: number };
+  latency: { p50: number; p99: number; max: number };
+  non2xx: number;
+  errors: number;
+}
+type LoadTest = (opts: { url: string; connections: number; duration: number; headers: Record<string, string>; workers?: number }) => Promise<LoadResult>;
 
 const JOBS_PER_RUN = Number(process.env.QUEUE_BENCH_JOBS ?? 40);
 const LIST_SECONDS = Number(process.env.QUEUE_BENCH_SECONDS ?? 8);
@@ -27,6 +35,7 @@ async function main() {
     const { createSolvePool } = await import("../workers/pool");
     const { QueueRunner } = await import("../workers/queue-runner");
     const { eq, inArray } = await import("drizzle-orm");
+    const autocannon = ((await import("autocannon" as string)) as { default: LoadTest }).default;
 
     const projectId = randomUUID();
     await db().insert(projects).values({ id: projectId, code: "BENCH-1", name: "Queue benchmark yard" });
@@ -40,7 +49,7 @@ async function main() {
       const pool = createSolvePool({ threads });
       const runner = new QueueRunner({ db: db(), pool, leaseMs: 30_000, timeLimitMs: 600_000, maxOldGenerationMb: 1024, idlePollMs: 20, notify: false, log: () => undefined });
       // warm-up: every thread loads the engine once before the clock starts
-      const warm = [];
+      const warm: string[] = [];
       for (let i = 0; i < threads; i++) warm.push((await enqueueJob({ modelId, user: null })).id);
       runner.start();
       await until(async () => (await db().select({ s: jobs.status }).from(jobs).where(inArray(jobs.id, warm))).every((r) => r.s === "succeeded"));
