@@ -1,24 +1,37 @@
 // Strictly convex QP   min 1/2 s'Bs + g's   s.t.  eq rows: a's = b,  ineq rows: a's <= b,
 // lower <= s <= upper,  solved by the dual active-set method of Goldfarb and Idnani (1983) in
-// range-space form: B enters only through products with H = B^-1 (dense or limited-memory),
-// and the Schur complement S = N'HN of the active normals N is kept as a Cholesky factor that
-// grows by one row per added constraint and loses one by Givens rotations per dropped one.
-// Why dual: it starts from the unconstrained minimizer -Hg, needs no feasible start point, and
-// an infeasible QP is detected (not cycled on) -- the SQP driver then relaxes the linearization.
-// Bounds are handled as such: unit normals touching one entry, checked in O(1) each.
+// range-space form. Why dual: it starts from the unconstrained minimizer, needs no feasible
+// start point, and an infeasible QP is detected rather than cycled on (the SQP driver then
+// relaxes the linearization).
+//
+// Structure exploited:
+//  - B enters only through products with B and with H_F = (B_FF)^-1, the inverse on the
+//    variables not fixed at a bound (hessian.ts ReducedInverse: dense or limited-memory).
+//  - Bounds are handled as such: an active bound fixes its variable (a cheap update of H_F) and
+//    never enters the Schur complement, so the dense work scales with the number of active
+//    general rows k only, not with the (often much larger) number of variables at a bound.
+//  - The Schur complement S = N'H_F N of the active general normals N is a Cholesky factor
+//    that grows by one row per added row, loses one by Givens rotations per dropped row, and
+//    takes a rank-one downdate/update when a bound is fixed/freed: O(k^2) per change.
 // Warm start: Goldfarb-Idnani may add ANY violated constraint next; we pick equalities first,
-// then constraints of the previous active set, then the rest (most violated first within each
-// class). Written from the paper's algorithm; the npm 'quadprog' package (dense, n^3 per
-// solve) was not used.
+// then constraints of the previous active set, then the rest (most violated first in each class).
+// Written from the paper's algorithm; the npm 'quadprog' package (dense, n^3 per solve, bounds
+// as general rows) was not used.
 import { GrowingCholesky } from "./growing-cholesky";
+import type { ReducedInverse } from "./hessian";
 import { type QpRow, rowAxpy, rowDot } from "./rows";
+
+export interface QpHessian {
+  applyB(v: Float64Array, out: Float64Array): void;
+  reduced(): ReducedInverse;
+}
 
 export interface QpInput {
   /** Dimension of s (base, or base + 1 with the elastic variable). */
   dim: number;
   /** Number of true variables; rows carry the elastic coefficient in `extra` at index base. */
   base: number;
-  applyH(v: Float64Array, out: Float64Array): void;
+  hessian: QpHessian;
   g: Float64Array;
   eq: QpRow[];
   eqRhs: Float64Array;
@@ -65,7 +78,9 @@ export function solveQp(q: QpInput): QpOutput {
   const offU = offL + dim;
   const total = offU + dim;
   const maxIt = q.maxIterations ?? 10 * (total + 10);
+  const HF = q.hessian.reduced();
 
+  // general active rows (keys < offL), in factor order
   const active: number[] = [];
   const u: number[] = [];
   const isActive = new Uint8Array(total);
@@ -74,10 +89,12 @@ export function solveQp(q: QpInput): QpOutput {
   if (q.warm) for (let k = 0; k < q.warm.length; k++) if (q.warm[k] >= 0 && q.warm[k] < total) warm[q.warm[k]] = 1;
   const eqSign = new Float64Array(nE).fill(1);
   const chol = new GrowingCholesky();
+  // bounds: fixedSide[j] = -1 at lower, +1 at upper, 0 free; uB their multipliers
+  const fixedSide = new Int8Array(dim);
+  const uB = new Float64Array(dim);
 
   const s = new Float64Array(dim);
-  q.applyH(q.g, s);
-  for (let i = 0; i < dim; i++) s[i] = -s[i];
+  startFromWarmBounds();
   const vEq = new Float64Array(nE);
   const vIn = new Float64Array(nI);
   for (let i = 0; i < nE; i++) vEq[i] = rowDot(eq[i], s, base);
@@ -101,7 +118,6 @@ export function solveQp(q: QpInput): QpOutput {
     else if (key < offU) out[key - offL] -= alpha;
     else out[key - offU] += alpha;
   };
-  // violation of a not-yet-active constraint at the current s, from the cached row products
   const violation = (key: number): number => {
     if (key < nE) return Math.abs(vEq[key] - eqRhs[key]);
     if (key < offL) return vIn[key - nE] - ineqRhs[key - nE];
@@ -109,6 +125,83 @@ export function solveQp(q: QpInput): QpOutput {
     return s[key - offU] - upper[key - offU];
   };
   const tolOf = (key: number): number => 1e-11 * (1 + Math.abs(rhsOf(key)));
+
+  const hn = new Float64Array(dim);
+  const z = new Float64Array(dim);
+  const bz = new Float64Array(dim);
+  const unit = new Float64Array(dim);
+
+  /** w = N' H_F e_j for the active general rows, and (H_F)_jj. */
+  const boundColumn = (j: number): { w: Float64Array; hjj: number } => {
+    unit.fill(0);
+    unit[j] = 1;
+    HF.apply(unit, hn);
+    const w = new Float64Array(active.length);
+    for (let a = 0; a < active.length; a++) w[a] = normalDot(active[a], hn);
+    return { w, hjj: hn[j] };
+  };
+
+  /** S = N'H_F N from scratch (after a failed downdate); rows that became dependent are released. */
+  const refactor = (): void => {
+    chol.clear();
+    const keep: number[] = [];
+    const keepU: number[] = [];
+    const np = new Float64Array(dim);
+    for (let a = 0; a < active.length; a++) {
+      np.fill(0);
+      normalAxpy(active[a], 1, np);
+      HF.apply(np, hn);
+      const w = new Float64Array(keep.length);
+      for (let b = 0; b < keep.length; b++) w[b] = normalDot(keep[b], hn);
+      const y = chol.forward(w);
+      let d2 = normalDot(active[a], hn);
+      for (let b = 0; b < y.length; b++) d2 -= y[b] * y[b];
+      if (d2 > 1e-12 * Math.abs(normalDot(active[a], hn))) {
+        chol.append(y, Math.sqrt(d2));
+        keep.push(active[a]);
+        keepU.push(u[a]);
+      } else isActive[active[a]] = 0;
+    }
+    active.length = 0;
+    active.push(...keep);
+    u.length = 0;
+    u.push(...keepU);
+  };
+
+  /** Fix bound j; w = N'H_F e_j (up to sign) and hjj = (H_F)_jj come from the caller's step. */
+  const fixBound = (j: number, side: number, w: Float64Array, hjj: number): void => {
+    HF.fix(j);
+    fixedSide[j] = side;
+    s[j] = side < 0 ? lower[j] : upper[j];
+    if (active.length > 0) {
+      if (!(hjj > 0)) refactor();
+      else {
+        const v = Float64Array.from(w);
+        for (let a = 0; a < v.length; a++) v[a] /= Math.sqrt(hjj);
+        if (!chol.rankOneDowndate(v)) refactor();
+      }
+    }
+  };
+
+  const freeBound = (j: number): void => {
+    HF.free(j);
+    fixedSide[j] = 0;
+    uB[j] = 0;
+    if (active.length > 0) {
+      const { w, hjj } = boundColumn(j);
+      if (hjj > 0) {
+        for (let a = 0; a < w.length; a++) w[a] /= Math.sqrt(hjj);
+        chol.rankOneUpdate(w);
+      } else refactor();
+    }
+  };
+
+  const dropGeneral = (pos: number): void => {
+    isActive[active[pos]] = 0;
+    active.splice(pos, 1);
+    u.splice(pos, 1);
+    chol.remove(pos);
+  };
 
   const finish = (status: QpOutput["status"], iterations: number): QpOutput => {
     const out: QpOutput = {
@@ -121,27 +214,66 @@ export function solveQp(q: QpInput): QpOutput {
       active: active.slice(),
       iterations,
     };
-    for (let j = 0; j < active.length; j++) {
-      const key = active[j];
-      if (key < nE) out.eq[key] = eqSign[key] * u[j];
-      else if (key < offL) out.ineq[key - nE] = u[j];
-      else if (key < offU) out.lower[key - offL] = u[j];
-      else out.upper[key - offU] = u[j];
+    for (let a = 0; a < active.length; a++) {
+      const key = active[a];
+      if (key < nE) out.eq[key] = eqSign[key] * u[a];
+      else out.ineq[key - nE] = u[a];
+    }
+    // bound multipliers from stationarity (more accurate than the running values)
+    const r = new Float64Array(dim);
+    q.hessian.applyB(s, r);
+    for (let i = 0; i < dim; i++) r[i] += q.g[i];
+    for (let a = 0; a < active.length; a++) normalAxpy(active[a], u[a], r);
+    for (let j = 0; j < dim; j++) {
+      if (fixedSide[j] < 0) {
+        out.lower[j] = Math.max(0, r[j]);
+        out.active.push(offL + j);
+      } else if (fixedSide[j] > 0) {
+        out.upper[j] = Math.max(0, -r[j]);
+        out.active.push(offU + j);
+      }
     }
     return out;
   };
 
-  const drop = (pos: number): void => {
-    isActive[active[pos]] = 0;
-    active.splice(pos, 1);
-    u.splice(pos, 1);
-    chol.remove(pos);
-  };
-
   const np = new Float64Array(dim);
-  const hn = new Float64Array(dim);
-  const z = new Float64Array(dim);
   let iterations = 0;
+
+  /**
+   * Unconstrained minimizer on the free variables with every warm bound fixed at once; bounds
+   * whose multiplier comes out negative are released (all together) and the solve repeated
+   * until none is. The result is a valid dual-feasible start for Goldfarb-Idnani, at the cost
+   * of a few products with H_F instead of one add step per bound.
+   */
+  function startFromWarmBounds(): void {
+    for (let j = 0; j < dim; j++) {
+      if (warm[offL + j] && lower[j] > -Infinity) fixedSide[j] = -1;
+      else if (warm[offU + j] && upper[j] < Infinity) fixedSide[j] = 1;
+      if (fixedSide[j] !== 0) HF.fix(j);
+    }
+    const sB = new Float64Array(dim);
+    const r = new Float64Array(dim);
+    for (let round = 0; ; round++) {
+      for (let j = 0; j < dim; j++) sB[j] = fixedSide[j] < 0 ? lower[j] : fixedSide[j] > 0 ? upper[j] : 0;
+      q.hessian.applyB(sB, r);
+      for (let j = 0; j < dim; j++) r[j] += q.g[j];
+      HF.apply(r, s);
+      for (let j = 0; j < dim; j++) s[j] = fixedSide[j] !== 0 ? sB[j] : -s[j];
+      q.hessian.applyB(s, r);
+      let released = 0;
+      for (let j = 0; j < dim; j++) {
+        if (fixedSide[j] === 0) continue;
+        const mult = fixedSide[j] < 0 ? r[j] + q.g[j] : -(r[j] + q.g[j]);
+        if (mult < 0 || round > 50) {
+          HF.free(j);
+          fixedSide[j] = 0;
+          released++;
+        } else uB[j] = mult;
+      }
+      if (released === 0) return;
+      uB.fill(0);
+    }
+  }
 
   for (;;) {
     // choose the next violated constraint: equalities, then the warm set, then the rest
@@ -149,60 +281,86 @@ export function solveQp(q: QpInput): QpOutput {
     let pClass = 3;
     let pViol = 0;
     const consider = (key: number, cls: number): void => {
-      if (isActive[key] || skipped[key]) return;
       const v = violation(key);
-      if (!(v > tolOf(key))) return;
+      if (!(v > tolOf(key)) || skipped[key]) return;
       if (cls < pClass || (cls === pClass && v > pViol)) {
         p = key;
         pClass = cls;
         pViol = v;
       }
     };
-    for (let i = 0; i < nE; i++) consider(i, 0);
+    for (let i = 0; i < nE; i++) if (!isActive[i]) consider(i, 0);
     if (p < 0) {
-      for (let key = nE; key < offL; key++) consider(key, warm[key] ? 1 : 2);
+      for (let key = nE; key < offL; key++) if (!isActive[key]) consider(key, warm[key] ? 1 : 2);
       for (let j = 0; j < dim; j++) {
+        if (fixedSide[j] !== 0) continue;
         if (lower[j] > -Infinity) consider(offL + j, warm[offL + j] ? 1 : 2);
         if (upper[j] < Infinity) consider(offU + j, warm[offU + j] ? 1 : 2);
       }
     }
     if (p < 0) return finish("optimal", iterations);
     if (p < nE) eqSign[p] = vEq[p] - eqRhs[p] >= 0 ? 1 : -1;
+    const pBound = p >= offL ? (p < offU ? p - offL : p - offU) : -1;
 
     let up = 0;
     for (;;) {
       if (++iterations > maxIt) return finish("iteration-limit", iterations);
       np.fill(0);
       normalAxpy(p, 1, np);
-      q.applyH(np, hn);
+      HF.apply(np, hn);
       const k = active.length;
       const w = new Float64Array(k);
-      for (let j = 0; j < k; j++) w[j] = normalDot(active[j], hn);
+      for (let a = 0; a < k; a++) w[a] = normalDot(active[a], hn);
       const y = chol.forward(w);
       const r = chol.backward(y);
       const tmp = Float64Array.from(np);
-      for (let j = 0; j < k; j++) normalAxpy(active[j], -r[j], tmp);
-      q.applyH(tmp, z);
+      for (let a = 0; a < k; a++) normalAxpy(active[a], -r[a], tmp);
+      HF.apply(tmp, z);
       const nz = normalDot(p, z);
       const nHn = normalDot(p, hn);
       const viol = normalDot(p, s) - rhsOf(p);
+      // dual direction of the fixed bounds: r_j = side_j * (tmp - B z)_j
+      q.hessian.applyB(z, bz);
 
       let t1 = Infinity;
-      let l = -1;
-      for (let j = 0; j < k; j++) {
-        if (active[j] < nE) continue;
-        if (r[j] > 1e-14 * (1 + Math.abs(u[j]))) {
-          const t = u[j] / r[j];
+      let lGen = -1;
+      let lBound = -1;
+      for (let a = 0; a < k; a++) {
+        if (active[a] < nE) continue;
+        if (r[a] > 1e-14 * (1 + Math.abs(u[a]))) {
+          const t = u[a] / r[a];
           if (t < t1) {
             t1 = t;
-            l = j;
+            lGen = a;
           }
         }
       }
+      const rB = (j: number) => fixedSide[j] * (tmp[j] - bz[j]);
+      for (let j = 0; j < dim; j++) {
+        if (fixedSide[j] === 0) continue;
+        const rj = rB(j);
+        if (rj > 1e-14 * (1 + uB[j])) {
+          const t = uB[j] / rj;
+          if (t < t1) {
+            t1 = t;
+            lGen = -1;
+            lBound = j;
+          }
+        }
+      }
+      const dropBlocking = () => {
+        if (lBound >= 0) freeBound(lBound);
+        else dropGeneral(lGen);
+      };
+      const dualStep = (t: number) => {
+        for (let a = 0; a < k; a++) u[a] -= t * r[a];
+        for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) uB[j] = Math.max(0, uB[j] - t * rB(j));
+        up += t;
+      };
 
       const dependent = !(nz > 1e-12 * nHn) || !(nz > 0);
       if (dependent) {
-        if (l < 0) {
+        if (t1 === Infinity) {
           // the new normal is a combination of active ones: consistent (ignore) or infeasible
           if (viol <= 1e-8 * (1 + Math.abs(rhsOf(p)))) {
             skipped[p] = 1;
@@ -210,9 +368,9 @@ export function solveQp(q: QpInput): QpOutput {
           }
           return finish("infeasible", iterations);
         }
-        for (let j = 0; j < k; j++) u[j] -= t1 * r[j];
-        up += t1;
-        drop(l);
+        dualStep(t1);
+        if (lGen >= 0) u[lGen] = 0;
+        dropBlocking();
         continue;
       }
 
@@ -221,17 +379,21 @@ export function solveQp(q: QpInput): QpOutput {
       for (let i = 0; i < dim; i++) s[i] -= t * z[i];
       for (let i = 0; i < nE; i++) vEq[i] -= t * rowDot(eq[i], z, base);
       for (let i = 0; i < nI; i++) vIn[i] -= t * rowDot(ineq[i], z, base);
-      for (let j = 0; j < k; j++) u[j] -= t * r[j];
-      up += t;
+      dualStep(t);
       if (t2 <= t1) {
-        chol.append(y, Math.sqrt(nz));
-        active.push(p);
-        u.push(up);
-        isActive[p] = 1;
+        if (pBound >= 0) {
+          fixBound(pBound, p < offU ? -1 : 1, w, nHn);
+          uB[pBound] = up;
+        } else {
+          chol.append(y, Math.sqrt(nz));
+          active.push(p);
+          u.push(up);
+          isActive[p] = 1;
+        }
         break;
       }
-      u[l] = 0;
-      drop(l);
+      if (lGen >= 0) u[lGen] = 0;
+      dropBlocking();
     }
   }
 }

@@ -73,6 +73,49 @@ export class GrowingCholesky {
     }
   }
 
+  /** L L' + w w' in O(k^2) (rotations; always succeeds). w is overwritten. */
+  rankOneUpdate(w: Float64Array): void {
+    const rows = this.rows;
+    const k = rows.length;
+    for (let c = 0; c < k; c++) {
+      const lcc = rows[c][c];
+      const r = Math.hypot(lcc, w[c]);
+      const cs = r / lcc;
+      const sn = w[c] / lcc;
+      rows[c][c] = r;
+      for (let i = c + 1; i < k; i++) {
+        const lic = (rows[i][c] + sn * w[i]) / cs;
+        rows[i][c] = lic;
+        w[i] = cs * w[i] - sn * lic;
+      }
+    }
+  }
+
+  /** L L' - w w' in O(k^2); false (factor then unusable) if the result is not positive definite. */
+  rankOneDowndate(w: Float64Array): boolean {
+    const rows = this.rows;
+    const k = rows.length;
+    for (let c = 0; c < k; c++) {
+      const lcc = rows[c][c];
+      const r2 = lcc * lcc - w[c] * w[c];
+      if (!(r2 > 1e-14 * lcc * lcc)) return false;
+      const r = Math.sqrt(r2);
+      const cs = r / lcc;
+      const sn = w[c] / lcc;
+      rows[c][c] = r;
+      for (let i = c + 1; i < k; i++) {
+        const lic = (rows[i][c] - sn * w[i]) / cs;
+        rows[i][c] = lic;
+        w[i] = cs * w[i] - sn * lic;
+      }
+    }
+    return true;
+  }
+
+  clear(): void {
+    this.rows = [];
+  }
+
   /** L L' reconstructed (for tests). */
   toDense(): number[][] {
     const k = this.rows.length;

@@ -2,12 +2,24 @@
 // products with B and with H = B^-1 (the dual QP works with H only), and a damped update.
 export interface HessianApprox {
   readonly n: number;
+  /** The inverse of B restricted to the free variables, for the QP's bound handling. */
+  reduced(): ReducedInverse;
   applyB(v: Float64Array, out: Float64Array): void;
   applyH(v: Float64Array, out: Float64Array): void;
   /** Damped BFGS update with step s and Lagrangian-gradient change y. */
   update(s: Float64Array, y: Float64Array): "updated" | "damped" | "skipped";
   /** Back to a multiple of the identity (after a failed line search). */
   reset(): void;
+}
+
+/**
+ * H_F = (B_FF)^-1 padded with zeros: the inverse Hessian on the variables not fixed at a bound.
+ * fix/free change the free set by one variable at O(n^2) (dense) or O(m^2 n) (limited memory).
+ */
+export interface ReducedInverse {
+  apply(v: Float64Array, out: Float64Array): void;
+  fix(j: number): void;
+  free(j: number): void;
 }
 
 export function dot(a: Float64Array, b: Float64Array, n = a.length): number {

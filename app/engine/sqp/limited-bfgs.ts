@@ -3,7 +3,8 @@
 // (Shanno-Phua). H*v by the two-loop recursion, B*v by the unrolled product form
 // B_{i+1} = B_i - b_i b_i'/(s_i'b_i) + r_i r_i'/(s_i'r_i), b_i = B_i s_i, recomputed in O(m^2 n)
 // after each update. Both are exact for the same pairs, so H is exactly B^-1. Memory O(m n).
-import { type HessianApprox, dot, powellDamped } from "./hessian";
+import { type HessianApprox, type ReducedInverse, dot, powellDamped } from "./hessian";
+import { SmallLu } from "./small-lu";
 
 export class LimitedBfgs implements HessianApprox {
   private S: Float64Array[] = [];
@@ -22,6 +23,13 @@ export class LimitedBfgs implements HessianApprox {
     this.sr = [];
     this.sb = [];
     this.delta = 1;
+  }
+
+  /** B = delta*I + U diag(1/dinv) U' with U = [r_1..r_m, b_1..b_m], dinv = [s'r..., -s'b...]. */
+  reduced(): ReducedInverse {
+    const U = [...this.R, ...this.Bs];
+    const dinv = [...this.sr, ...this.sb.map((v) => -v)];
+    return new LimitedReducedInverse(this.n, this.delta, U, Float64Array.from(dinv));
   }
 
   get pairs(): number {
@@ -97,5 +105,83 @@ export class LimitedBfgs implements HessianApprox {
       this.sb.push(dot(this.S[p], b, n));
     }
     return d.damped ? "damped" : "updated";
+  }
+}
+
+/**
+ * Woodbury form of the limited-memory inverse on the free variables:
+ * (B_FF)^-1 = I/delta - U_F C^-1 U_F' / delta^2,  C = diag(dinv) + U_F'U_F / delta.
+ * Fixing or freeing variable j changes U_F'U_F by the outer product of row j of U: O(m^2),
+ * plus an O(m^3) refactorization of the 2m x 2m matrix C.
+ */
+class LimitedReducedInverse implements ReducedInverse {
+  private readonly G: Float64Array;
+  private readonly q: number;
+  private lu: SmallLu | null = null;
+  private readonly fixed: Uint8Array;
+
+  constructor(private readonly n: number, private readonly delta: number, private readonly U: Float64Array[], private readonly dinv: Float64Array) {
+    const q = (this.q = U.length);
+    this.fixed = new Uint8Array(n);
+    this.G = new Float64Array(q * q);
+    for (let a = 0; a < q; a++)
+      for (let b = 0; b <= a; b++) {
+        const v = dot(U[a], U[b], n);
+        this.G[a * q + b] = v;
+        this.G[b * q + a] = v;
+      }
+    this.factor();
+  }
+
+  private factor(): void {
+    const { q, G, delta, dinv } = this;
+    if (q === 0) return;
+    const C = new Float64Array(q * q);
+    for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) C[a * q + b] = G[a * q + b] / delta + (a === b ? dinv[a] : 0);
+    const lu = new SmallLu(C, q);
+    this.lu = lu.singular ? null : lu;
+  }
+
+  private outer(j: number, sign: number): void {
+    const { q, G, U } = this;
+    for (let a = 0; a < q; a++) {
+      const ua = U[a][j] * sign;
+      for (let b = 0; b < q; b++) G[a * q + b] += ua * U[b][j];
+    }
+  }
+
+  fix(j: number): void {
+    if (this.fixed[j]) return;
+    this.fixed[j] = 1;
+    this.outer(j, -1);
+    this.factor();
+  }
+
+  free(j: number): void {
+    if (!this.fixed[j]) return;
+    this.fixed[j] = 0;
+    this.outer(j, 1);
+    this.factor();
+  }
+
+  apply(v: Float64Array, out: Float64Array): void {
+    const { n, q, U, delta, fixed } = this;
+    for (let i = 0; i < n; i++) out[i] = fixed[i] ? 0 : v[i] / delta;
+    if (q === 0 || !this.lu) return;
+    const t = new Float64Array(q);
+    for (let a = 0; a < q; a++) {
+      const u = U[a];
+      let s = 0;
+      for (let i = 0; i < n; i++) if (!fixed[i]) s += u[i] * v[i];
+      t[a] = s;
+    }
+    const y = this.lu.solve(t);
+    const d2 = delta * delta;
+    for (let a = 0; a < q; a++) {
+      const u = U[a];
+      const c = y[a] / d2;
+      if (c === 0) continue;
+      for (let i = 0; i < n; i++) if (!fixed[i]) out[i] -= c * u[i];
+    }
   }
 }

@@ -1,6 +1,6 @@
 // One sentence for the engineer and one hint of what to try, per way the solver can end.
 export type StopReason =
-  | { kind: "optimal"; tolerance: number; maxViolation: number; iterations: number }
+  | { kind: "optimal"; tolerance: number; maxViolation: number; iterations: number; stationarity?: number }
   | { kind: "iteration-limit"; iterations: number; feasible: boolean }
   | { kind: "time-limit"; iterations: number; limitMs: number; feasible: boolean }
   | { kind: "no-progress"; iterations: number; feasible: boolean }
@@ -8,7 +8,7 @@ export type StopReason =
   | { kind: "failed"; what: string };
 
 function fmt(v: number): string {
-  return v === 0 ? "0" : v.toPrecision(3);
+  return v === 0 ? "0" : Math.abs(v) < 1e-3 ? v.toExponential(2) : v.toPrecision(3);
 }
 
 export function describeStop(r: StopReason): { message: string; hint: string } {
@@ -16,6 +16,11 @@ export function describeStop(r: StopReason): { message: string; hint: string } {
     feasible ? "the best feasible point found is returned" : "no point meeting every constraint was found yet; the least-violating point is returned";
   switch (r.kind) {
     case "optimal":
+      if (r.stationarity !== undefined)
+        return {
+          message: `Converged in ${r.iterations} iterations to the precision rounding allows: every constraint is met (largest violation ${fmt(r.maxViolation)}) and the optimality conditions hold to ${fmt(r.stationarity)}; no further step can measurably improve the objective.`,
+          hint: "Nothing to do; the last digits of the objective are at the level of its rounding.",
+        };
       return {
         message: `Converged in ${r.iterations} iterations: the optimality conditions hold to ${fmt(r.tolerance)} and every constraint is met (largest violation ${fmt(r.maxViolation)}).`,
         hint: "Nothing to do; lower the tolerance if more digits are needed.",

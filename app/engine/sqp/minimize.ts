@@ -30,8 +30,8 @@
 // value from the user's functions (or a throw) -> "failed" naming the function and the point.
 // Every iterate is inside the bounds (x0 is projected, trial points are clipped).
 import { DenseBfgs } from "./dense-bfgs";
-import { type QpInput, type QpOutput, qpKey, solveQp } from "./dual-qp";
-import type { HessianApprox } from "./hessian";
+import { type QpHessian, type QpInput, type QpOutput, qpKey, solveQp } from "./dual-qp";
+import type { HessianApprox, ReducedInverse } from "./hessian";
 import { dot } from "./hessian";
 import { leastSquaresMultipliers } from "./least-squares-multipliers";
 import { LimitedBfgs } from "./limited-bfgs";
@@ -204,6 +204,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   let warmUpper = new Uint8Array(n);
 
   // ---------- KKT measure ----------
+  let kktParts = { stat: Infinity, compl: Infinity, feas: Infinity };
   const kktAt = (p: ScaledPoint, d: ScaledDerivatives, m: Multipliers, xs: Float64Array): number => {
     const r = Float64Array.from(d.g);
     for (let i = 0; i < nEq; i++) if (m.eq[i] !== 0) axpyRow(d.je[i], m.eq[i], r);
@@ -219,8 +220,17 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       if (m.upper[j] > 0) compl = Math.max(compl, m.upper[j] * (hi[j] - xs[j]));
     }
     for (let i = 0; i < nIneq; i++) if (m.ineq[i] !== 0) compl = Math.max(compl, Math.abs(m.ineq[i] * p.ci[i]));
-    return Math.max(stat, compl, maxViolation(p.ce, p.ci));
+    const feas = maxViolation(p.ce, p.ci);
+    kktParts = { stat, compl, feas };
+    return Math.max(stat, compl, feas);
   };
+  /**
+   * Converged to the precision rounding allows: feasible and complementary to tol, stationary
+   * to sqrt(tol), and the step's predicted merit decrease below the rounding noise of the merit
+   * value (no line search could then verify progress).
+   */
+  const atNoiseFloor = (D: number, phi0: number): boolean =>
+    kktParts.feas <= tol && kktParts.compl <= tol && kktParts.stat <= Math.sqrt(tol) && -D <= 1e-13 * (1 + Math.abs(phi0));
 
   // least-squares multipliers at the start, for the rows active there
   const lsMult = emptyResult(n, nEq, nIneq);
@@ -304,15 +314,8 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       if (warmLower[j]) warm.push(qpKey("lower", j, nEq, rowsIn.length, dim));
       if (warmUpper[j]) warm.push(qpKey("upper", j, nEq, rowsIn.length, dim));
     }
-    const tmp = new Float64Array(n);
-    const applyH = elastic
-      ? (v: Float64Array, out: Float64Array) => {
-          tmp.set(v.subarray(0, n));
-          B.applyH(tmp, out);
-          out[n] = v[n] / ELASTIC_WEIGHT;
-        }
-      : (v: Float64Array, out: Float64Array) => B.applyH(v, out);
-    return { dim, base: n, applyH, g, eq, eqRhs, ineq, ineqRhs, lower, upper, warm };
+    const hessian: QpHessian = elastic ? elasticHessian(B, n) : B;
+    return { dim, base: n, hessian, g, eq, eqRhs, ineq, ineqRhs, lower, upper, warm };
   };
 
   const toMultipliers = (qp: QpOutput, rowsIn: Int32Array): Multipliers => {
@@ -378,6 +381,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       rho = Math.max(rhoReq, 0.5 * (rho + rhoReq), 1e-8);
       const D = gs + rho * (linViol - viol0);
       stepInfo = { D, phi0: pt.f + rho * viol0, viol0 };
+      if (!elastic && atNoiseFloor(D, stepInfo.phi0)) break;
 
       // full-step trial (also used to widen the screen)
       const xt = Float64Array.from(x);
@@ -419,6 +423,8 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     record(iteration, lastStep, qp.active.length, elastic);
 
     if (kkt <= tol) return build(snap, { kind: "optimal", tolerance: tol, maxViolation: maxViolation(pt.eqRaw, pt.ineqRaw), iterations: iteration }, iteration);
+    if (stepInfo && !elastic && atNoiseFloor(stepInfo.D, stepInfo.phi0))
+      return build(snap, { kind: "optimal", tolerance: tol, maxViolation: maxViolation(pt.eqRaw, pt.ineqRaw), iterations: iteration, stationarity: kktParts.stat }, iteration);
     if (iteration >= maxIter) return build(best, { kind: "iteration-limit", iterations: iteration, feasible: best.viol <= tol }, iteration);
     if (timeUp()) return build(best, { kind: "time-limit", iterations: iteration, limitMs: options.timeLimitMs ?? 0, feasible: best.viol <= tol }, iteration);
 
@@ -454,7 +460,11 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       while (alpha > 1e-10) {
         if (trial) {
           const phi = trial.f + rho * l1Violation(trial);
-          if (phi <= info.phi0 + ARMIJO * alpha * info.D) {
+          // near the solution the predicted decrease can fall below the rounding noise of phi
+          // itself; then a step that does not visibly increase phi is taken as is
+          const noise = 1e-14 * (1 + Math.abs(info.phi0));
+          const belowNoise = -info.D <= 10 * noise && phi <= info.phi0 + noise;
+          if (phi <= info.phi0 + ARMIJO * alpha * info.D || belowNoise) {
             accepted = { x: xt, pt: trial, alpha };
             break;
           }
@@ -562,6 +572,38 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     const phi = ev.value.f + rho * l1Violation(ev.value);
     return phi <= info.phi0 + ARMIJO * info.D ? { x: xt, pt: ev.value, alpha: 1 } : null;
   }
+}
+
+/** B extended by the elastic variable at index n, with curvature ELASTIC_WEIGHT. */
+function elasticHessian(B: HessianApprox, n: number): QpHessian {
+  return {
+    applyB(v, out) {
+      const o = new Float64Array(n);
+      B.applyB(v.subarray(0, n), o);
+      out.set(o);
+      out[n] = ELASTIC_WEIGHT * v[n];
+    },
+    reduced(): ReducedInverse {
+      const inner = B.reduced();
+      let fixedXi = false;
+      const o = new Float64Array(n);
+      return {
+        apply(v, out) {
+          inner.apply(v.subarray(0, n), o);
+          out.set(o);
+          out[n] = fixedXi ? 0 : v[n] / ELASTIC_WEIGHT;
+        },
+        fix(j) {
+          if (j === n) fixedXi = true;
+          else inner.fix(j);
+        },
+        free(j) {
+          if (j === n) fixedXi = false;
+          else inner.free(j);
+        },
+      };
+    },
+  };
 }
 
 function axpyRow(r: QpRow, alpha: number, out: Float64Array): void {
