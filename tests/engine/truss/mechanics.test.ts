@@ -1,6 +1,6 @@
 // Laws every linear truss analysis must obey, checked on an indeterminate 3D lattice.
 import { describe, expect, it } from "vitest";
-import { analyze, buildStructure, internalForces, memberForces, memberLengths } from "~/engine/truss";
+import { analyze, assembleStiffness, buildStructure, csrGet, csrMultiply, freeDofs, internalForces, memberForces, memberLengths } from "~/engine/truss";
 import { latticeModel } from "./models";
 
 const s = buildStructure(latticeModel(3, 2, 3));
@@ -67,5 +67,17 @@ describe("mechanics checks on a 3 x 2 x 3 lattice", () => {
   it("linearity: doubling every area halves every displacement", () => {
     const b = analyze(s, { areas: s.areas.map((v) => 2 * v) });
     for (let d = 0; d < nNodes * 3; d++) expect(Math.abs(2 * b.displacements[0][d] - a.displacements[0][d])).toBeLessThan(1e-12 + 1e-10 * Math.abs(a.displacements[0][d]));
+  });
+
+  it("assembleStiffness (CSR on the free dofs) is symmetric and K u = f on the free dofs", () => {
+    const K = assembleStiffness(s);
+    const free = freeDofs(s);
+    expect(K.rows).toBe(free.length);
+    for (let r = 0; r < K.rows; r += 7) for (let p = K.rowPtr[r]; p < K.rowPtr[r + 1]; p++) expect(csrGet(K, K.colIdx[p], r)).toBe(K.values[p]);
+    for (let k = 0; k < s.loads.length; k++) {
+      const Ku = csrMultiply(K, Array.from(free, (d) => a.displacements[k][d]));
+      const fMax = Math.max(...s.loads[k].map(Math.abs));
+      free.forEach((d, r) => expect(Math.abs(Ku[r] - s.loads[k][d])).toBeLessThan(1e-10 * fMax));
+    }
   });
 });
