@@ -205,7 +205,8 @@ export class QueueRunner {
       const resultKey = jobResultKey(job.id);
       // at-least-once: an earlier attempt may have stored the result and died before
       // recording it; then that result is taken as it is, not computed and stored again
-      const earlier = await getText(resultKey);
+      // (only a job claimed before can have one: attempts count every claim)
+      const earlier = lease.attempt > 1 ? await getText(resultKey) : null;
       let summary: JobSummary;
       let message: string;
       if (earlier !== null) {
