@@ -19,7 +19,7 @@ export interface SeedAccount {
 // Which seeded project a demo file belongs to, by words in its file name; files that match
 // none are spread over the projects in code order.
 const PROJECT_HINTS: { words: RegExp; code: string }[] = [
-  { words: /roof|hall|market|warren|shed/i, code: "TK-2041" },
+  { words: /roof|hall|market|warren|shed|canopy/i, code: "TK-2041" },
   { words: /bridge|footbridge|deck|millrace/i, code: "TK-2057" },
   { words: /mast|tower|lattice|relay|3d/i, code: "TK-2063" },
 ];
