@@ -129,6 +129,16 @@ async function main() {
     });
   }
 
+  // If whatever started us dies without a signal (kill -9 of tsx or npm), we are re-parented:
+  // take the children down with us rather than leave them running unattended.
+  const parent = process.ppid;
+  setInterval(() => {
+    if (process.ppid !== parent && !stopping) {
+      console.error("[start] the parent process went away; stopping everything");
+      void stopEverything(1);
+    }
+  }, 1000).unref();
+
   try {
     if (!dev && skipBuild && !fs.existsSync(path.join(root, "build/server/index.js"))) {
       throw new Error("--no-build was given but there is no build/ yet: run `npm run build` first");
