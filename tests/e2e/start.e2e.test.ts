@@ -55,8 +55,9 @@ function alive(pid: number): boolean {
   }
 }
 
+// exactly the user's command (npm, then the script's `exec tsx`), on the build made beforehand
 async function startDesk(): Promise<Child> {
-  const child = spawnChild("start", path.join(root, "node_modules/.bin/tsx"), ["scripts/start.ts", "--no-build"], {
+  const child = spawnChild("start", "npm", ["start", "--silent", "--", "--no-build"], {
     env,
     cwd: root,
     echo: Boolean(process.env.E2E_VERBOSE),
