@@ -94,11 +94,8 @@ export function solveQp(q: QpInput): QpOutput {
   const uB = new Float64Array(dim);
 
   const s = new Float64Array(dim);
-  startFromWarmBounds();
   const vEq = new Float64Array(nE);
   const vIn = new Float64Array(nI);
-  for (let i = 0; i < nE; i++) vEq[i] = rowDot(eq[i], s, base);
-  for (let i = 0; i < nI; i++) vIn[i] = rowDot(ineq[i], s, base);
 
   const rhsOf = (key: number): number => {
     if (key < nE) return eqSign[key] * eqRhs[key];
@@ -238,35 +235,65 @@ export function solveQp(q: QpInput): QpOutput {
 
   const np = new Float64Array(dim);
   let iterations = 0;
+  startFromWarmSet();
+  for (let i = 0; i < nE; i++) vEq[i] = rowDot(eq[i], s, base);
+  for (let i = 0; i < nI; i++) vIn[i] = rowDot(ineq[i], s, base);
 
   /**
-   * Unconstrained minimizer on the free variables with every warm bound fixed at once; bounds
-   * whose multiplier comes out negative are released (all together) and the solve repeated
-   * until none is. The result is a valid dual-feasible start for Goldfarb-Idnani, at the cost
-   * of a few products with H_F instead of one add step per bound.
+   * Warm start in bulk: every equality row and warm inequality row active and every warm bound
+   * fixed at once, S = N'H_F N factored once, the equality-constrained QP solved; then rows and
+   * bounds whose multipliers come out negative are released (all together) and the solve
+   * repeated until none is. The result is a valid dual-feasible start for Goldfarb-Idnani at
+   * about a third of the cost of adding the same constraints one by one.
    */
-  function startFromWarmBounds(): void {
+  function startFromWarmSet(): void {
     for (let j = 0; j < dim; j++) {
       if (warm[offL + j] && lower[j] > -Infinity) fixedSide[j] = -1;
       else if (warm[offU + j] && upper[j] < Infinity) fixedSide[j] = 1;
       if (fixedSide[j] !== 0) HF.fix(j);
     }
+    for (let i = 0; i < nE; i++) active.push(i);
+    for (let key = nE; key < offL; key++) if (warm[key]) active.push(key);
+    for (const key of active) isActive[key] = 1;
+    u.length = active.length;
+    u.fill(0);
+    refactor();
     const sB = new Float64Array(dim);
     const r = new Float64Array(dim);
+    const h = new Float64Array(dim);
     for (let round = 0; ; round++) {
       for (let j = 0; j < dim; j++) sB[j] = fixedSide[j] < 0 ? lower[j] : fixedSide[j] > 0 ? upper[j] : 0;
+      // g~ = g + B sB; solve S u = -N'H_F g~ - b + N'sB; s = sB - H_F (g~ + N u)
       q.hessian.applyB(sB, r);
       for (let j = 0; j < dim; j++) r[j] += q.g[j];
+      HF.apply(r, h);
+      const k = active.length;
+      const rhs = new Float64Array(k);
+      for (let a = 0; a < k; a++) rhs[a] = -normalDot(active[a], h) - rhsOf(active[a]) + normalDot(active[a], sB);
+      const sol = k > 0 ? chol.solve(rhs) : rhs;
+      for (let a = 0; a < k; a++) {
+        u[a] = sol[a];
+        normalAxpy(active[a], sol[a], r);
+      }
       HF.apply(r, s);
       for (let j = 0; j < dim; j++) s[j] = fixedSide[j] !== 0 ? sB[j] : -s[j];
+      // multipliers of the bounds from stationarity: r = B s + g + N u
       q.hessian.applyB(s, r);
+      for (let j = 0; j < dim; j++) r[j] += q.g[j];
+      for (let a = 0; a < k; a++) normalAxpy(active[a], u[a], r);
+      const giveUp = round >= 30;
       let released = 0;
+      for (let a = k - 1; a >= 0; a--) {
+        if (active[a] >= nE && (u[a] < 0 || giveUp)) {
+          dropGeneral(a);
+          released++;
+        }
+      }
       for (let j = 0; j < dim; j++) {
         if (fixedSide[j] === 0) continue;
-        const mult = fixedSide[j] < 0 ? r[j] + q.g[j] : -(r[j] + q.g[j]);
-        if (mult < 0 || round > 50) {
-          HF.free(j);
-          fixedSide[j] = 0;
+        const mult = fixedSide[j] < 0 ? r[j] : -r[j];
+        if (mult < 0 || giveUp) {
+          freeBound(j);
           released++;
         } else uB[j] = mult;
       }
