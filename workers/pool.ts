@@ -21,7 +21,7 @@ export function createSolvePool(opts: SolvePoolOptions = {}): Piscina {
   // it is added only when the process was not started with it.
   const hasTsx = process.execArgv.some((a, i, all) => a.includes("tsx") && (i === 0 || all[i - 1] === "--import" || a.startsWith("--import")));
   const execArgv = filename.endsWith(".ts") && !hasTsx ? [...process.execArgv, "--import", "tsx"] : undefined;
-  return new Piscina({
+  const pool = new Piscina({
     filename,
     minThreads: threads,
     maxThreads: threads,
@@ -31,4 +31,8 @@ export function createSolvePool(opts: SolvePoolOptions = {}): Piscina {
     resourceLimits: { maxOldGenerationSizeMb: opts.maxOldGenerationMb ?? c.WORKER_MAX_OLD_GENERATION_MB },
     ...(execArgv ? { execArgv } : {}),
   });
+  // A thread that dies outside a task (e.g. out of memory while a fresh one starts) is
+  // reported here; unheard, the 'error' event would end the whole worker process.
+  pool.on("error", (e: Error) => console.error(`[pool] a solver thread stopped: ${e.message}`));
+  return pool;
 }

@@ -20,16 +20,17 @@ beforeAll(async () => {
 });
 afterAll(async () => services?.stop());
 
-async function runner(opts: { timeLimitMs?: number; threads?: number } = {}) {
+async function runner(opts: { timeLimitMs?: number; threads?: number; maxOldGenerationMb?: number } = {}) {
   const { createSolvePool } = await import("../../workers/pool");
   const { QueueRunner } = await import("../../workers/queue-runner");
-  const pool = createSolvePool({ threads: opts.threads ?? 1, maxOldGenerationMb: 512 });
+  const heapMb = opts.maxOldGenerationMb ?? 512;
+  const pool = createSolvePool({ threads: opts.threads ?? 1, maxOldGenerationMb: heapMb });
   const r = new QueueRunner({
     db: database,
     pool,
     leaseMs: 5000,
     timeLimitMs: opts.timeLimitMs ?? 60_000,
-    maxOldGenerationMb: 512,
+    maxOldGenerationMb: heapMb,
     idlePollMs: 50,
     log: () => undefined,
   });
@@ -137,6 +138,29 @@ describe("queue runner", () => {
       });
       expect(failed.error).toMatch(/^Stopped at the time limit of 4 s per job \(JOB_TIME_LIMIT_MS\)/);
       expect(Date.parse(failed.finishedAt!) - Date.parse(failed.startedAt!)).toBeLessThan(5500);
+      await waitFor("the next job", async () => (await job(b.id)).status === "succeeded");
+    } finally {
+      await w.close();
+    }
+  });
+
+  it("ends a job that outgrows the thread's memory limit with a clear message, and the worker goes on", async () => {
+    const { enqueueJob } = await import("~/lib/jobs/queue.server");
+    const big = await uploadModel(projectId, gridModel(40, 6, "Queue probe: memory hog"), engineer.id);
+    const quick = await uploadModel(projectId, twoBarModel("Queue probe: after the memory hog"), engineer.id);
+    // ~1,000 members in the simultaneous formulation cannot fit in 16 MB of heap (the two-bar frame does)
+    const a = await enqueueJob({ modelId: big.id, options: { formulation: "simultaneous" }, user: engineer }, database);
+    const b = await enqueueJob({ modelId: quick.id, user: engineer }, database);
+    const w = await runner({ maxOldGenerationMb: 16 });
+    w.r.start();
+    try {
+      const failed = await waitFor("the memory limit", async () => {
+        const j = await job(a.id);
+        return j.status === "failed" ? j : null;
+      });
+      expect(failed.error).toBe(
+        "Stopped: the run needed more than the worker memory limit of 16 MB (WORKER_MAX_OLD_GENERATION_MB). Try the nested formulation or a smaller model.",
+      );
       await waitFor("the next job", async () => (await job(b.id)).status === "succeeded");
     } finally {
       await w.close();
