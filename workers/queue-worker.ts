@@ -53,6 +53,9 @@ async function main() {
     console.log(`[worker ${runner.workerId}] stopped (${JSON.stringify(runner.stats)})`);
     process.exit(0);
   };
+  // the runner settles each job's own errors; anything that still slips out is logged, and
+  // the worker keeps serving (its jobs' leases protect them either way)
+  process.on("unhandledRejection", (e) => console.error(`[worker ${runner.workerId}] unexpected: ${e instanceof Error ? e.message : String(e)}`));
   process.on("SIGTERM", () => void shutdown("SIGTERM"));
   process.on("SIGINT", () => void shutdown("SIGINT"));
 }
