@@ -6,6 +6,7 @@
 // Runs against its own temp database, S3 fake and mail catcher; prints its own figures.
 import fs from "node:fs";
 import http from "node:http";
+import os from "node:os";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
 import { startTestServices } from "../tests/support/services";
@@ -44,7 +45,9 @@ async function main() {
     if (!stored.ok) throw new Error(`the 10-bar model was refused: ${stored.error}`);
     const modelId = stored.model.id;
 
-    console.log(`queue throughput: ${JOBS_PER_RUN} ten-bar jobs per run (claim, S3 read, solve, S3 write, DB update)`);
+    // figures from a shared machine mean little without its load beside them
+    const load = () => `load average ${os.loadavg()[0]!.toFixed(1)} on ${os.availableParallelism()} cores`;
+    console.log(`queue throughput: ${JOBS_PER_RUN} ten-bar jobs per run (claim, S3 read, solve, S3 write, DB update); ${load()}`);
     for (const threads of [1, 2]) {
       const pool = createSolvePool({ threads });
       const runner = new QueueRunner({ db: db(), pool, leaseMs: 30_000, timeLimitMs: 600_000, maxOldGenerationMb: 1024, idlePollMs: 20, notify: false, log: () => undefined });
@@ -104,7 +107,7 @@ async function main() {
     });
     await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
     const port = (server.address() as { port: number }).port;
-    console.log(`GET /api/jobs over ${total} jobs, 50 connections, ${LIST_SECONDS} s each (goal: p99 < 50 ms)`);
+    console.log(`GET /api/jobs over ${total} jobs, 50 connections, ${LIST_SECONDS} s each (goal: p99 < 50 ms); ${load()}`);
     for (const q of ["", "?limit=200", `?projectId=${projectId}&status=succeeded`]) {
       // a short unmeasured run first, so the figures are of warm (JIT-compiled) code
       await autocannon({ url: `http://127.0.0.1:${port}/api/jobs${q}`, connections: 10, duration: 1, headers: { authorization: `Bearer ${key}` } });
