@@ -199,10 +199,10 @@ async function main() {
       const url = `${app.baseUrl}/jobs/${seeded.jobId}`;
       await timeToInteractive(page, url); // warm the server and the browser cache once
       const runs = [];
-      for (let i = 0; i < 3; i++) runs.push(await timeToInteractive(page, url));
+      for (let i = 0; i < 5; i++) runs.push(await timeToInteractive(page, url));
       const tti = runs.map((r) => r.interactive).sort((a, b) => a - b);
       const sorts = runs.map((r) => r.sortMs).sort((a, b) => a - b);
-      console.log(`job page, ${seeded.members} members: hydrated with the 3D view drawn after ${tti.join(" / ")} ms (median ${tti[1]} ms, target < ${TARGET_MS} ms: ${tti[1]! < TARGET_MS ? "met" : "NOT met"})`);
+      console.log(`job page, ${seeded.members} members: hydrated with the 3D view drawn after ${tti.join(" / ")} ms (median ${tti[2]} ms, target < ${TARGET_MS} ms: ${tti[2]! < TARGET_MS ? "met" : "NOT met"})`);
       console.log(`sorting the member table by area answers in ${sorts.join(" / ")} ms`);
       const orbit = await orbitFps(page);
       console.log(`orbiting: ${orbit.fps.toFixed(1)} frames per second (${orbit.frames} frames drawn for ${orbit.moves} pointer moves, headless chromium with SwiftShader)`);
@@ -210,7 +210,7 @@ async function main() {
       for (const label of ["initial outline", "loads", "supports"]) await page.getByLabel(label, { exact: true }).uncheck();
       const bare = await orbitFps(page);
       console.log(`orbiting, members and joints only: ${bare.fps.toFixed(1)} frames per second`);
-      if (tti[1]! >= TARGET_MS) process.exitCode = 1;
+      if (tti[2]! >= TARGET_MS) process.exitCode = 1;
     } finally {
       await browser.close();
     }

@@ -7,19 +7,20 @@ import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
 import { OutcomePanel } from "~/components/job/OutcomePanel";
 import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
 import { ReviewForm, ReviewHistory, type ReviewActionData } from "~/components/job/ReviewPanel";
+import { useJobFiles } from "~/components/job/useJobFiles";
 import { Cautions } from "~/components/ui/Cautions";
 import { fmtDateTime, fmtDuration, fmtNum, fmtPercent, fmtSci } from "~/components/ui/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { OutcomeBadge, ReviewBadge, StatusBadge } from "~/components/ui/StatusBadge";
-import { EmptyState, Stat } from "~/components/ui/States";
+import { ErrorNote, LoadingNote, Stat } from "~/components/ui/States";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
-import type { ModelLike } from "~/components/viewer/truss-view";
 import { db } from "~/db/client.server";
 import { models, projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import { assertPermission, requirePermission, requireUser } from "~/lib/auth/authorize.server";
 import { can } from "~/lib/auth/permissions";
 import { createReview, listReviews } from "~/lib/auth/reviews.server";
+import type { TrussResult } from "~/engine/design/result-types";
 import { notFound } from "~/lib/http.server";
 import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
 import { getModelFile } from "~/lib/models.server";
@@ -29,22 +30,6 @@ export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${data.facts.modelName} · job ${data.job.id.slice(0, 8)} — Strutwise` : "Job — Strutwise" }];
 }
 
-/** The parts of the uploaded model the viewer needs: geometry, supports, loads. */
-function topologyOf(text: string): ModelLike | null {
-  try {
-    const m = JSON.parse(text) as ModelLike & { design?: { solver?: { maxIterations?: number } } };
-    return {
-      dimension: m.dimension,
-      units: m.units,
-      nodes: m.nodes.map((n) => ({ id: n.id, x: n.x, y: n.y, z: n.z, fixed: n.fixed })),
-      members: m.members.map((x) => ({ id: x.id, start: x.start, end: x.end, area: x.area, group: x.group })),
-      loadCases: m.loadCases.map((lc) => ({ id: lc.id, name: lc.name, loads: lc.loads })),
-    };
-  } catch {
-    return null;
-  }
-}
-
 function maxIterationsOf(text: string, options: { maxIterations?: number } | null): number | null {
   if (options?.maxIterations) return options.maxIterations;
   try {
@@ -52,6 +37,25 @@ function maxIterationsOf(text: string, options: { maxIterations?: number } | nul
   } catch {
     return null;
   }
+}
+
+const HEAD_LIST_CAP = 100;
+const byWeight = (a: { multiplier: number }, b: { multiplier: number }) => Math.abs(b.multiplier) - Math.abs(a.multiplier);
+
+/**
+ * The result without its per-member, per-node and per-iteration lists: what the page renders
+ * on the server (outcome, figures, governing limits). The lists load in the browser.
+ */
+function headOf(r: TrussResult) {
+  const { members, nodes, history, ...rest } = r;
+  return {
+    ...rest,
+    shadowPrices: r.shadowPrices ? [...r.shadowPrices].sort((a, b) => byWeight(a, b)).slice(0, HEAD_LIST_CAP) : undefined,
+    activeConstraints: [...r.activeConstraints].sort(byWeight).slice(0, HEAD_LIST_CAP),
+    activeCount: r.activeConstraints.length,
+    maxUtilization: r.verification?.maxUtilization ?? members.reduce((m, x) => Math.max(m, x.utilization), 0),
+    memberCount: members.length,
+  };
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -70,7 +74,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
   const live = job.status === "queued" || job.status === "running";
   const [file, result, history, reviews] = await Promise.all([
-    getModelFile(job.modelId).catch(() => null),
+    live ? getModelFile(job.modelId).catch(() => null) : Promise.resolve(null),
     job.hasResult ? getJobResult(job.id) : Promise.resolve(null),
     live ? getJobHistory(job.id) : Promise.resolve([]),
     listReviews(job.id),
@@ -90,9 +94,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       progress: job.progress,
     },
     facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
-    topology: topologyOf(text),
     maxIterations: maxIterationsOf(text, job.options),
-    result,
+    head: result ? headOf(result) : null,
     history: normalizeHistory(history),
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comment: r.comment, reviewerName: r.reviewerName || r.reviewerEmail, createdAt: r.createdAt })),
     may: {
@@ -150,12 +153,14 @@ export function ErrorBoundary() {
 }
 
 export default function JobPage({ loaderData }: Route.ComponentProps) {
-  const { job, facts, topology, result, history, reviews, may, maxIterations } = loaderData;
+  const { job, facts, head, history, reviews, may, maxIterations } = loaderData;
+  const files = useJobFiles(job.id, facts.modelId, job.status === "succeeded" && head !== null);
+  const { topology, result } = files;
   const live = job.status === "queued" || job.status === "running";
   // the header follows the live poll between loader runs
   const [shownStatus, setShownStatus] = useState<string>(job.status);
   useEffect(() => setShownStatus(job.status), [job.status]);
-  const objectiveLabel = result?.objective.kind ?? (job.options.objective as string | undefined) ?? "objective";
+  const objectiveLabel = head?.objective.kind ?? (job.options.objective as string | undefined) ?? "objective";
   const current = reviews.at(-1);
   const topo = useMemo<Topology>(
     () => ({
@@ -165,8 +170,8 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
     [topology],
   );
   const elapsed = job.startedAt && job.finishedAt ? new Date(job.finishedAt).getTime() - new Date(job.startedAt).getTime() : null;
-  const u = result?.units;
-  const saving = result && result.objective.initial > 0 ? 1 - result.objective.final / result.objective.initial : null;
+  const u = head?.units;
+  const saving = head && head.objective.initial > 0 ? 1 - head.objective.final / head.objective.initial : null;
 
   return (
     <div className="space-y-6">
@@ -216,55 +221,59 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       )}
 
       {!live && (
-        <OutcomePanel status={job.status} outcome={job.outcome ?? result?.status ?? null} message={result?.message} hint={result?.hint} error={job.error} />
+        <OutcomePanel status={job.status} outcome={job.outcome ?? head?.status ?? null} message={head?.message} hint={head?.hint} error={job.error} />
       )}
 
-      {result && (
+      {head && (
         <>
           <Cautions />
           <section className="card" aria-label="Summary">
             <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-3 lg:grid-cols-6">
-              <Stat label={`${result.objective.kind} initial`} value={fmtNum(result.objective.initial)} />
-              <Stat label={`${result.objective.kind} final`} value={<span data-testid="objective-final">{fmtNum(result.objective.final)}</span>} hint={u ? (result.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
+              <Stat label={`${head.objective.kind} initial`} value={fmtNum(head.objective.initial)} />
+              <Stat label={`${head.objective.kind} final`} value={<span data-testid="objective-final">{fmtNum(head.objective.final)}</span>} hint={u ? (head.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
               <Stat label="change" value={saving !== null ? fmtPercent(-saving) : "–"} />
-              <Stat label="iterations" value={result.iterations} />
-              <Stat label="analyses" value={result.analyses} hint="stiffness solves or KKT evaluations used" />
-              <Stat label="KKT residual" value={fmtSci(result.kktResidual)} />
-              <Stat label="max violation" value={fmtSci(result.maxViolation)} />
-              <Stat label={`volume (${u?.length}³)`} value={fmtNum(result.volume)} />
-              {result.mass !== undefined && <Stat label={`mass (${u?.mass})`} value={fmtNum(result.mass)} />}
-              <Stat label="max utilization" value={fmtPercent(result.verification?.maxUtilization ?? Math.max(0, ...result.members.map((m) => m.utilization)))} />
-              {result.formulation && <Stat label="formulation" value={result.formulation} />}
-              {result.verification && (
-                <Stat label="independent check" value={result.verification.allLimitsMet ? "all limits met" : `${result.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${fmtSci(result.verification.equilibriumResidual)}, ${result.verification.checked} checks`} />
+              <Stat label="iterations" value={head.iterations} />
+              <Stat label="analyses" value={head.analyses} hint="stiffness solves or KKT evaluations used" />
+              <Stat label="KKT residual" value={fmtSci(head.kktResidual)} />
+              <Stat label="max violation" value={fmtSci(head.maxViolation)} />
+              <Stat label={`volume (${u?.length}³)`} value={fmtNum(head.volume)} />
+              {head.mass !== undefined && <Stat label={`mass (${u?.mass})`} value={fmtNum(head.mass)} />}
+              <Stat label="max utilization" value={fmtPercent(head.maxUtilization)} />
+              {head.formulation && <Stat label="formulation" value={head.formulation} />}
+              {head.verification && (
+                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : `${head.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${fmtSci(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
               )}
-              {result.solver && <Stat label="solver" value={`${result.solver.name} ${result.solver.version}`} wrap />}
+              {head.solver && <Stat label="solver" value={`${head.solver.name} ${head.solver.version}`} wrap />}
             </dl>
           </section>
         </>
       )}
 
-      {topology ? (
+      {files.error ? (
+        <ErrorNote title="The 3D view and tables could not be loaded">{files.error}</ErrorNote>
+      ) : topology && (result || !head) ? (
         <TrussViewer model={topology} result={result} title={result ? "Optimized truss" : "Initial geometry"} />
       ) : (
-        <EmptyState title="The model file could not be read">The stored file of this model is missing or unreadable; the 3D view needs it.</EmptyState>
+        <div className="card flex h-[26rem] items-center justify-center sm:h-[32rem]" data-testid="truss-viewer-loading">
+          <LoadingNote>Loading the geometry{head ? ` and the result of ${head.memberCount} members` : ""}…</LoadingNote>
+        </div>
       )}
 
-      {result && (
+      {head && (
         <div className="grid gap-6 lg:grid-cols-2">
           <section className="card min-w-0" aria-label="Convergence">
             <h2 className="mb-3 font-semibold">Convergence</h2>
-            <ConvergencePlot history={normalizeHistory(result.history)} objectiveLabel={objectiveLabel} />
+            {result ? <ConvergencePlot history={normalizeHistory(result.history)} objectiveLabel={objectiveLabel} /> : <LoadingNote>Loading the iteration history…</LoadingNote>}
           </section>
           <section className="card min-w-0" aria-label="Governing limits">
             <h2 className="mb-1 font-semibold">Governing limits and their shadow prices</h2>
-            <p className="mb-3 text-sm text-ink-muted">What each binding limit costs: the change of the {result.objective.kind} per unit the limit is relaxed.</p>
-            <GoverningConstraints result={result} />
+            <p className="mb-3 text-sm text-ink-muted">What each binding limit costs: the change of the {head.objective.kind} per unit the limit is relaxed.</p>
+            <GoverningConstraints result={head} total={head.activeCount} />
           </section>
         </div>
       )}
 
-      {result && result.variables.length > 0 && (
+      {head && head.variables.length > 0 && (
         <section className="card" aria-label="Shape variables">
           <h2 className="mb-3 font-semibold">Shape variables</h2>
           <table className="data-table max-w-md">
@@ -275,7 +284,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               </tr>
             </thead>
             <tbody>
-              {result.variables.map((v) => (
+              {head.variables.map((v) => (
                 <tr key={v.id}>
                   <td>{v.id}</td>
                   <td className="num">{fmtNum(v.value, 6)}</td>
@@ -286,6 +295,11 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         </section>
       )}
 
+      {head && !result && !files.error && (
+        <section className="card" aria-label="Members">
+          <LoadingNote>Loading the member and node tables…</LoadingNote>
+        </section>
+      )}
       {result && result.members.length > 0 && (
         <>
           <section className="card min-w-0" aria-label="Members">
@@ -315,7 +329,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         <section className="card min-w-0" aria-label="Downloads">
           <h2 className="mb-3 font-semibold">Downloads</h2>
           <ul className="space-y-2 text-sm">
-            {result && (
+            {head && (
               <li>
                 <a className="text-info hover:underline" href={`/api/jobs/${job.id}/result`} download={`job-${job.id.slice(0, 8)}.result.json`} data-testid="download-result">
                   Result JSON

@@ -5,7 +5,10 @@ import { fmtSci } from "~/components/ui/format";
 import { EmptyState } from "~/components/ui/States";
 import { describeConstraint } from "./constraint-words";
 
-export function GoverningConstraints({ result, limit = 12 }: { result: TrussResult; limit?: number }) {
+type WithLimits = Pick<TrussResult, "shadowPrices" | "activeConstraints" | "objective">;
+
+/** `total`: how many active limits the whole result has, when `result` carries only the first ones. */
+export function GoverningConstraints({ result, limit = 12, total }: { result: WithLimits; limit?: number; total?: number }) {
   const rows =
     result.shadowPrices && result.shadowPrices.length
       ? result.shadowPrices.map((p) => ({
@@ -53,6 +56,11 @@ export function GoverningConstraints({ result, limit = 12 }: { result: TrussResu
             ))}
           </ul>
         </details>
+      )}
+      {total !== undefined && total > rows.length && (
+        <p className="mt-2 text-xs text-ink-muted">
+          The {rows.length} largest of {total} active limits are listed; the result JSON holds them all.
+        </p>
       )}
     </div>
   );

@@ -7,7 +7,10 @@ import { Legend } from "./Legend";
 import type { ColourMode, SceneSettings } from "./TrussScene";
 import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike } from "./truss-view";
 
-const TrussScene = lazy(() => import("./TrussScene"));
+const loadScene = () => import("./TrussScene");
+// In the browser, fetch the three.js chunk while the page hydrates rather than after mount
+if (typeof window !== "undefined") void loadScene();
+const TrussScene = lazy(loadScene);
 
 export function webglAvailable(): boolean {
   try {

@@ -1,0 +1,15 @@
+// The parts of an uploaded model file the viewer needs (geometry, supports, loads), from
+// the file as stored: no validation here, the upload already did that.
+import type { ModelLike } from "./truss-view";
+
+export function topologyOf(file: unknown): ModelLike | null {
+  const m = file as Partial<ModelLike> | null;
+  if (!m || !Array.isArray(m.nodes) || !Array.isArray(m.members) || !Array.isArray(m.loadCases)) return null;
+  return {
+    dimension: m.dimension === 3 ? 3 : 2,
+    units: m.units,
+    nodes: m.nodes.map((n) => ({ id: n.id, x: n.x, y: n.y, z: n.z, fixed: n.fixed })),
+    members: m.members.map((x) => ({ id: x.id, start: x.start, end: x.end, area: x.area, group: x.group })),
+    loadCases: m.loadCases.map((lc) => ({ id: lc.id, name: lc.name, loads: lc.loads })),
+  };
+}
