@@ -54,6 +54,11 @@ export interface QpOutput {
   upper: Float64Array;
   active: number[];
   iterations: number;
+  /**
+   * The equality-constrained solution for new right-hand sides with the final active set and
+   * factorization kept (no active-set changes): the cheap second-order correction.
+   */
+  resolve(eqRhs: Float64Array, ineqRhs: Float64Array): Float64Array;
 }
 
 /** Key layout: eq rows, then ineq rows, then lower bounds, then upper bounds. */
@@ -97,9 +102,9 @@ export function solveQp(q: QpInput): QpOutput {
   const vEq = new Float64Array(nE);
   const vIn = new Float64Array(nI);
 
-  const rhsOf = (key: number): number => {
-    if (key < nE) return eqSign[key] * eqRhs[key];
-    if (key < offL) return ineqRhs[key - nE];
+  const rhsOf = (key: number, eRhs = eqRhs, iRhs = ineqRhs): number => {
+    if (key < nE) return eqSign[key] * eRhs[key];
+    if (key < offL) return iRhs[key - nE];
     if (key < offU) return -lower[key - offL];
     return upper[key - offU];
   };
@@ -210,6 +215,24 @@ export function solveQp(q: QpInput): QpOutput {
       upper: new Float64Array(dim),
       active: active.slice(),
       iterations,
+      resolve: (eRhs, iRhs) => {
+        const sB = new Float64Array(dim);
+        for (let j = 0; j < dim; j++) sB[j] = fixedSide[j] < 0 ? lower[j] : fixedSide[j] > 0 ? upper[j] : 0;
+        const r = new Float64Array(dim);
+        const h = new Float64Array(dim);
+        const out = new Float64Array(dim);
+        q.hessian.applyB(sB, r);
+        for (let j = 0; j < dim; j++) r[j] += q.g[j];
+        HF.apply(r, h);
+        const k = active.length;
+        const rhs = new Float64Array(k);
+        for (let a = 0; a < k; a++) rhs[a] = -normalDot(active[a], h) - rhsOf(active[a], eRhs, iRhs) + normalDot(active[a], sB);
+        const sol = k > 0 ? chol.solve(rhs) : rhs;
+        for (let a = 0; a < k; a++) normalAxpy(active[a], sol[a], r);
+        HF.apply(r, out);
+        for (let j = 0; j < dim; j++) out[j] = fixedSide[j] !== 0 ? sB[j] : -out[j];
+        return out;
+      },
     };
     for (let a = 0; a < active.length; a++) {
       const key = active[a];

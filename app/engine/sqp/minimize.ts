@@ -470,7 +470,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
           }
           if (alpha === 1 && !triedSoc && !elastic && (nEq > 0 || rowsIn.length > 0)) {
             triedSoc = true;
-            const soc = secondOrderCorrection(trial, s, rowsIn, qp.active, info);
+            const soc = secondOrderCorrection(trial, s, rowsIn, qp, info);
             if (soc) {
               accepted = soc;
               break;
@@ -553,18 +553,17 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     return build(leastViolating, { kind: "infeasible", worst, violation: wv }, iteration);
   }
 
-  /** Second-order correction: the same QP with constraint values taken at x + s. */
-  function secondOrderCorrection(trial: ScaledPoint, s: Float64Array, rowsIn: Int32Array, active: number[], info: { D: number; phi0: number }): { x: Float64Array; pt: ScaledPoint; alpha: number } | null {
+  /** Second-order correction: the last QP's active set and factors, constraint values taken at x + s. */
+  function secondOrderCorrection(trial: ScaledPoint, s: Float64Array, rowsIn: Int32Array, qp: QpOutput, info: { D: number; phi0: number }): { x: Float64Array; pt: ScaledPoint; alpha: number } | null {
     const ce = new Float64Array(nEq);
     const ci = new Float64Array(nIneq);
     for (let i = 0; i < nEq; i++) ce[i] = trial.ce[i] - rowDot(dv.je[i], s, n);
     for (const i of rowsIn) ci[i] = trial.ci[i] - rowDot(dv.ji[i] as QpRow, s, n);
-    const input = buildQp(rowsIn, ce, ci, false);
-    input.warm = active;
-    const qp2 = solveQp(input);
-    if (qp2.status !== "optimal") return null;
+    const ciRows = Float64Array.from(rowsIn, (i) => -ci[i]);
+    const s2 = qp.resolve(Float64Array.from(ce, (v) => -v), ciRows);
+    for (let j = 0; j < n; j++) if (!Number.isFinite(s2[j])) return null;
     const xt = Float64Array.from(x);
-    for (let j = 0; j < n; j++) xt[j] += qp2.s[j];
+    for (let j = 0; j < n; j++) xt[j] += s2[j];
     clip(xt);
     if (signal?.aborted) throw abortError();
     const ev = sp.evaluate(xt);
