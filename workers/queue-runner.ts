@@ -127,7 +127,7 @@ export class QueueRunner {
       }
       if (this.stopping) break;
       await new Promise<void>((resolve) => {
-        const t = setTimeout(resolve, this.active.size >= this.concurrency ? 60_000 : (this.o.idlePollMs ?? 500));
+        const t = setTimeout(resolve, this.active.size >= this.concurrency ? 5_000 : (this.o.idlePollMs ?? 500));
         this.wake = () => {
           clearTimeout(t);
           resolve();
@@ -216,21 +216,21 @@ export class QueueRunner {
         this.log(`job ${job.id}: result of an earlier attempt found in storage, recording it`);
       } else {
         const out = await this.solve(lease, recorder, signal);
-        await putObject(resultKey, out.resultJson, "application/json");
+        await retrying(() => putObject(resultKey, out.resultJson, "application/json"));
         summary = out.summary;
         message = solverFailureMessage(out.message, out.hint);
       }
       await recorder.close();
       if (summary.status === "failed") {
         // the solver broke down: no design to review, so the job fails with the solver's words
-        if (await failJob(db, lease, message)) {
+        if (await retrying(() => failJob(db, lease, message))) {
           this.stats.failed++;
           this.log(`job ${job.id} failed: ${message}`);
           await this.notifyFinished(job.id);
         }
         return;
       }
-      if (await completeJob(db, lease, { resultKey, summary, outcome: summary.status })) {
+      if (await retrying(() => completeJob(db, lease, { resultKey, summary, outcome: summary.status }))) {
         this.stats.succeeded++;
         this.log(`job ${job.id} succeeded (${summary.status}, ${summary.iterations} iterations, ${Date.now() - started} ms)`);
         await this.notifyFinished(job.id, true);
@@ -242,17 +242,17 @@ export class QueueRunner {
       await recorder.close();
       const why = reason();
       if (why === "cancel") {
-        if (await markCancelled(db, lease, "Cancelled on request while running")) this.stats.cancelled++;
+        if (await retrying(() => markCancelled(db, lease, "Cancelled on request while running"))) this.stats.cancelled++;
         this.log(`job ${job.id} cancelled after ${Date.now() - started} ms`);
       } else if (why === "lost") {
         this.stats.lost++;
         this.log(`job ${job.id}: lease lost to another worker; stopped here`);
       } else if (why === "shutdown") {
-        if (await requeueJob(db, lease)) this.stats.requeued++;
+        if (await retrying(() => requeueJob(db, lease))) this.stats.requeued++;
         this.log(`job ${job.id} handed back to the queue (worker stopping)`);
       } else {
         const message = why === "time" ? timeLimitMessage(this.o.timeLimitMs) : describeTaskError(e, this.o.maxOldGenerationMb);
-        if (await failJob(db, lease, message)) {
+        if (await retrying(() => failJob(db, lease, message))) {
           this.stats.failed++;
           this.log(`job ${job.id} failed: ${message}`);
           await this.notifyFinished(job.id);
@@ -267,7 +267,7 @@ export class QueueRunner {
     const job = lease.job;
     const [model] = await this.o.db.select({ fileKey: models.fileKey }).from(models).where(eq(models.id, job.modelId)).limit(1);
     if (!model) throw new Error(`The model ${job.modelId} of this job no longer exists`);
-    const modelText = await getText(model.fileKey);
+    const modelText = await retrying(() => getText(model.fileKey));
     if (modelText === null) throw new Error(`The file of model ${job.modelId} is missing from storage (${model.fileKey})`);
     signal.throwIfAborted();
 
@@ -291,3 +291,18 @@ export class QueueRunner {
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/**
+ * A storage or database call retried over a few seconds: a busy database or a brief network
+ * fault must not turn a finished solve into a failed job. The last error propagates.
+ */
+async function retrying<T>(fn: () => Promise<T>, tries = 5): Promise<T> {
+  for (let i = 1; ; i++) {
+    try {
+      return await fn();
+    } catch (e) {
+      if (i >= tries) throw e;
+      await sleep(200 * 2 ** (i - 1));
+    }
+  }
+}
