@@ -107,6 +107,29 @@ describe("queue runner", () => {
     }
   });
 
+  it("cancels a job whose worker died after the cancel was asked for, instead of running it again", async () => {
+    const { enqueueJob, cancelJob } = await import("~/lib/jobs/queue.server");
+    const { claimNextJob } = await import("~/lib/jobs/claim.server");
+    const model = await uploadModel(projectId, twoBarModel(), engineer.id);
+    const j = await enqueueJob({ modelId: model.id, user: engineer }, database);
+    // a worker that claims it with a short lease and then vanishes
+    expect((await claimNextJob(database, "vanished-worker", 300))?.job.id).toBe(j.id);
+    expect((await cancelJob(j.id, engineer, database)).cancelRequested).toBe(true);
+    await new Promise((r) => setTimeout(r, 400));
+    const w = await runner();
+    w.r.start();
+    try {
+      const settled = await waitFor("the job to be cancelled", async () => {
+        const v = await job(j.id);
+        return v.status === "cancelled" ? v : null;
+      });
+      expect(settled.attempts).toBe(1);
+      expect(settled.error).toMatch(/its worker had stopped/);
+    } finally {
+      await w.close();
+    }
+  });
+
   it("refuses to cancel someone else's job, or a finished one", async () => {
     const { enqueueJob, cancelJob } = await import("~/lib/jobs/queue.server");
     const other = await makeAccount("engineer", "Olu Brandreth");
