@@ -31,6 +31,14 @@ async function pageAs(role: string, viewport = { width: 1440, height: 900 }): Pr
   await browser.context.clearCookies();
   const page = await browser.newPage(viewport);
   page.on("pageerror", (e) => errors.push(`${role}: ${e.message}`));
+  // hydration mismatches and failed fetches show up as console errors
+  // (a refused upload answers 400 on purpose; the browser logs every 4xx, so statuses are checked apart)
+  page.on("console", (m) => {
+    if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(`${role} console: ${m.text()}`);
+  });
+  page.on("response", (r) => {
+    if (r.status() >= 500) errors.push(`${role}: ${r.status()} from ${r.url()}`);
+  });
   const a = account(role);
   await signIn(page, a.email, a.password, app.baseUrl);
   return page;
