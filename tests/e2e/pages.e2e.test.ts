@@ -172,6 +172,10 @@ describe("pages", () => {
     const ink = await canvasInk(page);
     expect(ink.ratio, "the initial geometry is drawn").toBeGreaterThan(0.003);
     await screenshot(page, "pages-model-1440x900");
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.waitForTimeout(600);
+    await screenshot(page, "pages-model-390x844");
+    expect(await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)).toBeLessThanOrEqual(1);
     await page.close();
   });
 
@@ -302,6 +306,10 @@ describe("pages", () => {
     const page = await pageAs("checker");
     await page.goto(`${app.baseUrl}/`);
     await expect(page.getByRole("region", { name: "Waiting for review" }).innerText()).resolves.toContain(state.jobId!.slice(0, 8));
+    await screenshot(page, "pages-desk-checker-1440x900");
+    await page.setViewportSize({ width: 390, height: 844 });
+    await screenshot(page, "pages-desk-checker-390x844");
+    await page.setViewportSize({ width: 1440, height: 900 });
     await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
     const form = page.getByTestId("review-form");
     await form.getByLabel("Approve").check();
