@@ -206,20 +206,20 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
                 <thead>
                   <tr>
                     <th>material</th>
-                    <th className="num">E ({u?.force}/{u?.length}²)</th>
-                    <th className="num">density ({u?.mass}/{u?.length}³)</th>
-                    <th className="num">allowable tension</th>
-                    <th className="num">allowable compression</th>
+                    <th className="num whitespace-nowrap">E ({u?.force}/{u?.length}²)</th>
+                    <th className="num whitespace-nowrap">density ({u?.mass}/{u?.length}³)</th>
+                    <th className="num whitespace-nowrap">allowable tension</th>
+                    <th className="num whitespace-nowrap">allowable compression</th>
                   </tr>
                 </thead>
                 <tbody>
                   {file.materials.map((m) => (
                     <tr key={m.id}>
                       <td>{m.name ? `${m.id} (${m.name})` : m.id}</td>
-                      <td className="num">{fmtNum(m.E)}</td>
-                      <td className="num">{fmtNum(m.density)}</td>
-                      <td className="num">{fmtNum(m.allowableTension)}</td>
-                      <td className="num">{fmtNum(m.allowableCompression)}</td>
+                      <td className="num whitespace-nowrap">{fmtNum(m.E)}</td>
+                      <td className="num whitespace-nowrap">{fmtNum(m.density)}</td>
+                      <td className="num whitespace-nowrap">{fmtNum(m.allowableTension)}</td>
+                      <td className="num whitespace-nowrap">{fmtNum(m.allowableCompression)}</td>
                     </tr>
                   ))}
                 </tbody>
@@ -233,19 +233,19 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
                 <thead>
                   <tr>
                     <th>load case</th>
-                    <th className="num">loads</th>
-                    <th className="num">Σfx ({u?.force})</th>
-                    <th className="num">Σfy</th>
-                    <th className="num">Σfz</th>
+                    <th className="num whitespace-nowrap">loads</th>
+                    <th className="num whitespace-nowrap">Σfx ({u?.force})</th>
+                    <th className="num whitespace-nowrap">Σfy</th>
+                    <th className="num whitespace-nowrap">Σfz</th>
                   </tr>
                 </thead>
                 <tbody>
                   {file.loadCases.map((lc) => (
                     <tr key={lc.id}>
                       <td>{lc.name ? `${lc.id} — ${lc.name}` : lc.id}</td>
-                      <td className="num">{lc.count}</td>
+                      <td className="num whitespace-nowrap">{lc.count}</td>
                       {lc.total.map((t, i) => (
-                        <td key={i} className="num">
+                        <td key={i} className="num whitespace-nowrap">
                           {fmtNum(t)}
                         </td>
                       ))}
@@ -266,8 +266,8 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
             <Stat label="formulation" value={file.design.formulation} />
             <Stat label="area groups" value={file.design.groups} />
             <Stat label="shape variables" value={file.design.shape.length} />
-            <Stat label="limits" value={file.design.limits.join(", ") || "none"} />
-            {file.design.areaBounds && <Stat label={`area bounds (${u?.length}²)`} value={`${fmtNum(file.design.areaBounds.min)} – ${fmtNum(file.design.areaBounds.max)}`} />}
+            <Stat label="limits" value={file.design.limits.join(", ") || "none"} wrap />
+            {file.design.areaBounds && <Stat label={`area bounds (${u?.length}²)`} value={`${fmtNum(file.design.areaBounds.min)} – ${fmtNum(file.design.areaBounds.max)}`} wrap />}
           </dl>
         ) : (
           <EmptyState title="No design block">This file can be analysed but not optimized: add a design block (objective, bounds, limits) and upload it again.</EmptyState>
