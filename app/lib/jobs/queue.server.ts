@@ -174,26 +174,43 @@ export interface JobPage {
 // one database read for LIST_CACHE_MS: a burst of 50 callers costs one query, and a list is
 // at most that much older than the rows (writes made in this process clear it at once).
 const LIST_CACHE_MS = 250;
-const listCache = new Map<string, { at: number; page: Promise<JobPage>; database: Db }>();
+interface ListEntry {
+  at: number;
+  database: Db;
+  page: Promise<JobPage>;
+  json?: Promise<string>;
+}
+const listCache = new Map<string, ListEntry>();
 
 export function clearJobListCache(): void {
   listCache.clear();
+}
+
+function listEntry(filter: ListJobsFilter, database: Db, fresh: boolean): ListEntry {
+  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, filter.limit, filter.cursor]);
+  const now = Date.now();
+  const hit = listCache.get(key);
+  if (!fresh && hit && hit.database === database && now - hit.at < LIST_CACHE_MS) return hit;
+  const entry: ListEntry = { at: now, database, page: readJobPage(filter, database) };
+  if (listCache.size > 200) listCache.clear();
+  listCache.set(key, entry);
+  entry.page.catch(() => listCache.get(key) === entry && listCache.delete(key));
+  return entry;
 }
 
 /**
  * Newest first; `nextCursor` is null on the last page. Throws a 400 Response for a bad cursor.
  * `fresh` skips the shared short-lived copy (for callers that just wrote).
  */
-export async function listJobs(filter: ListJobsFilter = {}, database: Db = defaultDb(), opts: { fresh?: boolean } = {}): Promise<JobPage> {
-  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, filter.limit, filter.cursor]);
-  const now = Date.now();
-  const hit = listCache.get(key);
-  if (!opts.fresh && hit && hit.database === database && now - hit.at < LIST_CACHE_MS) return hit.page;
-  const page = readJobPage(filter, database);
-  if (listCache.size > 200) listCache.clear();
-  listCache.set(key, { at: now, page, database });
-  page.catch(() => listCache.delete(key));
-  return page;
+export function listJobs(filter: ListJobsFilter = {}, database: Db = defaultDb(), opts: { fresh?: boolean } = {}): Promise<JobPage> {
+  return listEntry(filter, database, opts.fresh ?? false).page;
+}
+
+/** listJobs as the JSON text of the API answer, serialized once per shared page. */
+export function listJobsJson(filter: ListJobsFilter = {}, database: Db = defaultDb()): Promise<string> {
+  const entry = listEntry(filter, database, false);
+  entry.json ??= entry.page.then((p) => JSON.stringify(p));
+  return entry.json;
 }
 
 async function readJobPage(filter: ListJobsFilter, database: Db): Promise<JobPage> {

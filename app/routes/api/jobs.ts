@@ -4,7 +4,7 @@ import { JOB_STATUSES } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { jsonError, readJson, zodDetails } from "~/lib/http.server";
-import { enqueueJob, LIST_LIMIT_MAX, listJobs } from "~/lib/jobs/queue.server";
+import { enqueueJob, LIST_LIMIT_MAX, listJobsJson } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs";
 
 const listQuerySchema = z.object({
@@ -29,8 +29,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   const params = Object.fromEntries([...new URL(request.url).searchParams].filter(([, v]) => v !== ""));
   const q = listQuerySchema.safeParse(params);
   if (!q.success) return jsonError(400, "The job list filter is not valid", zodDetails(q.error.issues));
-  const page = await listJobs(q.data);
-  return Response.json(page, { headers: { "Cache-Control": "no-store" } });
+  const body = await listJobsJson(q.data);
+  return new Response(body, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
 }
 
 export async function action({ request }: Route.ActionArgs) {
