@@ -402,21 +402,14 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
           if (!extra.ok) return failed(extra.message, { x, pt, mult, kkt }, iteration);
           for (const i of add) dv.ji[i] = extra.value.ji[i];
           rowsIn = screenedList();
+          rememberActive(mult); // the re-solve starts from this solve's active set
           continue;
         }
       }
       break;
     }
 
-    // remember the active set for the next warm start
-    warmIneq = new Uint8Array(nIneq);
-    warmLower = new Uint8Array(n);
-    warmUpper = new Uint8Array(n);
-    for (let i = 0; i < nIneq; i++) if (mult.ineq[i] > 0) warmIneq[i] = 1;
-    for (let j = 0; j < n; j++) {
-      if (mult.lower[j] > 0) warmLower[j] = 1;
-      if (mult.upper[j] > 0) warmUpper[j] = 1;
-    }
+    rememberActive(mult);
 
     const snap: Snapshot = { x: Float64Array.from(x), pt, mult, kkt, viol: maxViolation(pt.ce, pt.ci) };
     consider(snap);
@@ -542,6 +535,18 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     dv = dNew.value;
     lastStep = accepted.alpha;
     iteration++;
+  }
+
+  /** Keeps the active set (by row and variable, since the screened rows change) for the next warm start. */
+  function rememberActive(m: Multipliers): void {
+    warmIneq = new Uint8Array(nIneq);
+    warmLower = new Uint8Array(n);
+    warmUpper = new Uint8Array(n);
+    for (let i = 0; i < nIneq; i++) if (m.ineq[i] > 0) warmIneq[i] = 1;
+    for (let j = 0; j < n; j++) {
+      if (m.lower[j] > 0) warmLower[j] = 1;
+      if (m.upper[j] > 0) warmUpper[j] = 1;
+    }
   }
 
   function infeasibleResult(): SqpResult {

@@ -313,6 +313,13 @@ describe("control: abort, progress, limits, determinism", () => {
     expect(r.f).toBeLessThanOrEqual(Math.min(...r.history.map((h) => h.f)));
   });
 
+  it("a time limit gives not-converged with a time-limit sentence", () => {
+    const r = minimize(toSqpProblem(hs("HS001")), { timeLimitMs: 0 });
+    expect(r.status).toBe("not-converged");
+    expect(r.message).toMatch(/time limit of 0 ms/);
+    expect(Number.isFinite(r.f)).toBe(true);
+  });
+
   it("two runs give bit-identical results", () => {
     for (const id of ["HS071", "HS078", "HS043"]) {
       const a = minimize(toSqpProblem(hs(id)));
