@@ -109,13 +109,13 @@ export function JobsList({
       }),
       ...(showModel ? [col.accessor("modelName", { header: "model", cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue()}>{c.getValue()}</span> })] : []),
       ...(showProject ? [col.accessor("projectCode", { header: "project" })] : []),
-      col.accessor((r) => r.submitter ?? "", { id: "submitter", header: "submitted by" }),
-      col.accessor("createdAt", { header: "queued", cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue())}</span> }),
+      col.accessor((r) => r.submitter ?? "", { id: "submitter", header: "submitted by", meta: { className: "hidden md:table-cell" } }),
+      col.accessor("createdAt", { header: "queued", cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue())}</span>, meta: { className: "hidden sm:table-cell" } }),
       col.accessor((r) => (r.startedAt && r.finishedAt ? Date.parse(r.finishedAt) - Date.parse(r.startedAt) : null), {
         id: "duration",
         header: "ran",
         cell: (c) => fmtDuration(c.getValue()),
-        meta: { numeric: true },
+        meta: { numeric: true, className: "hidden md:table-cell" },
         sortUndefined: "last",
       }),
       col.accessor((r) => r.objective?.final ?? null, {

@@ -14,6 +14,12 @@ import {
 import { useState, type ReactNode } from "react";
 import { EmptyState } from "~/components/ui/States";
 
+/** Per-column options: right-aligned tabular numbers; extra classes (e.g. hide on phones). */
+export interface ColumnMeta {
+  numeric?: boolean;
+  className?: string;
+}
+
 export interface DataTableProps<T> {
   data: T[];
   columns: ColumnDef<T, any>[];
@@ -80,11 +86,12 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
                   <tr key={hg.id}>
                     {hg.headers.map((h) => {
                       const sorted = h.column.getIsSorted();
-                      const numeric = (h.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
+                      const meta = h.column.columnDef.meta as ColumnMeta | undefined;
+                      const numeric = meta?.numeric;
                       return (
                         <th
                           key={h.id}
-                          className={numeric ? "whitespace-nowrap text-right" : "whitespace-nowrap"}
+                          className={`${numeric ? "whitespace-nowrap text-right" : "whitespace-nowrap"} ${meta?.className ?? ""}`}
                           aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
                         >
                           {h.isPlaceholder ? null : h.column.getCanSort() ? (
@@ -111,7 +118,7 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
                 {rows.map((r) => (
                   <tr key={r.id} className="hover:bg-paper" data-testid={rowTestId}>
                     {r.getVisibleCells().map((c) => (
-                      <td key={c.id} className={(c.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? "num whitespace-nowrap" : "whitespace-nowrap"}>
+                      <td key={c.id} className={`${(c.column.columnDef.meta as ColumnMeta | undefined)?.numeric ? "num whitespace-nowrap" : "whitespace-nowrap"} ${(c.column.columnDef.meta as ColumnMeta | undefined)?.className ?? ""}`}>
                         {flexRender(c.column.columnDef.cell, c.getContext())}
                       </td>
                     ))}
