@@ -241,7 +241,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     for (let i = 0; i < nEq; i++) { rows.push(dv.je[i]); tags.push([0, i]); }
     for (let i = 0; i < nIneq; i++) {
       const row = dv.ji[i];
-      if (row && pt.ci[i] >= -nearTol) { rows.push(row); tags.push([1, i]); }
+      if (row && Math.abs(pt.ci[i]) <= nearTol) { rows.push(row); tags.push([1, i]); }
     }
     for (let j = 0; j < n; j++) {
       if (x[j] - lo[j] <= nearTol * Math.max(1, Math.abs(lo[j]))) { rows.push(unitRow(j, -1)); tags.push([2, j]); }
@@ -339,6 +339,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   let iteration = 0;
   let lastStep = 0;
   let elasticRun = 0;
+  let wasElastic = false;
   let elasticStuck = 0;
   let elasticStartViol = 0;
   const timeUp = () => options.timeLimitMs !== undefined && performance.now() - started > options.timeLimitMs;
@@ -375,10 +376,14 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       B.applyB(Float64Array.from(s), bs);
       const gs = dot(dv.g, s, n);
       const sBs = dot(s, bs, n);
-      let rhoReq = 1.1 * maxAbs(mult);
+      // elastic multipliers carry the relaxation weight, not the problem's prices: only the
+      // descent requirement below sets the penalty then
+      let rhoReq = elastic ? 0 : 1.1 * maxAbs(mult);
       const reduction = viol0 - linViol;
-      if (reduction > 1e-14 * Math.max(1, viol0)) rhoReq = Math.max(rhoReq, (gs + 0.5 * sBs) / (0.7 * reduction));
-      rho = Math.max(rhoReq, 0.5 * (rho + rhoReq), 1e-8);
+      // the descent requirement only where the violation is more than noise: dividing by a
+      // rounding-level reduction would blow the penalty up and freeze the iterates
+      if (viol0 > tol && reduction > 0.1 * viol0) rhoReq = Math.max(rhoReq, (gs + 0.5 * sBs) / (0.7 * reduction));
+      rho = wasElastic && !elastic ? Math.max(rhoReq, 1e-8) : Math.max(rhoReq, 0.5 * (rho + rhoReq), 1e-8);
       const D = gs + rho * (linViol - viol0);
       stepInfo = { D, phi0: pt.f + rho * viol0, viol0 };
       if (!elastic && atNoiseFloor(D, stepInfo.phi0)) break;
@@ -427,13 +432,14 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       if (elasticRun === 0) elasticStartViol = violNow;
       elasticRun++;
       elasticStuck = xi > 1 - 1e-6 ? elasticStuck + 1 : 0;
-      const stalled = elasticRun >= 10 && violNow > 0.99 * elasticStartViol;
+      const stalled = elasticRun >= 30 && violNow > 0.99 * elasticStartViol;
       if (elasticStuck >= 3 || stalled) return infeasibleResult();
-      if (elasticRun % 10 === 0) elasticStartViol = violNow;
+      if (elasticRun % 30 === 0) elasticStartViol = violNow;
     } else {
       elasticRun = 0;
       elasticStuck = 0;
     }
+    wasElastic = elastic;
 
     // ---------- line search on the l1 merit ----------
     const info = stepInfo as { D: number; phi0: number; viol0: number };
@@ -529,7 +535,8 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     }
     const step = new Float64Array(n);
     for (let j = 0; j < n; j++) step[j] = xNew[j] - x[j];
-    if (B.update(step, y) !== "skipped") updatesSinceReset++;
+    // after a relaxed (elastic) subproblem the multipliers are not the problem's: no update
+    if (!elastic && B.update(step, y) !== "skipped") updatesSinceReset++;
     x = xNew;
     pt = ptNew;
     dv = dNew.value;
