@@ -29,7 +29,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     listProjects(),
   ]);
   const api = new URLSearchParams();
-  if (statusFilter && !Array.isArray(statusFilter)) api.set("status", statusFilter);
+  if (statusFilter) api.set("status", Array.isArray(statusFilter) ? statusFilter.join(",") : statusFilter);
   if (projectId) api.set("projectId", projectId);
   api.set("limit", String(PAGE * 2));
   return {
