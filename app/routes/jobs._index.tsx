@@ -29,9 +29,10 @@ export async function loader({ request }: Route.LoaderArgs) {
     listProjects(),
   ]);
   const api = new URLSearchParams();
-  if (statusFilter) api.set("status", Array.isArray(statusFilter) ? statusFilter.join(",") : statusFilter);
+  // the live poll leaves the status filter out: a running row must still be found once it
+  // has finished; queued and running jobs are among the newest, so a long page finds them
   if (projectId) api.set("projectId", projectId);
-  api.set("limit", String(PAGE * 2));
+  api.set("limit", "200");
   return {
     rows: await toJobRows(page.jobs),
     nextCursor: page.nextCursor,
