@@ -1,7 +1,9 @@
 // The job page of a 2,500-member result in headless chromium: time until it is interactive
 // (hydrated, the 3D view drawn, a control answering) — target under 2 s — and frames per
 // second while orbiting the 3D view. The result is a real solver output: a double-layer
-// grid roof (invented: the Saltmarsh Lane market hall) optimized for a few iterations.
+// grid roof (invented: the Saltmarsh Lane market hall) optimized for a few iterations, in
+// this process; the model is stored through storeModel and the finished job row and result
+// written directly, since the queue is not what this measures. Needs a build (npm run build).
 //   npm run bench -- page
 import { randomUUID } from "node:crypto";
 import type { Page } from "playwright-core";
