@@ -3,7 +3,7 @@
 // (initial geometry, deformed shape) are line segments; supports are instanced cones and
 // loads arrows. The camera frames the truss on demand ("fit"); planar trusses get a 2D
 // projection (orthographic, pan and zoom only) unless the user asks for 3D.
-import { OrbitControls, OrthographicCamera, PerspectiveCamera } from "@react-three/drei";
+import { AdaptiveDpr, OrbitControls, OrthographicCamera, PerspectiveCamera } from "@react-three/drei";
 import { Canvas, useThree } from "@react-three/fiber";
 import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
@@ -44,6 +44,8 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
     <Canvas
       key={ortho ? "ortho" : "persp"}
       frameloop="demand"
+      // while the view moves, draw at a lower resolution (full again ~0.2 s after it stops)
+      performance={{ min: heavy ? 0.4 : 0.6 }}
       dpr={heavy ? 1 : [1, 2]}
       gl={{ antialias: !heavy, preserveDrawingBuffer: true, powerPreference: "high-performance" }}
       onCreated={({ gl }) => {
@@ -57,6 +59,7 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
       ) : (
         <PerspectiveCamera makeDefault fov={40} near={span / 1000} far={span * 100} up={up === "z" ? [0, 0, 1] : [0, 1, 0]} />
       )}
+      <AdaptiveDpr pixelated />
       <ambientLight intensity={0.85} />
       <directionalLight position={[1, 2, 3]} intensity={1.6} />
       <directionalLight position={[-2, -1, -1]} intensity={0.5} />
@@ -399,6 +402,7 @@ function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolea
       makeDefault
       enableRotate={!ortho}
       enableDamping={false}
+      regress
       screenSpacePanning
       target={view.bounds.center}
     />
