@@ -5,6 +5,7 @@
 import { minimize } from "../app/engine/sqp";
 import { hockSchittkowski, toSqpProblem } from "../tests/engine/sqp/hock-schittkowski";
 import { findScipy, runSlsqp } from "../tests/engine/sqp/scipy-reference";
+import { barChain } from "./sqp-bar-chain";
 import { syntheticSizing } from "./sqp-synthetic";
 
 function timeIt(run: () => void, minMs = 150): number {
@@ -56,4 +57,15 @@ for (const [n, m, screening] of sizes) {
   console.log(
     `${pad(n, 6)} ${pad(m, 6)} ${pad(screening, 7)} ${pad(r.status, 14)} ${pad(r.f.toPrecision(9), 14)} ${pad(r.iterations, 4)} ${pad(r.evaluations, 5)} ${pad(active, 7)} ${pad(s.toFixed(2), 8)} ${pad((s / Math.max(1, r.iterations)).toFixed(3), 7)} ${pad(rss.toFixed(0), 7)}`,
   );
+}
+
+console.log("\nbar chain, simultaneous formulation (areas and displacements, equilibrium as equalities; closed-form volume):");
+for (const N of [5, 20, 50]) {
+  for (const hessian of ["bfgs", "lbfgs"] as const) {
+    const { problem, volume } = barChain(N);
+    const t0 = performance.now();
+    const r = minimize(problem, { hessian, maxIterations: 200 });
+    const s = (performance.now() - t0) / 1000;
+    console.log(`N=${N} ${hessian.padEnd(5)} ${r.status.padEnd(13)} volume ${r.f.toPrecision(8)} (closed form ${volume}) rel.err ${(Math.abs(r.f - volume) / volume).toExponential(1)} it ${r.iterations} ${s.toFixed(2)} s`);
+  }
 }

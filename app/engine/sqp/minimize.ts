@@ -504,7 +504,8 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
         updatesSinceReset = 0;
         continue;
       }
-      if (elastic) return infeasibleResult();
+      // infeasible only when the relaxation itself could not reduce the violation
+      if (elastic && xi > 0.5) return infeasibleResult();
       return build(best, { kind: "no-progress", iterations: iteration, feasible: best.viol <= tol }, iteration);
     }
 
@@ -585,14 +586,22 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   }
 }
 
-/** B extended by the elastic variable at index n, with curvature ELASTIC_WEIGHT. */
+/**
+ * B extended by the elastic variable at index n, with curvature ELASTIC_WEIGHT times a size
+ * estimate of B (|B v| for v = ones/sqrt(n)), so that relaxing stays expensive next to moving
+ * even after B has grown large.
+ */
 function elasticHessian(B: HessianApprox, n: number): QpHessian {
+  const v1 = new Float64Array(n).fill(1 / Math.sqrt(n));
+  const bv = new Float64Array(n);
+  B.applyB(v1, bv);
+  const weight = ELASTIC_WEIGHT * Math.max(1, Math.sqrt(dot(bv, bv)));
   return {
     applyB(v, out) {
       const o = new Float64Array(n);
       B.applyB(v.subarray(0, n), o);
       out.set(o);
-      out[n] = ELASTIC_WEIGHT * v[n];
+      out[n] = weight * v[n];
     },
     reduced(): ReducedInverse {
       const inner = B.reduced();
@@ -602,7 +611,7 @@ function elasticHessian(B: HessianApprox, n: number): QpHessian {
         apply(v, out) {
           inner.apply(v.subarray(0, n), o);
           out.set(o);
-          out[n] = fixedXi ? 0 : v[n] / ELASTIC_WEIGHT;
+          out[n] = fixedXi ? 0 : v[n] / weight;
         },
         fix(j) {
           if (j === n) fixedXi = true;
