@@ -261,6 +261,11 @@ describe("pages", () => {
     // the tables fill in from the same API route once the page has hydrated
     await page.getByTestId("member-row").first().waitFor({ timeout: 20_000 });
     expect(await page.getByTestId("member-row").count()).toBe(Math.min(25, result.members.length));
+    // keyboard: a column header sorts with Enter, and says so to screen readers
+    const areaHeader = page.getByRole("columnheader", { name: /^area/ }).first();
+    await areaHeader.getByRole("button").focus();
+    await page.keyboard.press("Enter");
+    await expect(areaHeader.getAttribute("aria-sort")).resolves.toMatch(/^(ascending|descending)$/);
     await page.getByTestId("convergence-plot").waitFor();
     await waitForCanvas(page);
     const ink = await canvasInk(page);
