@@ -1,7 +1,7 @@
 // Child processes that can be stopped as a whole tree. Each child leads its own process group
-// (detached), so one signal to the group also reaches what it spawned (tsx runs node under
-// itself; a worker may run threads or further processes). Used by `npm start` and the e2e
-// harness, which must both leave nothing behind.
+// (detached), so one signal to the group also reaches what it spawned (a wrapper's real
+// process, a worker's helpers). Used by `npm start` and the e2e harness, which must both
+// leave nothing behind. docs/decisions/0001.
 import { spawn, type ChildProcess } from "node:child_process";
 
 export interface Exit {
@@ -99,8 +99,8 @@ export function spawnChild(name: string, command: string, args: string[], opts: 
       const pid = proc.pid;
       const leaderAlive = proc.exitCode === null && proc.signalCode === null;
       if (leaderAlive || groupAlive(pid)) {
-        // The leader alone gets SIGTERM while it lives: tsx passes signals on to its node
-        // child, so a signal to the whole group would reach that child twice.
+        // The leader alone gets SIGTERM while it lives: wrappers (npm, the tsx command) pass
+        // signals on, so a signal to the whole group would reach their child twice.
         const term = () => (leaderAlive && proc.exitCode === null && proc.signalCode === null ? proc.kill("SIGTERM") : killGroup(pid, "SIGTERM"));
         term();
         const started = Date.now();

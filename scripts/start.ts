@@ -116,7 +116,7 @@ async function main() {
   let firstSignalAt = 0;
   for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
     process.on(sig, () => {
-      // Ctrl-C reaches us twice at once (the terminal, and tsx passing it on): only a repeat
+      // Ctrl-C reaches us twice at once (from the terminal, and from npm passing it on): only a repeat
       // after a moment means "do not wait"
       if (firstSignalAt && Date.now() - firstSignalAt > 1500) {
         // a second Ctrl-C: do not wait for a graceful shutdown
@@ -129,7 +129,7 @@ async function main() {
     });
   }
 
-  // If whatever started us dies without a signal (kill -9 of tsx or npm), we are re-parented:
+  // If whatever started us dies without a signal (kill -9 of npm), we are re-parented:
   // take the children down with us rather than leave them running unattended.
   const parent = process.ppid;
   setInterval(() => {
@@ -194,7 +194,10 @@ async function main() {
       : spawnChild("web", bin("react-router-serve"), [path.join(root, "build/server/index.js")], { cwd: root });
     children.push(web);
     const workerFile = path.join(root, "workers/queue-worker.ts");
-    if (fs.existsSync(workerFile)) children.push(spawnChild("worker", bin("tsx"), [workerFile], { cwd: root, repeatTermAfterMs: 5000 }));
+    // tsx as a loader, not its CLI: the CLI would sit between us and the worker and, when the
+    // worker is slow to acknowledge a signal (a busy machine), SIGKILL it instead
+    if (fs.existsSync(workerFile))
+      children.push(spawnChild("worker", process.execPath, ["--import", "tsx", workerFile], { cwd: root, repeatTermAfterMs: 5000 }));
     else log("no workers/queue-worker.ts in this checkout: queued jobs wait until a worker runs");
 
     for (const ch of children) {

@@ -105,13 +105,15 @@ export async function startApp(opts: StartAppOptions = {}): Promise<RunningApp> 
     delete childEnv.VITEST;
     delete childEnv.VITEST_POOL_ID;
     delete childEnv.VITEST_WORKER_ID;
-    const tsx = path.join(root, "node_modules/.bin/tsx");
+    // node with tsx as a loader (not the tsx CLI, which may SIGKILL a child slow to take a signal)
+    const node = process.execPath;
+    const ts = (file: string) => ["--import", "tsx", file];
 
     let seed: SeedReport | null = null;
     if (opts.seed === false) {
-      await runStep("migrate", tsx, ["scripts/migrate.ts"], { env: childEnv, cwd: root, echo });
+      await runStep("migrate", node, ts("scripts/migrate.ts"), { env: childEnv, cwd: root, echo });
     } else {
-      const child = spawnChild("seed", tsx, ["scripts/seed.ts", "--json"], { env: childEnv, cwd: root, echo });
+      const child = spawnChild("seed", node, [...ts("scripts/seed.ts"), "--json"], { env: childEnv, cwd: root, echo });
       const { code } = await child.exited;
       await child.stop();
       if (code !== 0) throw new Error(`Seeding the e2e database failed:\n${child.recentOutput()}`);
@@ -126,7 +128,7 @@ export async function startApp(opts: StartAppOptions = {}): Promise<RunningApp> 
     });
     children.push(web);
     const withWorker = opts.worker !== false && fs.existsSync(workerFile);
-    if (withWorker) children.push(spawnChild("worker", tsx, [workerFile], { env: childEnv, cwd: root, echo, repeatTermAfterMs: 3000 }));
+    if (withWorker) children.push(spawnChild("worker", node, ts(workerFile), { env: childEnv, cwd: root, echo, repeatTermAfterMs: 3000 }));
 
     await waitForHealth(baseUrl, children, 60_000);
 

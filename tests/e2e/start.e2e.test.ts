@@ -157,7 +157,7 @@ describe("npm start", () => {
   });
 
   it("refuses a wrong variable with a message naming it, and exits 1", async () => {
-    const child = spawnChild("start", path.join(root, "node_modules/.bin/tsx"), ["scripts/start.ts", "--no-build"], {
+    const child = spawnChild("start", process.execPath, ["--import", "tsx", "scripts/start.ts", "--no-build"], {
       env: { ...env, PORT: "forty-three-ten" },
       cwd: root,
       echo: false,
