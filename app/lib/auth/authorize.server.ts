@@ -65,8 +65,32 @@ export async function requireUser(request: Request): Promise<SessionUser> {
   throw redirect(`/sign-in?redirectTo=${encodeURIComponent(url.pathname + url.search)}`);
 }
 
+// What each permission lets one do, in the words of the refusal ("Queueing a job is for …").
+const ACTION_WORDS: Record<Permission, string> = {
+  "read:project": "Reading projects",
+  "create:project": "Opening a project",
+  "create:model": "Uploading a model",
+  "read:model": "Reading models",
+  "create:job": "Queueing a job",
+  "cancel:job:own": "Cancelling a job",
+  "cancel:job:any": "Cancelling someone else's job",
+  "review:job": "Reviewing a job",
+  "read:job": "Reading jobs",
+  "manage:users": "Managing people and roles",
+  "read:audit": "Reading the audit trail",
+  "manage:apikey:own": "Keeping API keys",
+  "manage:apikey:any": "Managing other people's API keys",
+};
+
+const orList = (items: string[]) => (items.length > 1 ? `${items.slice(0, -1).join(", ")} or ${items.at(-1)}` : (items[0] ?? "no"));
+
 function deniedMessage(user: SessionUser, permission: Permission): string {
-  return `This needs permission ${permission}; your role is ${user.role} (it is granted to ${rolesWith(permission).join(", ")})`;
+  const roles = rolesWith(permission);
+  // plain words first; the permission itself stays in for scripts and support
+  return (
+    `${ACTION_WORDS[permission]} is for the ${orList(roles)} role${roles.length > 1 ? "s" : ""} ` +
+    `(this needs permission ${permission}; your role is ${user.role})`
+  );
 }
 
 /** 403 with the reason as { error } JSON; a page's ErrorBoundary shows it as "403 Not allowed". */
