@@ -3,20 +3,14 @@
 import { spawnSync } from "node:child_process";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { findScipy } from "../../support/scipy";
 import type { DesignProblem } from "~/engine/design/problem";
 
 const script = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../python/slsqp_truss.py");
 
-let pythonFound: string | null | undefined;
 /** A python3 that imports scipy, or null (callers skip loudly). */
 export function scipyPython(): string | null {
-  if (pythonFound !== undefined) return pythonFound;
-  pythonFound = null;
-  for (const exe of ["/usr/bin/python3", "python3"]) {
-    const r = spawnSync(exe, ["-c", "import scipy, numpy"], { encoding: "utf8" });
-    if (r.status === 0) { pythonFound = exe; break; }
-  }
-  return pythonFound;
+  return findScipy()?.python ?? null;
 }
 
 export interface SlsqpOutcome {
