@@ -6,6 +6,8 @@ import { and, desc, eq } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
 import { models, projects } from "~/db/schema";
 import { parseModel } from "~/engine/truss";
+import { audit } from "~/lib/auth/audit.server";
+import type { SessionUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { getText, putObject, s3 } from "~/lib/storage.server";
@@ -277,4 +279,20 @@ function describe(c: string | undefined): string {
   if (c === undefined) return "the end of the file";
   if (c === "\n" || c === "\r") return "a line break";
   return `'${c}'`;
+}
+
+/** The audit record of an upload; the page and the API write the same one. */
+export async function auditUpload(
+  request: Request,
+  actor: SessionUser,
+  m: { id: string; projectId: string; name: string; fileName: string; sha256: string; sizeBytes: number },
+): Promise<void> {
+  await audit({
+    request,
+    actor,
+    action: "model.upload",
+    entityType: "model",
+    entityId: m.id,
+    detail: { projectId: m.projectId, name: m.name, fileName: m.fileName, sha256: m.sha256, sizeBytes: m.sizeBytes },
+  });
 }

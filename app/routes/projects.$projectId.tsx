@@ -8,13 +8,12 @@ import { EmptyState } from "~/components/ui/States";
 import { UploadBox, type UploadResult } from "~/components/ui/UploadBox";
 import { db } from "~/db/client.server";
 import { projects, user as users } from "~/db/schema";
-import { audit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { can } from "~/lib/auth/permissions";
 import { config } from "~/lib/config.server";
 import { notFound } from "~/lib/http.server";
 import { listJobs } from "~/lib/jobs/queue.server";
-import { listModels, storeModel, uploadTooLarge } from "~/lib/models.server";
+import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
 import type { Route } from "./+types/projects.$projectId";
 
 export function meta({ data }: Route.MetaArgs) {
@@ -60,15 +59,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const res = await storeModel({ projectId: params.projectId, fileName: file.name, bytes: new Uint8Array(await file.arrayBuffer()), user });
   if (!res.ok) return data<UploadResult>({ error: res.error, details: res.details }, { status: res.status });
   const m = res.model;
-  // the same audit record as an upload through the API
-  await audit({
-    request,
-    actor: user,
-    action: "model.upload",
-    entityType: "model",
-    entityId: m.id,
-    detail: { projectId: m.projectId, name: m.name, fileName: m.fileName, sha256: m.sha256, sizeBytes: m.sizeBytes },
-  });
+  await auditUpload(request, user, m);
   throw redirect(`/models/${m.id}`);
 }
 

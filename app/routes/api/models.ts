@@ -1,10 +1,9 @@
 // POST /api/models: upload a truss model (multipart: file, projectId); GET ?projectId= lists them.
 import { MaxFileSizeExceededError, parseFormData, type FileUpload } from "@mjackson/form-data-parser";
-import { audit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
-import { listModels, storeModel, uploadTooLarge } from "~/lib/models.server";
+import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
 import type { Route } from "./+types/models";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -48,14 +47,7 @@ export async function action({ request }: Route.ActionArgs) {
   const stored = await storeModel({ projectId: (projectId as string).trim(), fileName: file.name, bytes: file.bytes, user });
   if (!stored.ok) return jsonError(stored.status, stored.error, stored.details);
   const m = stored.model;
-  await audit({
-    request,
-    actor: user,
-    action: "model.upload",
-    entityType: "model",
-    entityId: m.id,
-    detail: { projectId: m.projectId, name: m.name, fileName: m.fileName, sha256: m.sha256, sizeBytes: m.sizeBytes },
-  });
+  await auditUpload(request, user, m);
   return Response.json({ id: m.id, name: m.name, sha256: m.sha256, summary: m.summary, warnings: m.warnings, projectId: m.projectId }, { status: 201 });
 
   function tooLarge() {
