@@ -188,6 +188,10 @@ describe("jobs API", () => {
     const ok = await call(cancel.action, post(engineer.key), { jobId: id });
     expect(ok.status).toBe(200);
     expect(await ok.json()).toMatchObject({ id, status: "cancelled" });
+    // the job says who cancelled it by name, not by account id
+    const { jobs } = await import("~/db/schema");
+    const [row] = await database.select().from(jobs).where(eq(jobs.id, id));
+    expect(row.error).toBe("Cancelled on request by Tamsin Grue (engineer)");
     expect((await call(cancel.action, post(engineer.key), { jobId: id })).status).toBe(409);
     expect((await call(cancel.action, post(engineer.key), { jobId: "no-such-job" })).status).toBe(404);
 

@@ -45,6 +45,8 @@ export interface JobView {
 
 export interface Actor {
   id: string;
+  /** shown in the cancel note of the job; the id stands in without it */
+  name?: string;
   role?: string;
   /** may cancel other people's jobs (permission cancel:job:any); admins by default */
   canCancelAny?: boolean;
@@ -264,7 +266,8 @@ export async function cancelJob(id: string, user: Actor | null, database: Db = d
 }
 
 export function cancelMessage(user: Actor | null): string {
-  return user ? `Cancelled on request (${user.role ?? "user"} ${user.id})` : "Cancelled on request";
+  if (!user) return "Cancelled on request";
+  return `Cancelled on request by ${user.name || `user ${user.id}`}${user.role ? ` (${user.role})` : ""}`;
 }
 
 /** The result JSON of a succeeded job; null while there is none. */

@@ -10,7 +10,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to cancel`);
   const user = await requirePermission(request, "cancel:job:own");
   // the submitter may; anyone else needs cancel:job:any (cancelJob answers 403 otherwise)
-  const job = await cancelJob(params.jobId, { id: user.id, role: user.role, canCancelAny: can(user.role, "cancel:job:any") });
+  const job = await cancelJob(params.jobId, { id: user.id, name: user.name, role: user.role, canCancelAny: can(user.role, "cancel:job:any") });
   await audit({ request, actor: user, action: "job.cancel", entityType: "job", entityId: job.id, detail: { status: job.status } });
   return Response.json({ id: job.id, status: job.status, cancelRequested: job.cancelRequested });
 }
