@@ -59,6 +59,11 @@ async function jobFacts(jobId: string): Promise<JobFacts | null> {
   };
 }
 
+/** " · job 1a2b3c4d": a study queues many runs of one model, so subjects tell them apart. */
+function jobTag(jobId: string): string {
+  return ` · job ${jobId.slice(0, 8)}`;
+}
+
 export function jobLink(jobId: string): string {
   return `${config().APP_URL.replace(/\/+$/, "")}/jobs/${encodeURIComponent(jobId)}`;
 }
@@ -148,7 +153,7 @@ export async function notifyJobFinished(jobId: string): Promise<void> {
     let paragraphs: string[];
     if (j.status === "succeeded") {
       const outcome = j.outcome ?? "optimal";
-      subject = `Job finished: ${j.modelName} (${outcome})`;
+      subject = `Job finished: ${j.modelName} (${outcome})${jobTag(j.id)}`;
       paragraphs = [`Your optimization run of "${j.modelName}" has finished: ${OUTCOME_WORDS[outcome] ?? outcome}.`];
       const s = j.summary;
       if (s) {
@@ -157,10 +162,10 @@ export async function notifyJobFinished(jobId: string): Promise<void> {
       }
       paragraphs.push("A checker still has to review it before the report is approved.");
     } else if (j.status === "failed") {
-      subject = `Job failed: ${j.modelName}`;
+      subject = `Job failed: ${j.modelName}${jobTag(j.id)}`;
       paragraphs = [`Your optimization run of "${j.modelName}" failed.`, j.error ? `Reason: ${j.error}` : "No reason was recorded."];
     } else {
-      subject = `Job cancelled: ${j.modelName}`;
+      subject = `Job cancelled: ${j.modelName}${jobTag(j.id)}`;
       paragraphs = [`Your optimization run of "${j.modelName}" was cancelled before it finished.`];
     }
     await sendMail(
@@ -196,7 +201,7 @@ export async function notifyReviewWaiting(jobId: string): Promise<void> {
         sendMail(
           composeMail({
             to: email,
-            subject: `Review waiting: ${j.modelName}`,
+            subject: `Review waiting: ${j.modelName}${jobTag(j.id)}`,
             greeting: "Hello,",
             paragraphs: [
               `${by} has finished an optimization run of "${j.modelName}" and it is waiting for an independent check.`,
@@ -238,7 +243,7 @@ export async function notifyDecision(reviewId: string): Promise<void> {
     await sendMail(
       composeMail({
         to: j.submitter.email,
-        subject: approved ? `Approved: ${j.modelName}` : `Changes requested: ${j.modelName}`,
+        subject: `${approved ? "Approved" : "Changes requested"}: ${j.modelName}${jobTag(j.id)}`,
         greeting: `Hello ${j.submitter.name || j.submitter.email},`,
         paragraphs: [
           approved

@@ -44,7 +44,7 @@ describe("notifyJobFinished", () => {
     const mails = await inbox();
     expect(mails).toHaveLength(1);
     expect(mails[0]!.to).toEqual(["ines.okafor@brightspan.example"]);
-    expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (optimal)");
+    expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (optimal) · job job-ok-0");
     expect(mails[0]!.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
     expect(mails[0]!.text).toContain("0.412 → 0.287");
     expect(mails[0]!.html).toContain('href="http://desk.example.test:4450/jobs/job-ok-001"');
@@ -54,7 +54,7 @@ describe("notifyJobFinished", () => {
     await notify.notifyJobFinished("job-bad-002");
     const [mail] = await inbox();
     expect(mail!.to).toEqual(["ines.okafor@brightspan.example"]);
-    expect(mail!.subject).toBe("Job failed: Canopy truss, option C");
+    expect(mail!.subject).toBe("Job failed: Canopy truss, option C · job job-bad-");
     expect(mail!.text).toContain("node D can move freely in y");
     expect(mail!.text).toContain("http://desk.example.test:4450/jobs/job-bad-002");
   });
@@ -67,7 +67,7 @@ describe("notifyReviewWaiting", () => {
     const to = mails.flatMap((m) => m.to).sort();
     expect(to).toEqual(["mara.e@brightspan.example", "priya.v@brightspan.example", "tomasz.reveillon@brightspan.example"]);
     for (const m of mails) {
-      expect(m.subject).toBe("Review waiting: Canopy truss, option C");
+      expect(m.subject).toBe("Review waiting: Canopy truss, option C · job job-ok-0");
       expect(m.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
       expect(m.text).toContain("Ines Okafor");
     }
@@ -86,7 +86,7 @@ describe("notifyDecision", () => {
     await notify.notifyDecision("rev-a");
     const [mail] = await inbox();
     expect(mail!.to).toEqual(["ines.okafor@brightspan.example"]);
-    expect(mail!.subject).toBe("Approved: Canopy truss, option C");
+    expect(mail!.subject).toBe("Approved: Canopy truss, option C · job job-ok-0");
     expect(mail!.text).toContain("Tomasz Réveillon");
     expect(mail!.text).toContain("Chord groups checked by hand; fine.");
     expect(mail!.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
@@ -96,7 +96,7 @@ describe("notifyDecision", () => {
     await rows.insertReview("rev-b", "job-ok-001", "u-chk2", "changes-requested", "Add the snow drift case <LC3>.", new Date("2026-11-30T15:00:00Z"));
     await notify.notifyDecision("rev-b");
     const [mail] = await inbox();
-    expect(mail!.subject).toBe("Changes requested: Canopy truss, option C");
+    expect(mail!.subject).toBe("Changes requested: Canopy truss, option C · job job-ok-0");
     expect(mail!.text).toContain("Add the snow drift case <LC3>.");
     expect(mail!.html).toContain("Add the snow drift case &lt;LC3&gt;.");
   });
