@@ -5,6 +5,7 @@ import { apiKeySchema, fieldErrors, formObject } from "~/lib/auth/forms";
 import { ROLE_LABELS } from "~/lib/auth/permissions";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/account";
+import { RouteError } from "~/components/ui/RouteError";
 
 export function meta() {
   return [{ title: "Your account — Strutwise" }];
@@ -116,4 +117,9 @@ export default function Account({ loaderData }: Route.ComponentProps) {
       </div>
     </section>
   );
+}
+
+// errors render inside the shell, so the navigation stays
+export function ErrorBoundary() {
+  return <RouteError what="account page" />;
 }

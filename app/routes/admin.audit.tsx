@@ -2,6 +2,7 @@ import { Form, Link, useSearchParams } from "react-router";
 import { listAudit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import type { Route } from "./+types/admin.audit";
+import { RouteError } from "~/components/ui/RouteError";
 
 export function meta() {
   return [{ title: "Audit trail — Strutwise" }];
@@ -99,4 +100,9 @@ export default function AdminAudit({ loaderData }: Route.ComponentProps) {
       {nextBefore && <p className="mt-4"><Link to={`?${next}`} className="btn btn-secondary">Older entries</Link></p>}
     </section>
   );
+}
+
+// errors render inside the shell, so the navigation stays
+export function ErrorBoundary() {
+  return <RouteError what="audit trail" />;
 }

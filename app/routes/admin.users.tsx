@@ -6,6 +6,7 @@ import { ROLE_LABELS, ROLES } from "~/lib/auth/permissions";
 import { changeRole, inviteUser, listOpenInvitations, listUsers, setBanned } from "~/lib/auth/users.server";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/admin.users";
+import { RouteError } from "~/components/ui/RouteError";
 
 export function meta() {
   return [{ title: "People and roles — Strutwise" }];
@@ -153,4 +154,9 @@ export default function AdminUsers({ loaderData }: Route.ComponentProps) {
       </div>
     </section>
   );
+}
+
+// errors render inside the shell, so the navigation stays
+export function ErrorBoundary() {
+  return <RouteError what="list of people" />;
 }

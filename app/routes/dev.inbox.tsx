@@ -4,6 +4,7 @@
 import { forbidden, requireUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
 import type { Route } from "./+types/dev.inbox";
+import { RouteError } from "~/components/ui/RouteError";
 
 export function meta() {
   return [{ title: "Development inbox — Strutwise" }];
@@ -100,4 +101,9 @@ export default function DevInbox({ loaderData }: Route.ComponentProps) {
       )}
     </section>
   );
+}
+
+// errors render inside the shell, so the navigation stays
+export function ErrorBoundary() {
+  return <RouteError what="inbox" />;
 }

@@ -11,6 +11,7 @@ import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { listProjects } from "~/lib/auth/projects.server";
 import { listJobs } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/home";
+import { RouteError } from "~/components/ui/RouteError";
 
 export function meta(_: Route.MetaArgs) {
   return [{ title: "Strutwise — truss optimization desk" }];
@@ -149,4 +150,9 @@ function Welcome() {
       </div>
     </section>
   );
+}
+
+// errors render inside the shell, so the navigation stays
+export function ErrorBoundary() {
+  return <RouteError what="desk" />;
 }

@@ -252,7 +252,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       {files.error ? (
         <ErrorNote title="The 3D view and tables could not be loaded">{files.error}</ErrorNote>
       ) : topology && (result || !head) ? (
-        <TrussViewer model={topology} result={result} title={result ? "Optimized truss" : "Initial geometry"} />
+        <TrussViewer key={result ? "result" : "initial"} model={topology} result={result} title={result ? "Optimized truss" : "Initial geometry"} />
       ) : (
         <div className="card flex h-[26rem] items-center justify-center sm:h-[32rem]" data-testid="truss-viewer-loading">
           <LoadingNote>Loading the geometry{head ? ` and the result of ${head.memberCount} members` : ""}…</LoadingNote>

@@ -6,6 +6,7 @@ import { can } from "~/lib/auth/permissions";
 import { createProject, listProjects } from "~/lib/auth/projects.server";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/projects._index";
+import { RouteError } from "~/components/ui/RouteError";
 
 export function meta() {
   return [{ title: "Projects — Strutwise" }];
@@ -134,4 +135,9 @@ export default function Projects({ loaderData }: Route.ComponentProps) {
       </div>
     </section>
   );
+}
+
+// errors render inside the shell, so the navigation stays
+export function ErrorBoundary() {
+  return <RouteError what="project list" />;
 }

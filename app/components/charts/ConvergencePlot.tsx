@@ -47,6 +47,8 @@ export function ConvergencePlot({
 
   const its = history.map((h) => h.iteration);
   const x = linearScale([Math.min(...its), Math.max(...its, Math.min(...its) + 1)], [M.left, width - M.right], Math.max(2, Math.floor(width / 90)));
+  // iterations are whole numbers: no tick between two of them
+  x.ticks = x.ticks.filter((t) => Number.isInteger(t));
   const top: [number, number] = [M.top + PANEL_H, M.top];
   const bottom: [number, number] = [M.top + 2 * PANEL_H + GAP, M.top + PANEL_H + GAP];
   const yObj = linearScale(history.map((h) => h.objective ?? NaN), top, 4);
