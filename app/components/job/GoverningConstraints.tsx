@@ -23,7 +23,9 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
           unit: "",
           sentence: `Relaxing the ${describeConstraint(a.id)} by one unit would change the ${result.objective.kind} by about ${fmtSci(a.multiplier)}.`,
         }));
-  rows.sort((a, b) => Math.abs(b.multiplier) - Math.abs(a.multiplier));
+  // shadow prices come ranked by the engine on a unit-free scale; raw multipliers of different
+  // units cannot be compared, so only the fallback list is ordered here
+  if (!result.shadowPrices?.length) rows.sort((a, b) => Math.abs(b.multiplier) - Math.abs(a.multiplier));
   if (rows.length === 0)
     return <EmptyState title="No limit is active">At this design no limit is binding; the area bounds or the objective alone decide the sizes.</EmptyState>;
   const shown = rows.slice(0, limit);
