@@ -13,6 +13,13 @@ import { simultaneousFormulation } from "./simultaneous";
 import { reanalyze, VERIFY_TOLERANCE } from "./verify";
 import { activeConstraints, priceConstraints, shadowPrices } from "./shadow-prices";
 
+const DESIGN_HINTS: Partial<Record<SolverStatus, string>> = {
+  "not-converged":
+    "Raise the iteration cap, start from areas closer to the expected sizes, or try the other formulation; the best design found is shown and re-checked below.",
+  infeasible:
+    "No design within the area bounds meets every limit: widen the area bounds (a larger maximum), relax the governing deflection or stress limit, or add members or supports.",
+};
+
 export const SOLVER_NAME = "strutwise-sqp";
 export const ENGINE_VERSION = "1.0.0";
 
@@ -91,7 +98,8 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
 
   let status: SolverStatus = r.status;
   let message = r.message;
-  let hint = r.hint;
+  // the solver's hints speak of functions and gradients; the engineer needs them in truss terms
+  let hint = DESIGN_HINTS[r.status] ?? r.hint;
   if (status === "optimal" && !re.verification.allLimitsMet) {
     const f = re.verification.failures[0];
     status = "not-converged";
