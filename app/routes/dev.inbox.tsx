@@ -3,21 +3,12 @@
 // when NODE_ENV is "development", where the mail is all test traffic of the demo accounts.
 import { forbidden, requireUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
+import type { CaughtMail } from "../../local-services/mail-catcher";
 import type { Route } from "./+types/dev.inbox";
 import { RouteError } from "~/components/ui/RouteError";
 
 export function meta() {
   return [{ title: "Development inbox — Strutwise" }];
-}
-
-interface CaughtMail {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  html?: string;
 }
 
 export async function loader({ request }: Route.LoaderArgs) {
