@@ -16,7 +16,7 @@ describe("Hock-Schittkowski table itself", () => {
     expect(hockSchittkowski.map((p) => p.id)).toContain("HS071");
   });
 
-  // guards the transcription: hand-derived gradients against central differences at x0
+  // guards the problem table: hand-derived gradients against central differences at x0
   it.each(hockSchittkowski.map((p) => [p.id, p] as const))("%s gradients match central differences", (_id, p) => {
     const x = p.x0.map((v, i) => v + 0.1 * (i + 1)); // off the start point, so zeros do not hide errors
     const check = (fn: string, dfn: string[]) => {

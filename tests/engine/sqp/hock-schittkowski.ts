@@ -1,6 +1,5 @@
 // Problems of the Hock-Schittkowski collection: W. Hock and K. Schittkowski (1981), "Test
-// Examples for Nonlinear Programming Codes", Lecture Notes in Economics and Mathematical
-// Systems 187, Springer. Functions, start points, bounds and optimal values are written here
+// Examples for Nonlinear Programming Codes", Springer (monograph series volume 187). Functions, start points, bounds and optimal values are written here
 // from memory of that publication; every optimum is re-checked against scipy's SLSQP in
 // slsqp-crosscheck.test.ts whenever python3 with scipy is present.
 //
@@ -8,7 +7,7 @@
 // exp, log, sqrt, pi) so that the SAME table drives our solver and tests/python/slsqp_hs.py.
 // Constraints follow the publication's form: eq = 0, ineq >= 0 (the adapter negates them into
 // the solver's ineq <= 0 convention). Gradients are hand-derived; hs-table.test.ts checks each
-// one against central differences so a transcription slip cannot hide.
+// one against central differences so a slip in writing them down cannot hide.
 import type { SqpProblem } from "~/engine/sqp";
 
 export interface HsProblem {
