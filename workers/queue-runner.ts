@@ -274,8 +274,15 @@ export class QueueRunner {
     const { port1, port2 } = new MessageChannel();
     port1.on("message", (p: ProgressPoint) => recorder.push(p));
     const input: SolveTaskInput = { jobId: job.id, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2 };
+    // the task closes its end when it returns; progress and the result travel on different
+    // ports, so wait for that close (all progress delivered) before the result is recorded
+    const drained = new Promise<void>((resolve) => port1.once("close", () => resolve()));
     try {
-      return (await this.o.pool.run(input, { transferList: [port2] as never, signal })) as SolveTaskOutput;
+      const out = (await this.o.pool.run(input, { transferList: [port2] as never, signal })) as SolveTaskOutput;
+      let timer: NodeJS.Timeout | undefined;
+      await Promise.race([drained, new Promise<void>((r) => (timer = setTimeout(r, 2000)))]);
+      clearTimeout(timer);
+      return out;
     } finally {
       port1.close();
     }
