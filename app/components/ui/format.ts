@@ -10,16 +10,31 @@ export function fmtNum(value: number | null | undefined, digits = 4): string {
   const text = value.toPrecision(digits);
   // toPrecision may itself switch to exponent form for large integers
   if (text.includes("e")) return Number(text).toLocaleString("en-US", { maximumFractionDigits: 0 });
-  const n = Number(text);
-  const decimals = text.includes(".") ? text.split(".")[1]!.length : 0;
-  return n.toLocaleString("en-US", { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
+  return grouped(text);
 }
 
-/** Residuals and violations span many decades: always exponent form. */
+/**
+ * Residuals, violations and multipliers span many decades. Between 1e-3 and 1e4 they read in
+ * plain notation ("0.0452", "6.12", "1,235"); outside it in exponent form with the same
+ * significant digits ("6.12e-7", "3.40e5"), never "e0" or "e+". `digits` are the mantissa's
+ * decimals, so the default shows three significant digits.
+ */
 export function fmtSci(value: number | null | undefined, digits = 2): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "–";
   if (value === 0) return "0";
-  return value.toExponential(digits).replace("e+", "e");
+  // the range is decided on the rounded value, so 9999.7 becomes "1.00e4", not "10,000"
+  const rounded = Math.abs(Number(value.toExponential(digits)));
+  if (rounded < 1e-3 || rounded >= 1e4) return value.toExponential(digits).replace("e+", "e");
+  // plain: the significant digits asked for; a value with more integer digits than that
+  // keeps them all (toPrecision would switch to exponent form there)
+  const text = value.toPrecision(digits + 1);
+  return grouped(text.includes("e") ? String(Math.round(value)) : text);
+}
+
+/** A plain decimal text with thousands separators, keeping its decimals (trailing zeros too). */
+function grouped(text: string): string {
+  const decimals = text.includes(".") ? text.split(".")[1]!.length : 0;
+  return Number(text).toLocaleString("en-US", { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
 }
 
 /** A ratio shown as a percentage (utilization 0.953 → "95.3 %"). */

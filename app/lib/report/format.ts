@@ -1,5 +1,7 @@
 // Number and date formatting for the report: significant figures, a true minus sign, and UTC
 // timestamps so a printed record reads the same wherever it is opened.
+import { fmtSci } from "~/components/ui/format";
+
 const MINUS = "−";
 
 export function num(v: number | null | undefined, sig = 4): string {
@@ -18,12 +20,11 @@ export function num(v: number | null | undefined, sig = 4): string {
   return s.replace(/^-/, MINUS);
 }
 
-/** Small residuals and violations: always scientific, three figures. */
+/** Residuals, violations and multipliers, three figures: the pages' rule (plain from 1e-3 to 1e4, else "6.12e-7"). */
 export function sci(v: number | null | undefined): string {
   if (v === null || v === undefined) return "–";
   if (!Number.isFinite(v)) return num(v);
-  if (v === 0) return "0";
-  return v.toExponential(2).replace("e+", "e").replace(/^-/, MINUS);
+  return fmtSci(v).replace(/^-/, MINUS);
 }
 
 export function pct(ratio: number): string {
