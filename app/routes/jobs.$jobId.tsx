@@ -7,6 +7,7 @@ import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
 import { OutcomePanel } from "~/components/job/OutcomePanel";
 import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
 import { ReviewForm, ReviewHistory, type ReviewActionData } from "~/components/job/ReviewPanel";
+import { latestDecision, reportLinkLabel } from "~/components/job/review-words";
 import { useJobFiles } from "~/components/job/useJobFiles";
 import { Cautions } from "~/components/ui/Cautions";
 import { fmtDateTime, fmtDuration, fmtNum, fmtPercent, fmtSci } from "~/components/ui/format";
@@ -161,7 +162,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
   const [shownStatus, setShownStatus] = useState<string>(job.status);
   useEffect(() => setShownStatus(job.status), [job.status]);
   const objectiveLabel = head?.objective.kind ?? (job.options.objective as string | undefined) ?? "objective";
-  const current = reviews.at(-1);
+  const current = latestDecision(reviews);
   const topo = useMemo<Topology>(
     () => ({
       members: new Map((topology?.members ?? []).map((m) => [m.id, { start: m.start, end: m.end, group: m.group }])),
@@ -339,7 +340,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             {job.status === "succeeded" && (
               <li>
                 <a className="text-info hover:underline" href={`/api/jobs/${job.id}/report`} data-testid="download-report">
-                  Calculation report (PDF){current?.decision === "approved" ? "" : " — marked not reviewed"}
+                  {reportLinkLabel(current?.decision)}
                 </a>
               </li>
             )}

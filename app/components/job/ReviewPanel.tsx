@@ -1,16 +1,21 @@
 // The checker's decision on a finished job, and the decisions so far. Decisions are
 // append-only: a new one supersedes the last, none is edited (product.md, step 4).
+import { useEffect, useRef } from "react";
 import { useFetcher } from "react-router";
 import { fmtDateTime } from "~/components/ui/format";
 import { ReviewBadge } from "~/components/ui/StatusBadge";
 import { EmptyState, ErrorNote } from "~/components/ui/States";
+import { formShouldReset } from "./review-words";
 import type { ReviewView } from "./types";
 
 export function ReviewHistory({ reviews }: { reviews: ReviewView[] }) {
   if (reviews.length === 0) return <EmptyState title="Not reviewed yet">A checker other than the submitter signs the result off here.</EmptyState>;
   return (
     <ol className="space-y-3" data-testid="review-history">
+      {/* newest first; reversed before the (stable) sort so that of two decisions in the
+          same millisecond the later recorded one leads */}
       {[...reviews]
+        .reverse()
         .sort((a, b) => new Date(b.createdAt).getTime() - new Date(a.createdAt).getTime())
         .map((r, i) => (
           <li key={r.id} className={`rounded-md border border-rule px-3 py-2 ${i > 0 ? "opacity-80" : ""}`}>
@@ -37,8 +42,14 @@ export function ReviewForm() {
   const fetcher = useFetcher<ReviewActionData>();
   const busy = fetcher.state !== "idle";
   const errs = fetcher.data?.fieldErrors ?? {};
+  const form = useRef<HTMLFormElement>(null);
+  // a recorded decision empties the form (the list above now shows it); a refused one keeps
+  // the choice and the comment, uncontrolled inputs keep them by themselves
+  useEffect(() => {
+    if (formShouldReset(fetcher.state, fetcher.data)) form.current?.reset();
+  }, [fetcher.state, fetcher.data]);
   return (
-    <fetcher.Form method="post" className="space-y-3" aria-label="Review this result" data-testid="review-form">
+    <fetcher.Form ref={form} method="post" className="space-y-3" aria-label="Review this result" data-testid="review-form">
       <input type="hidden" name="intent" value="review" />
       <fieldset>
         <legend className="field-label">Decision</legend>

@@ -1,5 +1,7 @@
 // Job status and solver outcome as a small coloured label. The words are the API's own
 // status values, so what a script reads is what the page shows.
+import { reviewStateWords } from "~/components/job/review-words";
+
 const JOB_STYLE: Record<string, string> = {
   queued: "bg-paper-sunk text-ink-soft",
   running: "bg-info-wash text-info",
@@ -29,10 +31,10 @@ export function OutcomeBadge({ outcome }: { outcome: string | null | undefined }
 }
 
 export function ReviewBadge({ decision }: { decision: string | null | undefined }) {
-  if (!decision) return <span className="badge bg-paper-sunk text-ink-muted">not reviewed</span>;
-  return decision === "approved" ? (
-    <span className="badge bg-ok-wash text-ok">approved</span>
-  ) : (
-    <span className="badge bg-warn-wash text-warn">changes requested</span>
+  const style = decision === "approved" ? "bg-ok-wash text-ok" : decision === "changes-requested" ? "bg-warn-wash text-warn" : "bg-paper-sunk text-ink-muted";
+  return (
+    <span className={`badge ${style}`} data-review={decision ?? "none"}>
+      {reviewStateWords(decision)}
+    </span>
   );
 }
