@@ -12,7 +12,7 @@ import { Partials, limitPartials, limitValue, massPartials, objectiveValue, toDe
 import { designState, type DesignProblem } from "./problem";
 
 export interface Counters {
-  analyses: number; // stiffness factorizations (nested) or equilibrium evaluations (simultaneous)
+  analyses: number; // stiffness factorizations: one per evaluation (nested), one per iterate (simultaneous)
   solves: number; // adjoint solves with an existing factorization
 }
 

@@ -240,7 +240,9 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
     model, structure: s, objective, formulation, areaVars, shapeVars, memberVar, dofShape,
     shapeMembers: Int32Array.from(shapeMemberList), limits, buckling, coords0, lengths0, nDesign,
     x0, lower, upper,
-    maxIterations: options.maxIterations ?? design.solver?.maxIterations ?? 200,
+    // the active bound set of a ground structure settles a few members per iteration, so the
+    // default budget grows with the design variable count
+    maxIterations: options.maxIterations ?? design.solver?.maxIterations ?? Math.min(20000, Math.max(200, 4 * nDesign)),
     tolerance: options.tolerance ?? design.solver?.tolerance ?? 1e-6,
   };
 }

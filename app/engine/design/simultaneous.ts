@@ -14,11 +14,16 @@
 //   members meeting at q: about (members per node) x (2 dim + 1) entries. The sparsity
 //   pattern is fixed, built once, and refilled by one element loop per evaluation, so the cost
 //   of an evaluation grows with the member count, never with the square of the dof count.
-// Curvature: the SQP solver's quasi-Newton update (options.hessian, limited memory for large
-//   models) learns the bilinear (A, u) coupling; nothing in this module stores a dense matrix.
+// Steps: equilibrium is declared to the solver as state equations (SqpProblem.stateEquations):
+//   d(eq)/dw is the free-dof stiffness matrix times u_ref,l / f_ref,l, block diagonal over load
+//   cases with one K, so the solver takes null-space steps (sqp/reduced-space.ts): one sparse
+//   factorization of K per iterate, the displacement part of each step from solves with it,
+//   and the quasi-Newton matrix only over the design variables, where the curvature is unknown.
+//   The displacements stay optimization variables: equilibrium holds only to first order along
+//   the way and exactly at the end. Nothing in this module stores a dense matrix.
 // Start: the displacements of one stiffness analysis at the starting design, so the first
 //   iterate is in equilibrium and the limit values start exactly as in the nested formulation.
-import { analyze } from "../truss";
+import { analyze, factorStiffness } from "../truss";
 import type { SparseRow, SqpProblem } from "../sqp";
 import { internalForceByGeometry, memberLengths } from "./element";
 import { Partials, limitPartials, limitValue, massPartials, objectiveValue, type LimitState } from "./limits";
@@ -177,7 +182,6 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     nEq: nLc * nFree,
     nIneq: p.limits.length,
     evaluate(z) {
-      counters.analyses++;
       const st = stateAt(z);
       const eq = new Float64Array(nLc * nFree);
       for (let l = 0; l < nLc; l++) {
@@ -285,6 +289,29 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
         ineq.push(sparseFrom(map));
       }
       return { grad, eq, ineq };
+    },
+    stateEquations: {
+      nDesign: nD,
+      factor(z) {
+        const { areas, coords } = designState(p, z);
+        const K = factorStiffness(s, areas, coords);
+        counters.analyses++;
+        // K is symmetric, so the transposed solve is the same solve
+        const solve = (rhs: Float64Array): Float64Array => {
+          const out = new Float64Array(nLc * nFree);
+          const full = new Float64Array(nDof);
+          for (let l = 0; l < nLc; l++) {
+            const off = l * nFree;
+            for (let k = 0; k < nFree; k++) full[freeDofs[k]] = rhs[off + k];
+            const u = K.solve(full);
+            counters.solves++;
+            const c = fRef[l] / uRef[l];
+            for (let k = 0; k < nFree; k++) out[off + k] = u[freeDofs[k]] * c;
+          }
+          return out;
+        };
+        return { solve, solveTransposed: solve };
+      },
     },
     names: {
       variables: [

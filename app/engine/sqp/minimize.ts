@@ -31,17 +31,20 @@
 // Every iterate is inside the bounds (x0 is projected, trial points are clipped).
 import { DenseBfgs } from "./dense-bfgs";
 import { type QpHessian, type QpInput, type QpOutput, qpKey, solveQp } from "./dual-qp";
-import type { HessianApprox, ReducedInverse } from "./hessian";
+import { elasticHessian } from "./elastic";
+import type { HessianApprox } from "./hessian";
 import { dot } from "./hessian";
 import { leastSquaresMultipliers } from "./least-squares-multipliers";
 import { LimitedBfgs } from "./limited-bfgs";
 import { type StopReason, describeStop } from "./messages";
+import { checkStateEquations, reduceVector, scaledStateFactor, solveReducedQp, type ScaledStateFactor } from "./reduced-space";
 import { type QpRow, rowDot } from "./rows";
 import { type ScaledDerivatives, type ScaledPoint, ScaledProblem } from "./scaled-problem";
 import type { SqpHistoryEntry, SqpOptions, SqpProblem, SqpResult } from "./types";
 
-const ELASTIC_WEIGHT = 1e6;
 const ARMIJO = 1e-4;
+/** scaled l1 violation below which a point counts as feasible to rounding in the line search */
+const FEASIBLE_NOISE = 1e-11;
 
 function abortError(): Error {
   const e = new Error("The optimization was cancelled.");
@@ -143,8 +146,43 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   for (let j = 0; j < n; j++) x[j] = x0[j] / sp.d[j];
   clip(x);
 
-  const hessianKind = options.hessian ?? (n <= 400 ? "bfgs" : "lbfgs");
-  const B: HessianApprox = hessianKind === "bfgs" ? new DenseBfgs(n) : new LimitedBfgs(n, Math.max(1, options.memory ?? 10));
+  // null-space steps when the equalities are declared state equations (reduced-space.ts):
+  // B then approximates the reduced Hessian over the nD design variables
+  const stateEq = problem.stateEquations && options.reducedSpace !== false ? problem.stateEquations : null;
+  if (stateEq) {
+    const bad = checkStateEquations(stateEq, n, nEq, lower, upper, (j) => problem.names?.variables?.[j] ?? `x[${j}]`);
+    if (bad) {
+      const { message, hint } = describeStop({ kind: "failed", what: bad });
+      return {
+        status: "failed", message, hint, x: x0, f: 0, eq: new Float64Array(nEq), ineq: new Float64Array(nIneq),
+        multipliers: emptyResult(n, nEq, nIneq), iterations: 0, evaluations: 0, derivativeEvaluations: 0,
+        kktResidual: Infinity, maxViolation: Infinity, history,
+      };
+    }
+  }
+  const nB = stateEq ? stateEq.nDesign : n;
+  const hessianKind = options.hessian ?? (nB <= 400 ? "bfgs" : "lbfgs");
+  const B: HessianApprox = hessianKind === "bfgs" ? new DenseBfgs(nB) : new LimitedBfgs(nB, Math.max(1, options.memory ?? 10));
+  /** B s over the variables B covers (the design part in reduced space), zero elsewhere */
+  const modelHessianTimes = (v: Float64Array): Float64Array => {
+    const out = new Float64Array(n);
+    const o = new Float64Array(nB);
+    B.applyB(Float64Array.from(v.subarray(0, nB)), o);
+    out.set(o);
+    return out;
+  };
+  // the state Jacobian's factor at the current iterate, made once per iterate
+  let stateFactor: { at: Float64Array; factor: ScaledStateFactor } | null = null;
+  const stateFactorAt = (xs: Float64Array): ScaledStateFactor | string => {
+    if (stateFactor?.at === xs) return stateFactor.factor;
+    try {
+      stateFactor = { at: xs, factor: scaledStateFactor(sp, stateEq!, xs) };
+      return stateFactor.factor;
+    } catch (e) {
+      if (e instanceof Error && e.name === "AbortError") throw e;
+      return `The state equations could not be factored at ${sp.describePoint(xs)}: ${e instanceof Error ? e.message : String(e)}`;
+    }
+  };
   let updatesSinceReset = 0;
 
   // ---------- result assembly ----------
@@ -234,7 +272,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
 
   // least-squares multipliers at the start, for the rows active there
   const lsMult = emptyResult(n, nEq, nIneq);
-  {
+  if (!stateEq) {
     const rows: QpRow[] = [];
     const tags: [kind: number, i: number][] = [];
     const nearTol = Math.max(tol, 1e-6);
@@ -254,6 +292,15 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       else if (kind === 2) lsMult.lower[i] = Math.max(0, lam[k]);
       else lsMult.upper[i] = Math.max(0, lam[k]);
     });
+  }
+  if (stateEq) {
+    // multipliers of the state equations from stationarity in the states (exact, one solve)
+    const fac = stateFactorAt(x);
+    if (typeof fac === "string") return failed(fac, { x, pt, mult: emptyResult(n, nEq, nIneq), kkt: Infinity }, 0);
+    lsMult.ineq.fill(0);
+    lsMult.lower.fill(0);
+    lsMult.upper.fill(0);
+    lsMult.eq.set(fac.solveTransposed(Float64Array.from(dv.g.subarray(nB, n))).map((v) => -v));
   }
   let mult: Multipliers = lsMult;
   let kkt = kktAt(pt, dv, lsMult, x);
@@ -318,6 +365,23 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     return { dim, base: n, hessian, g, eq, eqRhs, ineq, ineqRhs, lower, upper, warm };
   };
 
+  /** The subproblem at x: the full QP, or its null-space form with state equations. */
+  const subproblem = (rowsIn: Int32Array, elastic: boolean): QpOutput | string => {
+    if (!stateEq) return solveQp(buildQp(rowsIn, pt.ce, pt.ci, elastic));
+    const factor = stateFactorAt(x);
+    if (typeof factor === "string") return factor;
+    const lowerStep = new Float64Array(nB);
+    const upperStep = new Float64Array(nB);
+    for (let j = 0; j < nB; j++) {
+      lowerStep[j] = lo[j] - x[j];
+      upperStep[j] = hi[j] - x[j];
+    }
+    return solveReducedQp({
+      nDesign: nB, n, factor, dv, ce: pt.ce, ci: pt.ci, rowsIn, B, lowerStep, upperStep,
+      warmIneq, warmLower, warmUpper, elastic,
+    });
+  };
+
   const toMultipliers = (qp: QpOutput, rowsIn: Int32Array): Multipliers => {
     const m = emptyResult(n, nEq, nIneq);
     m.eq.set(qp.eq);
@@ -358,10 +422,14 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     let trialFullX: Float64Array | null = null;
     for (;;) {
       elastic = false;
-      qp = solveQp(buildQp(rowsIn, pt.ce, pt.ci, false));
+      const solved = subproblem(rowsIn, false);
+      if (typeof solved === "string") return failed(solved, { x, pt, mult, kkt }, iteration);
+      qp = solved;
       if (qp.status === "infeasible") {
         elastic = true;
-        qp = solveQp(buildQp(rowsIn, pt.ce, pt.ci, true));
+        const relaxed = subproblem(rowsIn, true);
+        if (typeof relaxed === "string") return failed(relaxed, { x, pt, mult, kkt }, iteration);
+        qp = relaxed;
       }
       s = qp.s.subarray(0, n);
       xi = elastic ? qp.s[n] : 0;
@@ -372,8 +440,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       // merit parameters
       const viol0 = l1Violation(pt);
       const linViol = linearizedViolation(s, rowsIn);
-      const bs = new Float64Array(n);
-      B.applyB(Float64Array.from(s), bs);
+      const bs = modelHessianTimes(s);
       const gs = dot(dv.g, s, n);
       const sBs = dot(s, bs, n);
       // elastic multipliers carry the relaxation weight, not the problem's prices: only the
@@ -463,7 +530,12 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
           // itself; then a step that does not visibly increase phi is taken as is
           const noise = 1e-14 * (1 + Math.abs(info.phi0));
           const belowNoise = -info.D <= 10 * noise && phi <= info.phi0 + noise;
-          if (phi <= info.phi0 + ARMIJO * alpha * info.D || belowNoise) {
+          // both points feasible to rounding: the penalty term is noise times rho (large when
+          // some multiplier is), so the objective alone decides
+          const violTrial = l1Violation(trial);
+          const roundingFeasible = info.viol0 <= FEASIBLE_NOISE && violTrial <= FEASIBLE_NOISE;
+          const objectiveDecides = roundingFeasible && trial.f <= pt.f + ARMIJO * alpha * info.D + 1e-14 * (1 + Math.abs(pt.f));
+          if (phi <= info.phi0 + ARMIJO * alpha * info.D || belowNoise || objectiveDecides) {
             accepted = { x: xt, pt: trial, alpha };
             break;
           }
@@ -537,7 +609,16 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     const step = new Float64Array(n);
     for (let j = 0; j < n; j++) step[j] = xNew[j] - x[j];
     // after a relaxed (elastic) subproblem the multipliers are not the problem's: no update
-    if (!elastic && B.update(step, y) !== "skipped") updatesSinceReset++;
+    if (!elastic) {
+      let pair: [Float64Array, Float64Array] = [step, y];
+      if (stateEq) {
+        // the reduced pair (s_d, Z'y) with Z at the old iterate, whose factor is at hand
+        const fac = stateFactorAt(x);
+        if (typeof fac === "string") return failed(fac, { x, pt, mult, kkt }, iteration);
+        pair = [step.subarray(0, nB), reduceVector(fac, dv.je, y, nB, n)];
+      }
+      if (B.update(pair[0], pair[1]) !== "skipped") updatesSinceReset++;
+    }
     x = xNew;
     pt = ptNew;
     dv = dNew.value;
@@ -584,46 +665,6 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
     const phi = ev.value.f + rho * l1Violation(ev.value);
     return phi <= info.phi0 + ARMIJO * info.D ? { x: xt, pt: ev.value, alpha: 1 } : null;
   }
-}
-
-/**
- * B extended by the elastic variable at index n, with curvature ELASTIC_WEIGHT times a size
- * estimate of B (|B v| for v = ones/sqrt(n)), so that relaxing stays expensive next to moving
- * even after B has grown large.
- */
-function elasticHessian(B: HessianApprox, n: number): QpHessian {
-  const v1 = new Float64Array(n).fill(1 / Math.sqrt(n));
-  const bv = new Float64Array(n);
-  B.applyB(v1, bv);
-  const weight = ELASTIC_WEIGHT * Math.max(1, Math.sqrt(dot(bv, bv)));
-  return {
-    applyB(v, out) {
-      const o = new Float64Array(n);
-      B.applyB(v.subarray(0, n), o);
-      out.set(o);
-      out[n] = weight * v[n];
-    },
-    reduced(): ReducedInverse {
-      const inner = B.reduced();
-      let fixedXi = false;
-      const o = new Float64Array(n);
-      return {
-        apply(v, out) {
-          inner.apply(v.subarray(0, n), o);
-          out.set(o);
-          out[n] = fixedXi ? 0 : v[n] / weight;
-        },
-        fix(j) {
-          if (j === n) fixedXi = true;
-          else inner.fix(j);
-        },
-        free(j) {
-          if (j === n) fixedXi = false;
-          else inner.free(j);
-        },
-      };
-    },
-  };
 }
 
 function axpyRow(r: QpRow, alpha: number, out: Float64Array): void {

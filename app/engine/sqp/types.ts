@@ -18,6 +18,20 @@ export interface SqpProblem {
   /** Gradient, all equality rows, and the inequality rows listed in ineqRows (in that order). */
   derivatives(x: Float64Array, ineqRows: Int32Array): { grad: Float64Array; eq?: Row[]; ineq?: Row[] };
   names?: { variables?: string[]; eq?: (i: number) => string; ineq?: (i: number) => string };
+  /**
+   * Optional structure: the equalities are state equations c(d, y) = 0 with the states y the
+   * last nEq variables (unbounded) and dc/dy square and nonsingular. The solver then takes
+   * null-space steps (see reduced-space.ts): the quadratic subproblem is solved over the design
+   * variables d only, and each iteration costs solves with dc/dy instead of dense work on y.
+   */
+  stateEquations?: StateEquations;
+}
+
+export interface StateEquations {
+  /** Variables 0..nDesign-1 are the design; nDesign..n-1 the states (n - nDesign === nEq). */
+  nDesign: number;
+  /** Factors dc/dy at x (user units): solves with it and with its transpose (length nEq). */
+  factor(x: Float64Array): { solve(rhs: Float64Array): Float64Array; solveTransposed(rhs: Float64Array): Float64Array };
 }
 
 export interface SqpProgress {
@@ -47,6 +61,8 @@ export interface SqpOptions {
   memory?: number;
   /** Scaled activity threshold for inequality rows; default Infinity (every row linearized). */
   screening?: number;
+  /** With problem.stateEquations: null-space steps (default true); false solves the full QP. */
+  reducedSpace?: boolean;
   signal?: AbortSignal;
   onProgress?: (p: SqpProgress) => void;
 }

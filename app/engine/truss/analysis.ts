@@ -29,9 +29,17 @@ export interface AnalyzeOptions {
   coords?: Float64Array;
 }
 
-export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
-  const areas = opts.areas ?? s.areas;
-  const coords = opts.coords ?? s.coords;
+/** One factorization of K on the free dofs at the given areas and coordinates. */
+export interface StiffnessFactor {
+  lengths: Float64Array;
+  /** K^-1 rhs on full nNodes*3 vectors (restrained entries of rhs ignored, of the result zero) */
+  solve(rhs: Float64Array): Float64Array;
+  /** stored entries of the factor */
+  profile: number;
+}
+
+/** Assembles and factors K; a mechanism throws MechanismError naming the nodes and directions. */
+export function factorStiffness(s: Structure, areas: Float64Array, coords: Float64Array): StiffnessFactor {
   const nNodes = s.nodeIds.length;
   const nMembers = s.start.length;
   if (areas.length !== nMembers) throw new RangeError(`analyze: ${areas.length} areas given for ${nMembers} members`);
@@ -54,6 +62,16 @@ export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
     for (let r = 0; r < p.nFree; r++) u[p.rowToDof[r]] = work[r];
     return u;
   };
+  return { lengths, solve, profile: K.profile };
+}
+
+export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
+  const areas = opts.areas ?? s.areas;
+  const coords = opts.coords ?? s.coords;
+  const nNodes = s.nodeIds.length;
+  const nMembers = s.start.length;
+  const p = dofPattern(s);
+  const { lengths, solve, profile } = factorStiffness(s, areas, coords);
 
   const displacements: Float64Array[] = [];
   const forces: Float64Array[] = [];
@@ -92,7 +110,7 @@ export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
     volume += v;
     mass += s.density[e] * v;
   }
-  return { areas, coords, lengths, displacements, forces, stresses, reactions, compliance, volume, mass, equilibriumResidual: residual, solve, profile: K.profile };
+  return { areas, coords, lengths, displacements, forces, stresses, reactions, compliance, volume, mass, equilibriumResidual: residual, solve, profile };
 }
 
 /** Axial forces N = (E A / L) n.(u_end - u_start), tension positive. */

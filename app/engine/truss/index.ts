@@ -1,7 +1,7 @@
 // The truss model and analysis engine: pure functions on plain data (see docs/engine-api.md).
 export * from "./schema";
 export { buildStructure, freeDofs, memberLengths, axisIndex, type Structure } from "./structure";
-export { analyze, memberForces, internalForces, type Analysis, type AnalyzeOptions } from "./analysis";
+export { analyze, factorStiffness, memberForces, internalForces, type Analysis, type AnalyzeOptions, type StiffnessFactor } from "./analysis";
 export { assembleStiffness, findMechanisms } from "./stiffness";
 export { MechanismError, type MechanismInfo } from "./mechanism";
 export { csrMultiply, csrGet, type CsrMatrix } from "./sparse/csr";

@@ -69,7 +69,7 @@ export function groundStructure(o: GroundOptions): TrussModelInput {
               stress: o.stress ?? true,
               displacement: [{ node: tip, axis: "y", limit: o.deflection ?? span / 250 }],
             },
-      solver: { maxIterations: 500, tolerance: 1e-6 },
+      solver: { tolerance: 1e-6 },
     },
   };
 }
