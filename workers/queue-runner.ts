@@ -25,6 +25,7 @@ import {
 import { describeTaskError, solverFailureMessage, timeLimitMessage } from "~/lib/jobs/failure-messages";
 import { jobResultKey } from "~/lib/jobs/keys";
 import { ProgressRecorder, type ProgressPoint } from "~/lib/jobs/progress.server";
+import { designWorthReview } from "~/lib/review-request";
 import { getText, putObject } from "~/lib/storage.server";
 import type { SolveTaskInput, SolveTaskOutput } from "./solve-task";
 
@@ -209,16 +210,19 @@ export class QueueRunner {
       const earlier = lease.attempt > 1 ? await getText(resultKey) : null;
       let summary: JobSummary;
       let message: string;
+      let resultText: string;
       if (earlier !== null) {
         const result = JSON.parse(earlier) as TrussResult;
         summary = summarizeResult(result);
         message = solverFailureMessage(result.message, result.hint);
+        resultText = earlier;
         this.log(`job ${job.id}: result of an earlier attempt found in storage, recording it`);
       } else {
         const out = await this.solve(lease, recorder, signal);
         await retrying(() => putObject(resultKey, out.resultJson, "application/json"));
         summary = out.summary;
         message = solverFailureMessage(out.message, out.hint);
+        resultText = out.resultJson;
       }
       await recorder.close();
       if (summary.status === "failed") {
@@ -233,7 +237,7 @@ export class QueueRunner {
       if (await retrying(() => completeJob(db, lease, { resultKey, summary, outcome: summary.status }))) {
         this.stats.succeeded++;
         this.log(`job ${job.id} succeeded (${summary.status}, ${summary.iterations} iterations, ${Date.now() - started} ms)`);
-        await this.notifyFinished(job.id, true);
+        await this.notifyFinished(job.id, resultText);
       } else {
         this.stats.lost++;
         this.log(`job ${job.id}: finished, but another worker holds it now; its record is left to that worker`);
@@ -288,12 +292,25 @@ export class QueueRunner {
     }
   }
 
-  private async notifyFinished(jobId: string, succeeded = false): Promise<void> {
+  /**
+   * Mails about a job that ended: always to the submitter; to the checkers only for a
+   * succeeded run (its stored result text given) whose design is worth a review: an optimum,
+   * or a not-converged run whose best design meets every limit (review-request.ts).
+   */
+  private async notifyFinished(jobId: string, resultText?: string): Promise<void> {
     if (this.o.notify === false) return;
     // imported on first use: the mail module reads the config, tests of the loop need no SMTP
     const { notifyJobFinished, notifyReviewWaiting } = await import("~/lib/notify.server");
-    await notifyJobFinished(jobId).catch((e) => this.log(`job ${jobId}: finish mail failed: ${(e as Error).message}`));
-    if (succeeded) await notifyReviewWaiting(jobId).catch((e) => this.log(`job ${jobId}: review mail failed: ${(e as Error).message}`));
+    let review = false;
+    if (resultText !== undefined) {
+      try {
+        review = designWorthReview(JSON.parse(resultText) as TrussResult);
+      } catch (e) {
+        this.log(`job ${jobId}: result not readable, no review requested: ${(e as Error).message}`);
+      }
+    }
+    await notifyJobFinished(jobId, { reviewRequested: review }).catch((e) => this.log(`job ${jobId}: finish mail failed: ${(e as Error).message}`));
+    if (review) await notifyReviewWaiting(jobId).catch((e) => this.log(`job ${jobId}: review mail failed: ${(e as Error).message}`));
   }
 }
 

@@ -4,9 +4,11 @@
 // the caller (the queue and the review action go on); it is logged with the job it was for.
 import { and, eq, ne } from "drizzle-orm";
 import { db } from "~/db/client.server";
-import { jobs, models, projects, reviews, user } from "~/db/schema";
+import { reviews, user } from "~/db/schema";
 import { config } from "~/lib/config.server";
+import { loadJobWithModel } from "~/lib/job-with-model.server";
 import { sendMail, type Mail } from "~/lib/mail.server";
+import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 
 interface JobFacts {
   id: string;
@@ -22,40 +24,19 @@ interface JobFacts {
 }
 
 async function jobFacts(jobId: string): Promise<JobFacts | null> {
-  const rows = await db()
-    .select({
-      id: jobs.id,
-      status: jobs.status,
-      outcome: jobs.outcome,
-      error: jobs.error,
-      finishedAt: jobs.finishedAt,
-      summary: jobs.summary,
-      modelName: models.name,
-      projectCode: projects.code,
-      projectName: projects.name,
-      submitterId: user.id,
-      submitterName: user.name,
-      submitterEmail: user.email,
-    })
-    .from(jobs)
-    .innerJoin(models, eq(models.id, jobs.modelId))
-    .innerJoin(projects, eq(projects.id, jobs.projectId))
-    .leftJoin(user, eq(user.id, jobs.submittedBy))
-    .where(eq(jobs.id, jobId))
-    .limit(1);
-  const r = rows[0];
+  const r = await loadJobWithModel(jobId);
   if (!r) return null;
   return {
-    id: r.id,
-    status: r.status,
-    outcome: r.outcome,
-    error: r.error,
-    finishedAt: r.finishedAt,
-    modelName: r.modelName,
-    projectCode: r.projectCode,
-    projectName: r.projectName,
-    submitter: r.submitterId && r.submitterEmail ? { id: r.submitterId, name: r.submitterName ?? "", email: r.submitterEmail } : null,
-    summary: (r.summary as JobFacts["summary"]) ?? null,
+    id: r.job.id,
+    status: r.job.status,
+    outcome: r.job.outcome,
+    error: r.job.error,
+    finishedAt: r.job.finishedAt,
+    modelName: r.model.name,
+    projectCode: r.project.code,
+    projectName: r.project.name,
+    submitter: r.submitter,
+    summary: (r.job.summary as JobFacts["summary"]) ?? null,
   };
 }
 
@@ -137,11 +118,22 @@ async function guarded(what: string, fn: () => Promise<void>): Promise<void> {
 
 function formatNumber(v: number | undefined): string {
   if (v === undefined || !Number.isFinite(v)) return "–";
-  return Math.abs(v) >= 1e-3 && Math.abs(v) < 1e6 ? String(Number(v.toPrecision(5))) : v.toExponential(3);
+  return Math.abs(v) >= 1e-3 && Math.abs(v) < 1e6 ? String(Number(v.toPrecision(5))) : v.toExponential(3).replace("e+", "e");
 }
 
-/** To the submitter: the job finished (with its solver outcome), failed or was cancelled. */
-export async function notifyJobFinished(jobId: string): Promise<void> {
+/** Why a finished run asks no checker for review, in the submitter's words. */
+function noReviewReason(outcome: string): string {
+  if (outcome === "infeasible") return "No checker was asked to review it: no design within the bounds meets every limit. The job page says what to try.";
+  if (outcome === "not-converged") return "No checker was asked to review it: the best design found does not meet every limit. The job page says what to try.";
+  return "No checker was asked to review it: the run produced no design to sign off.";
+}
+
+/**
+ * To the submitter: the job finished (with its solver outcome), failed or was cancelled.
+ * `reviewRequested` says whether checkers were asked to review the run (the queue decides it
+ * from the result, see review-request.ts); without it, only an optimum counts as asked.
+ */
+export async function notifyJobFinished(jobId: string, opts: { reviewRequested?: boolean } = {}): Promise<void> {
   await guarded(`job-finished (job ${jobId})`, async () => {
     const j = await jobFacts(jobId);
     if (!j) throw new Error(`job ${jobId} does not exist`);
@@ -160,7 +152,8 @@ export async function notifyJobFinished(jobId: string): Promise<void> {
         facts.push([`Objective (${s.objectiveKind ?? "mass"})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
         if (s.iterations !== undefined) facts.push(["Iterations", String(s.iterations)]);
       }
-      paragraphs.push("A checker still has to review it before the report is approved.");
+      const asked = (opts.reviewRequested ?? outcome === "optimal") && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);
+      paragraphs.push(asked ? "A checker still has to review it before the report is approved." : noReviewReason(outcome));
     } else if (j.status === "failed") {
       subject = `Job failed: ${j.modelName}${jobTag(j.id)}`;
       paragraphs = [`Your optimization run of "${j.modelName}" failed.`, j.error ? `Reason: ${j.error}` : "No reason was recorded."];
@@ -182,11 +175,17 @@ export async function notifyJobFinished(jobId: string): Promise<void> {
   });
 }
 
-/** To every checker except the submitter (four-eyes rule): a finished job waits for review. */
+/**
+ * To every checker except the submitter (four-eyes rule): a finished job waits for review.
+ * The caller decides that the design is worth reviewing (review-request.ts); a job that did
+ * not succeed, or whose outcome leaves nothing to sign off, is refused here all the same.
+ */
 export async function notifyReviewWaiting(jobId: string): Promise<void> {
   await guarded(`review-waiting (job ${jobId})`, async () => {
     const j = await jobFacts(jobId);
     if (!j) throw new Error(`job ${jobId} does not exist`);
+    if (j.status !== "succeeded" || OUTCOMES_WITHOUT_REVIEW.includes(j.outcome ?? ""))
+      return console.warn(`[notify] job ${jobId} is ${j.status}${j.outcome ? ` (${j.outcome})` : ""}: nothing for a checker to review, no review mail sent`);
     const checkers = await db()
       .select({ email: user.email, name: user.name, banned: user.banned })
       .from(user)

@@ -34,6 +34,7 @@ beforeAll(async () => {
   });
   await rows.insertJob({ jobId: "job-bad-002", submittedBy: "u-eng", status: "failed", error: "The structure is a mechanism: node D can move freely in y" });
   await rows.insertJob({ jobId: "job-self-003", submittedBy: "u-chk-self" });
+  await rows.insertJob({ jobId: "job-infeas-004", submittedBy: "u-eng", outcome: "infeasible" });
 }, 60_000);
 afterAll(async () => svc?.stop());
 beforeEach(() => svc.mail.clear());
@@ -77,6 +78,30 @@ describe("notifyReviewWaiting", () => {
     await notify.notifyReviewWaiting("job-self-003");
     const to = (await inbox()).flatMap((m) => m.to).sort();
     expect(to).toEqual(["priya.v@brightspan.example", "tomasz.reveillon@brightspan.example"]);
+  });
+});
+
+describe("runs with nothing to review", () => {
+  it("tells the submitter an infeasible run ended, and that no checker was asked", async () => {
+    await notify.notifyJobFinished("job-infeas-004", { reviewRequested: false });
+    const mails = await inbox();
+    expect(mails.map((m) => m.to)).toEqual([["ines.okafor@brightspan.example"]]);
+    expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (infeasible) · job job-infe");
+    expect(mails[0]!.text).toContain("no design meets every limit");
+    expect(mails[0]!.text).toContain("No checker was asked to review it");
+  });
+
+  it("writes to no checker about an infeasible job, even when asked to", async () => {
+    const warned: string[] = [];
+    const orig = console.warn;
+    console.warn = (...a: unknown[]) => void warned.push(a.join(" "));
+    try {
+      await notify.notifyReviewWaiting("job-infeas-004");
+    } finally {
+      console.warn = orig;
+    }
+    expect(await inbox()).toHaveLength(0);
+    expect(warned.join("\n")).toContain("job-infeas-004 is succeeded (infeasible): nothing for a checker to review");
   });
 });
 

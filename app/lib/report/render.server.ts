@@ -1,13 +1,18 @@
 // renderReport(jobId): the calculation record of a succeeded job, generated from the stored
 // result and model file, and cached in the bucket under the job and its review state (the
 // latest review id), so a new decision yields a new report and repeat downloads are free.
-import { asc, eq } from "drizzle-orm";
+import { asc, eq, sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
-import { jobs, models, projects, reviews, user } from "~/db/schema";
+import { reviews, user } from "~/db/schema";
 import type { TrussResult } from "~/engine/design/result-types";
+import { loadJobWithModel } from "~/lib/job-with-model.server";
 import { getObject, getText, putObject } from "~/lib/storage.server";
 import { buildReportPdf } from "./document";
 import type { ModelFile, ReportData } from "./report-data";
+
+// oldest first, as the job page lists them (reviews.server.ts): rowid, the insertion order,
+// breaks ties between decisions of the same millisecond, so page and report agree on the latest
+const REVIEW_ORDER = [asc(reviews.createdAt), asc(sql`"reviews"."rowid"`)] as const;
 
 // Bump when the layout changes, so cached reports of the old layout are not served.
 const LAYOUT_VERSION = 1;
@@ -23,17 +28,9 @@ export class ReportError extends Error {
 }
 
 export async function loadReportData(jobId: string): Promise<ReportData> {
-  const rows = await db()
-    .select({ job: jobs, model: models, project: projects, submitterName: user.name, submitterEmail: user.email })
-    .from(jobs)
-    .innerJoin(models, eq(models.id, jobs.modelId))
-    .innerJoin(projects, eq(projects.id, jobs.projectId))
-    .leftJoin(user, eq(user.id, jobs.submittedBy))
-    .where(eq(jobs.id, jobId))
-    .limit(1);
-  const row = rows[0];
+  const row = await loadJobWithModel(jobId);
   if (!row) throw new ReportError(404, `Job ${jobId} not found`);
-  const { job, model, project } = row;
+  const { job, model, project, submitter } = row;
   if (job.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${job.status}; a report exists only for a job that succeeded`);
   if (!job.resultKey) throw new ReportError(409, `Job ${jobId} succeeded but has no stored result`);
 
@@ -65,7 +62,7 @@ export async function loadReportData(jobId: string): Promise<ReportData> {
     .from(reviews)
     .innerJoin(user, eq(user.id, reviews.reviewerId))
     .where(eq(reviews.jobId, jobId))
-    .orderBy(asc(reviews.createdAt), asc(reviews.id));
+    .orderBy(...REVIEW_ORDER);
 
   return {
     job: {
@@ -75,7 +72,7 @@ export async function loadReportData(jobId: string): Promise<ReportData> {
       createdAt: job.createdAt,
       startedAt: job.startedAt,
       finishedAt: job.finishedAt,
-      submitter: row.submitterEmail ? `${row.submitterName || row.submitterEmail} <${row.submitterEmail}>` : null,
+      submitter: submitter ? `${submitter.name || submitter.email} <${submitter.email}>` : null,
       attempts: job.attempts,
     },
     project: { code: project.code, name: project.name, client: project.client },
@@ -120,20 +117,13 @@ export async function renderReportFile(jobId: string): Promise<RenderedReport> {
     .select({ id: reviews.id })
     .from(reviews)
     .where(eq(reviews.jobId, jobId))
-    .orderBy(asc(reviews.createdAt), asc(reviews.id));
+    .orderBy(...REVIEW_ORDER);
   const latestId = latest.length ? latest[latest.length - 1]!.id : null;
   const key = reportCacheKey(jobId, latestId);
-  const facts = await db()
-    .select({ status: jobs.status, code: projects.code, modelName: models.name })
-    .from(jobs)
-    .innerJoin(models, eq(models.id, jobs.modelId))
-    .innerJoin(projects, eq(projects.id, jobs.projectId))
-    .where(eq(jobs.id, jobId))
-    .limit(1);
-  const f = facts[0];
+  const f = await loadJobWithModel(jobId);
   if (!f) throw new ReportError(404, `Job ${jobId} not found`);
-  if (f.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${f.status}; a report exists only for a job that succeeded`);
-  const fileName = reportFileName(f.code, f.modelName, jobId);
+  if (f.job.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${f.job.status}; a report exists only for a job that succeeded`);
+  const fileName = reportFileName(f.project.code, f.model.name, jobId);
 
   const hit = await getObject(key);
   if (hit && hit.byteLength > 0) return { bytes: hit, fileName, cacheKey: key, cached: true };
