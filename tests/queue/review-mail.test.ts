@@ -62,7 +62,7 @@ async function runWithMail(model: ModelJson) {
 }
 
 const feasibleByStatics = (r: TrussResult) => r.members.every((m) => m.area >= TWO_BAR_FULLY_STRESSED_AREA * (1 - 1e-6));
-const reviewMails = (mails: { subject: string }[]) => mails.filter((m) => m.subject.startsWith("Review waiting"));
+const reviewMails = <M extends { subject: string }>(mails: M[]) => mails.filter((m) => m.subject.startsWith("Review waiting"));
 
 describe("review requests from the queue", () => {
   it("asks the checkers to review an optimum, and tells the submitter", async () => {
