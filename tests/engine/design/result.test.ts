@@ -58,3 +58,18 @@ describe("result JSON", () => {
     expect(() => optimizeModel(parse(m))).toThrow(/Shape variable "height" must allow the starting geometry/);
   });
 });
+
+describe("infeasible designs", () => {
+  // The bracket's tie cannot carry its load within the allowable stress at the largest area
+  // allowed (see the fixture): both formulations must say so in terms of that limit, never
+  // in terms of an equilibrium row of the displacement variables.
+  for (const formulation of ["nested", "simultaneous"] as const) {
+    it(`names the broken limit (${formulation})`, () => {
+      const r = optimizeModel(fixture("infeasible-bracket.truss.json"), { formulation });
+      expect(r.status).toBe("infeasible");
+      expect(r.message).toMatch(/stress:tie/);
+      expect(r.message).not.toMatch(/equilibrium/);
+      expect(r.verification!.allLimitsMet).toBe(false);
+    });
+  }
+});

@@ -33,14 +33,8 @@ describe("constraint screening", () => {
         expect(r.verification!.failures).toEqual([]);
         expect(r.maxViolation).toBeLessThan(1e-6);
       }
-      if (formulation === "nested") {
-        expect(full.r.status).toBe("optimal");
-        expect(tight.r.status).toBe("optimal");
-      } else {
-        // Known limit (see the report): on ground structures the simultaneous formulation reaches
-        // the same verified design but its quasi-Newton KKT test often stalls above tolerance.
-        for (const r of [full.r, tight.r]) expect(["optimal", "not-converged"]).toContain(r.status);
-      }
+      expect(full.r.status).toBe("optimal");
+      expect(tight.r.status).toBe("optimal");
       expect(Math.abs(tight.r.objective.final - full.r.objective.final) / full.r.objective.final).toBeLessThan(1e-5);
     });
   }
