@@ -1,7 +1,7 @@
 // Queue an optimization run of a model. The browser checks the fields with the same schema
 // as the server before sending; the server's answer (field errors or a redirect to the new
 // job) is the final word.
-import { useState } from "react";
+import { useState, type ReactNode } from "react";
 import { Form, useNavigation } from "react-router";
 import { parseQueueForm, type QueueField } from "./queue-form";
 
@@ -28,7 +28,7 @@ export function QueueForm({ defaults, serverErrors }: { defaults: QueueDefaults;
         {shown[f]}
       </p>
     ) : null;
-  const aria = (f: QueueField) => ({ "aria-invalid": !!shown[f], "aria-describedby": shown[f] ? `${f}-error` : undefined });
+  const aria = (f: QueueField) => ariaOf(f, shown[f]);
   const u = defaults.lengthUnit;
 
   return (
@@ -87,24 +87,8 @@ export function QueueForm({ defaults, serverErrors }: { defaults: QueueDefaults;
           <input name="volumeMax" inputMode="decimal" className="field-input" placeholder={defaults.volumeMax !== null ? String(defaults.volumeMax) : "none in the model"} {...aria("volumeMax")} />
           {err("volumeMax")}
         </label>
-        <label className="block">
-          <span className="field-label">Stress check</span>
-          <select name="stress" className="field-input" defaultValue="default" {...aria("stress")}>
-            <option value="default">as in the model ({defaults.stress ? "on" : "off"})</option>
-            <option value="on">on</option>
-            <option value="off">off</option>
-          </select>
-          {err("stress")}
-        </label>
-        <label className="block">
-          <span className="field-label">Buckling check</span>
-          <select name="buckling" className="field-input" defaultValue="default" {...aria("buckling")}>
-            <option value="default">as in the model ({defaults.buckling ? "on" : "off"})</option>
-            <option value="on">on</option>
-            <option value="off">off</option>
-          </select>
-          {err("buckling")}
-        </label>
+        <CheckSelect name="stress" label="Stress check" inModel={defaults.stress} aria={aria("stress")} error={err("stress")} />
+        <CheckSelect name="buckling" label="Buckling check" inModel={defaults.buckling} aria={aria("buckling")} error={err("buckling")} />
       </div>
       <p className="text-xs text-ink-muted">Empty fields keep the values of the model's design block. Overrides apply to this run only.</p>
       {shown.form && (
@@ -117,4 +101,23 @@ export function QueueForm({ defaults, serverErrors }: { defaults: QueueDefaults;
       </button>
     </Form>
   );
+}
+
+/** A limit check the run may switch on or off, or leave as the model's design block has it. */
+function CheckSelect(props: { name: QueueField; label: string; inModel: boolean | null; aria: ReturnType<typeof ariaOf>; error: ReactNode }) {
+  return (
+    <label className="block">
+      <span className="field-label">{props.label}</span>
+      <select name={props.name} className="field-input" defaultValue="default" {...props.aria}>
+        <option value="default">as in the model ({props.inModel ? "on" : "off"})</option>
+        <option value="on">on</option>
+        <option value="off">off</option>
+      </select>
+      {props.error}
+    </label>
+  );
+}
+
+function ariaOf(field: QueueField, error: string | undefined) {
+  return { "aria-invalid": !!error, "aria-describedby": error ? `${field}-error` : undefined };
 }

@@ -1,6 +1,6 @@
 // Member and node tables of a result: sortable, filterable, paged, with a CSV download of
 // every row and every load case (full precision).
-import { createColumnHelper } from "@tanstack/react-table";
+import { createColumnHelper, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
 import type { ResultMember, ResultNode, TrussResult } from "~/engine/design/result-types";
 import { fmtNum, fmtPercent } from "~/components/ui/format";
@@ -29,15 +29,55 @@ export function LoadCasePicker({ ids, names, value, onChange }: { ids: string[];
   );
 }
 
+/** The load case a result table's columns show, with the ids and names to pick from. */
+function useLoadCases(result: TrussResult) {
+  const ids = loadCaseIds(result);
+  const names = new Map((result.loadCases ?? []).map((l) => [l.id, l.name ?? ""]));
+  const [current, setCurrent] = useState(ids[0] ?? "");
+  return { ids, names, current, setCurrent };
+}
+
+/** Either result table: 25 rows a page, a quick filter, the load-case picker and the CSV of every row. */
+function ResultTable<T extends { id: string }>(props: {
+  label: "Members" | "Nodes";
+  data: T[];
+  columns: ColumnDef<T, any>[];
+  cases: ReturnType<typeof useLoadCases>;
+  onCsv: () => void;
+  initialSort?: SortingState;
+  rowTestId?: string;
+}) {
+  const what = props.label.toLowerCase();
+  return (
+    <DataTable
+      label={props.label}
+      data={props.data}
+      columns={props.columns}
+      pageSize={25}
+      filterPlaceholder={`Filter ${what}…`}
+      initialSort={props.initialSort}
+      getRowId={(r) => r.id}
+      rowTestId={props.rowTestId}
+      toolbar={
+        <>
+          <LoadCasePicker ids={props.cases.ids} names={props.cases.names} value={props.cases.current} onChange={props.cases.setCurrent} />
+          <button type="button" className="btn btn-secondary px-3 py-1" onClick={props.onCsv} data-testid={`${what}-csv`}>
+            {props.label} CSV
+          </button>
+        </>
+      }
+    />
+  );
+}
+
 function loadCaseIds(result: TrussResult): string[] {
   if (result.loadCases?.length) return result.loadCases.map((l) => l.id);
   return Object.keys(result.members[0]?.force ?? result.nodes[0]?.displacement ?? {});
 }
 
 export function MemberTable({ result, topology, fileName }: { result: TrussResult; topology: Topology; fileName: string }) {
-  const lcs = loadCaseIds(result);
-  const names = new Map((result.loadCases ?? []).map((l) => [l.id, l.name ?? ""]));
-  const [lc, setLc] = useState(lcs[0] ?? "");
+  const cases = useLoadCases(result);
+  const { ids: lcs, current: lc } = cases;
   const u = result.units;
   const maxAbs = useMemo(() => result.members.reduce((m, r) => Math.max(m, Math.abs(r.force[lc] ?? 0)), 0), [result, lc]);
   const col = createColumnHelper<ResultMember>();
@@ -75,31 +115,13 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
     downloadText(`${fileSlug(fileName)}-members.csv`, toCsv(header, rows));
   };
   return (
-    <DataTable
-      label="Members"
-      data={result.members}
-      columns={columns}
-      pageSize={25}
-      filterPlaceholder="Filter members…"
-      initialSort={[{ id: "utilization", desc: true }]}
-      getRowId={(m) => m.id}
-      rowTestId="member-row"
-      toolbar={
-        <>
-          <LoadCasePicker ids={lcs} names={names} value={lc} onChange={setLc} />
-          <button type="button" className="btn btn-secondary px-3 py-1" onClick={csv} data-testid="members-csv">
-            Members CSV
-          </button>
-        </>
-      }
-    />
+    <ResultTable label="Members" data={result.members} columns={columns} cases={cases} onCsv={csv} initialSort={[{ id: "utilization", desc: true }]} rowTestId="member-row" />
   );
 }
 
 export function NodeTable({ result, topology, fileName }: { result: TrussResult; topology: Topology; fileName: string }) {
-  const lcs = loadCaseIds(result);
-  const names = new Map((result.loadCases ?? []).map((l) => [l.id, l.name ?? ""]));
-  const [lc, setLc] = useState(lcs[0] ?? "");
+  const cases = useLoadCases(result);
+  const { ids: lcs, current: lc } = cases;
   const u = result.units;
   const moved = (n: ResultNode) => {
     const i = n.initial ?? topology.nodes.get(n.id);
@@ -129,22 +151,7 @@ export function NodeTable({ result, topology, fileName }: { result: TrussResult;
     downloadText(`${fileSlug(fileName)}-nodes.csv`, toCsv(header, rows));
   };
   return (
-    <DataTable
-      label="Nodes"
-      data={result.nodes}
-      columns={columns}
-      pageSize={25}
-      filterPlaceholder="Filter nodes…"
-      getRowId={(n) => n.id}
-      toolbar={
-        <>
-          <LoadCasePicker ids={lcs} names={names} value={lc} onChange={setLc} />
-          <button type="button" className="btn btn-secondary px-3 py-1" onClick={csv} data-testid="nodes-csv">
-            Nodes CSV
-          </button>
-        </>
-      }
-    />
+    <ResultTable label="Nodes" data={result.nodes} columns={columns} cases={cases} onCsv={csv} />
   );
 }
 
