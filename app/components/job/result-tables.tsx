@@ -62,7 +62,7 @@ function ResultTable<T extends { id: string }>(props: {
         <>
           <LoadCasePicker ids={props.cases.ids} names={props.cases.names} value={props.cases.current} onChange={props.cases.setCurrent} />
           <button type="button" className="btn btn-secondary px-3 py-1" onClick={props.onCsv} data-testid={`${what}-csv`}>
-            {props.label} CSV
+            {`${props.label} CSV`}
           </button>
         </>
       }
