@@ -10,6 +10,7 @@ import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import { cssColor, forceSense, SENSE_TOKENS, UTIL_BANDS, utilBandIndex } from "./palette";
 import { placeCone, placeCylinder } from "./instancing";
+import { drawnBox, fitOrthographic, fitPerspective, jointRadius, loadArrows, supportSize, type Box } from "./framing";
 import { deformedPositions, upAxis, visualRadii, type TrussView, type Vec3 } from "./truss-view";
 
 export type ColourMode = "utilization" | "force" | "plain";
@@ -69,7 +70,7 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
       {settings.showDeformed && view.hasResult && <DeformedOverlay view={view} settings={settings} />}
       {settings.showSupports && <Supports view={view} />}
       {settings.showLoads && <Loads view={view} loadCase={settings.loadCase} />}
-      <Framing view={view} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
+      <Framing view={view} box={drawnBox(view, settings)} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
     </Canvas>
   );
 }
@@ -179,8 +180,7 @@ function Joints({ view }: { view: TrussView }) {
   }, [view]);
   useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
   useLayoutEffect(() => {
-    const radii = visualRadii(view);
-    const r = (radii.length ? Math.max(...radii) : view.bounds.span * 0.005) * 1.25;
+    const r = jointRadius(view);
     const mat = new THREE.Matrix4();
     view.nodes.forEach((n, i) => {
       mat.makeScale(r, r, r).setPosition(...n.position);
@@ -259,7 +259,7 @@ function Supports({ view }: { view: TrussView }) {
   }, [items]);
   useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
   useLayoutEffect(() => {
-    const size = Math.min(view.bounds.span * 0.035, view.medianLength * 0.3);
+    const size = supportSize(view);
     const mat = new THREE.Matrix4();
     items.forEach((it, i) => {
       mesh.setMatrixAt(i, placeCone(mat, it.node.position, AXIS_VECTORS[it.axis]!, size));
@@ -277,18 +277,7 @@ function Supports({ view }: { view: TrussView }) {
  */
 function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
   const invalidate = useThree((s) => s.invalidate);
-  const arrows = useMemo(() => {
-    const lc = view.loadCases[loadCase];
-    const maxF = lc ? lc.loads.reduce((m, l) => Math.max(m, Math.hypot(...l.f)), 0) : 0;
-    if (!lc || !(maxF > 0)) return [];
-    const longest = Math.min(view.bounds.span * 0.09, view.medianLength * 0.7);
-    return lc.loads
-      .filter((l) => Math.hypot(...l.f) > 0)
-      .map((l) => {
-        const mag = Math.hypot(...l.f);
-        return { tip: view.nodes[l.node]!.position, dir: new THREE.Vector3(...l.f).normalize(), len: longest * Math.max(0.25, mag / maxF) };
-      });
-  }, [view, loadCase]);
+  const arrows = useMemo(() => loadArrows(view, loadCase).map((a) => ({ ...a, dir: new THREE.Vector3(...a.dir) })), [view, loadCase]);
   const objects = useMemo(() => {
     const colour = new THREE.Color(cssColor("--color-ink", "#16202c")); // not blue: tension members are
     const shaft = new Float32Array(arrows.length * 6);
@@ -341,8 +330,12 @@ function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
 }
 
 /** Frames the truss: on mount, on "fit" and when the view changes. */
-function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolean; up: "y" | "z"; fitNonce: number }) {
+function Framing({ view, box, ortho, up, fitNonce }: { view: TrussView; box: Box; ortho: boolean; up: "y" | "z"; fitNonce: number }) {
   const camera = useThree((s) => s.camera);
+  // the box follows the toggles (loads, supports, deformed shape), but only a fit request, a
+  // new truss or a resized canvas moves the camera: a toggle must not make the view jump
+  const latestBox = useRef(box);
+  latestBox.current = box;
   const size = useThree((s) => s.size);
   const invalidate = useThree((s) => s.invalidate);
   const gl = useThree((s) => s.gl);
@@ -358,31 +351,23 @@ function Framing({ view, ortho, up, fitNonce }: { view: TrussView; ortho: boolea
   }, [gl]);
 
   useLayoutEffect(() => {
-    const { min, max, center, span } = view.bounds;
-    const target = new THREE.Vector3(...center);
+    const drawn = latestBox.current;
+    let target: THREE.Vector3;
     if (ortho && camera instanceof THREE.OrthographicCamera) {
-      const w = Math.max(max[0] - min[0], span * 0.05);
-      const h = Math.max(max[1] - min[1], span * 0.05);
-      camera.position.set(center[0], center[1], center[2] + span);
-      camera.zoom = 0.85 * Math.min(size.width / w, size.height / h);
+      const fit = fitOrthographic(drawn, { width: size.width, height: size.height });
+      target = new THREE.Vector3(...fit.target);
+      camera.position.set(fit.target[0], fit.target[1], fit.target[2] + view.bounds.span);
+      camera.zoom = fit.zoom;
     } else if (camera instanceof THREE.PerspectiveCamera) {
-      // a three-quarter view from the front, slightly above; the distance is the least that
-      // keeps every corner of the bounding box inside the view (tighter than a bounding sphere)
-      const back = (up === "z" ? new THREE.Vector3(0.9, -1.6, 0.8) : new THREE.Vector3(0.9, 0.7, 1.6)).normalize();
-      const upVec = up === "z" ? new THREE.Vector3(0, 0, 1) : new THREE.Vector3(0, 1, 0);
-      const right = new THREE.Vector3().crossVectors(upVec, back).normalize();
-      const upCam = new THREE.Vector3().crossVectors(back, right);
-      const tanV = Math.tan((camera.fov * Math.PI) / 360);
-      const tanH = tanV * camera.aspect;
-      let distance = span * 0.05;
-      for (const cx of [min[0], max[0]])
-        for (const cy of [min[1], max[1]])
-          for (const cz of [min[2], max[2]]) {
-            const d = new THREE.Vector3(cx, cy, cz).sub(target);
-            const along = d.dot(back);
-            distance = Math.max(distance, along + Math.abs(d.dot(right)) / tanH, along + Math.abs(d.dot(upCam)) / tanV);
-          }
-      camera.position.copy(target).addScaledVector(back, distance * 1.08);
+      // a three-quarter view from the front, slightly above, as near as the margin allows;
+      // the aspect is the canvas's own (the camera's may not have caught up with a resize yet)
+      const back: Vec3 = up === "z" ? [0.9, -1.6, 0.8] : [0.9, 0.7, 1.6];
+      const fit = fitPerspective(drawn, { fovDeg: camera.fov, aspect: size.width / Math.max(1, size.height), back, up: up === "z" ? [0, 0, 1] : [0, 1, 0] });
+      target = new THREE.Vector3(...fit.target);
+      camera.aspect = size.width / Math.max(1, size.height);
+      camera.position.set(...fit.position);
+    } else {
+      target = new THREE.Vector3(...view.bounds.center);
     }
     camera.lookAt(target);
     camera.updateProjectionMatrix();
