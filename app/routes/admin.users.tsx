@@ -65,18 +65,20 @@ export default function AdminUsers({ loaderData }: Route.ComponentProps) {
         </p>
       )}
       <div className="mt-6 grid gap-6 lg:grid-cols-[1fr_20rem]">
-        <div className="card overflow-x-auto p-0">
-          <table className="data-table">
+        {/* below md each account is a stacked block (name, e-mail, role, state), so a phone
+            reads it without scrolling sideways; from md up it is a plain table */}
+        <div className="card min-w-0 p-0 md:overflow-x-auto" data-testid="accounts">
+          <table className="data-table block md:table">
             <caption className="sr-only">Accounts</caption>
-            <thead>
+            <thead className="hidden md:table-header-group">
               <tr><th scope="col">Name</th><th scope="col">E-mail</th><th scope="col">Role</th><th scope="col">State</th></tr>
             </thead>
-            <tbody>
+            <tbody className="block md:table-row-group">
               {users.map((u) => (
-                <tr key={u.id}>
-                  <td>{u.name}</td>
-                  <td className="font-mono text-xs">{u.email}</td>
-                  <td>
+                <tr key={u.id} className="block border-b border-rule/70 px-1 py-2 last:border-b-0 md:table-row md:p-0" data-testid="account-row">
+                  <td className="block border-b-0 py-0.5 font-medium md:table-cell md:border-b md:py-1.5 md:font-normal">{u.name}</td>
+                  <td className="block break-all border-b-0 py-0.5 font-mono text-xs md:table-cell md:border-b md:py-1.5 md:break-normal">{u.email}</td>
+                  <td className="block border-b-0 py-1 md:table-cell md:border-b md:py-1.5">
                     {u.id === meId ? (
                       <span>{ROLE_LABELS[u.role as keyof typeof ROLE_LABELS] ?? u.role} (you)</span>
                     ) : (
@@ -91,9 +93,9 @@ export default function AdminUsers({ loaderData }: Route.ComponentProps) {
                       </Form>
                     )}
                   </td>
-                  <td>
+                  <td className="block border-b-0 py-1 md:table-cell md:border-b md:py-1.5">
                     {u.id !== meId && (
-                      <Form method="post">
+                      <Form method="post" className="inline">
                         <input type="hidden" name="userId" value={u.id} />
                         <button type="submit" name="intent" value={u.banned ? "restore" : "suspend"} className={`btn px-2 py-1 ${u.banned ? "btn-secondary" : "btn-danger"}`} disabled={busy}>
                           {u.banned ? "Restore" : "Suspend"}
