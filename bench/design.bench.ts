@@ -10,7 +10,7 @@
 //   DESIGN_BENCH_LIMIT_S        cap per Strutwise run, default 90
 //   DESIGN_BENCH_SCIPY_LIMIT_S  cap per scipy run, default 120
 //   DESIGN_BENCH_MAX_MEMBERS    largest ground structure to run, default 3000
-//   DESIGN_BENCH_SIMULTANEOUS_MAX  largest member count for the simultaneous runs, default 500
+//   DESIGN_BENCH_SIMULTANEOUS_MAX  largest member count for the simultaneous runs, default 3000
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -25,7 +25,7 @@ const here = path.dirname(fileURLToPath(import.meta.url));
 const limitS = Number(process.env.DESIGN_BENCH_LIMIT_S ?? 90);
 const scipyLimitS = Number(process.env.DESIGN_BENCH_SCIPY_LIMIT_S ?? 120);
 const maxMembers = Number(process.env.DESIGN_BENCH_MAX_MEMBERS ?? 3000);
-const simMax = Number(process.env.DESIGN_BENCH_SIMULTANEOUS_MAX ?? 500);
+const simMax = Number(process.env.DESIGN_BENCH_SIMULTANEOUS_MAX ?? 3000);
 const hasScipy = scipyPython() !== null;
 if (!hasScipy) console.log("!!! python3-scipy not found: the SLSQP columns are left empty (apt-get install -y python3-scipy) !!!");
 

@@ -38,7 +38,20 @@ export class DenseBfgs implements HessianApprox {
   }
 
   applyB(v: Float64Array, out: Float64Array): void {
-    DenseBfgs.mul(this.B, this.n, v, out);
+    // the QP multiplies by vectors that are zero on the variables at a bound (most of them on
+    // a ground structure): then only the columns of the nonzero entries are read (B symmetric)
+    const n = this.n;
+    let nnz = 0;
+    for (let j = 0; j < n; j++) if (v[j] !== 0) nnz++;
+    if (nnz > n / 4) return DenseBfgs.mul(this.B, n, v, out);
+    out.fill(0, 0, n);
+    const B = this.B;
+    for (let j = 0; j < n; j++) {
+      const vj = v[j];
+      if (vj === 0) continue;
+      const o = j * n;
+      for (let i = 0; i < n; i++) out[i] += B[o + i] * vj;
+    }
   }
 
   applyH(v: Float64Array, out: Float64Array): void {
@@ -92,82 +105,134 @@ export class DenseBfgs implements HessianApprox {
 }
 
 /**
- * (B_FF)^-1 kept explicitly: fixing variable j is the rank-one downdate H_F - h h'/h_jj
- * (h = column j), freeing it the bordered-inverse formula with column j of B; O(n^2) each.
- * A pivot that is not safely positive triggers a rebuild from a Cholesky factor of B_FF.
+ * (B_FF)^-1 kept explicitly over the free variables only (an m x m block, m = free count, in
+ * a buffer of stride n), so that applying it, fixing a variable (the rank-one downdate
+ * H_F - h h'/h_jj, then the last free variable moved into its slot) and freeing one (the
+ * bordered-inverse formula with column j of B) cost O(m^2), not O(n^2): on ground structures
+ * most variables sit at a bound and m is a small part of n. A warm start that fixes many
+ * variables at once rebuilds the block from a Cholesky factor of B_FF, O(m^3); so does a pivot
+ * that is not safely positive.
  */
 class DenseReducedInverse implements ReducedInverse {
-  private readonly HF: Float64Array;
+  private readonly HF: Float64Array; // row a, column b of the block at HF[a * n + b]
   private readonly fixed: Uint8Array;
+  private readonly idx: Int32Array; // free variable of block position a
+  private readonly pos: Int32Array; // block position of variable j, -1 when fixed
+  private m: number;
 
   constructor(private readonly B: Float64Array, H: Float64Array, private readonly n: number) {
     this.HF = Float64Array.from(H);
     this.fixed = new Uint8Array(n);
+    this.idx = new Int32Array(n);
+    this.pos = new Int32Array(n);
+    for (let j = 0; j < n; j++) this.idx[j] = this.pos[j] = j;
+    this.m = n;
   }
 
   apply(v: Float64Array, out: Float64Array): void {
-    DenseBfgs.mul(this.HF, this.n, v, out);
+    const { n, HF, idx, m } = this;
+    const vF = new Float64Array(m);
+    for (let b = 0; b < m; b++) vF[b] = v[idx[b]];
+    out.fill(0, 0, n);
+    for (let a = 0; a < m; a++) {
+      const o = a * n;
+      let s = 0;
+      for (let b = 0; b < m; b++) s += HF[o + b] * vF[b];
+      out[idx[a]] = s;
+    }
   }
 
   fix(j: number): void {
-    const { n, HF } = this;
     if (this.fixed[j]) return;
-    const h = HF.slice(j * n, j * n + n);
-    const hjj = h[j];
+    const { n, HF } = this;
+    const a = this.pos[j];
+    const m = this.m;
+    const h = HF.slice(a * n, a * n + m);
+    const hjj = h[a];
     this.fixed[j] = 1;
     if (!(hjj > 0)) return this.rebuild();
-    for (let i = 0; i < n; i++) {
-      const hi = h[i] / hjj;
-      if (hi === 0) continue;
-      const o = i * n;
-      for (let k = 0; k < n; k++) HF[o + k] -= hi * h[k];
+    for (let r = 0; r < m; r++) {
+      const hr = h[r] / hjj;
+      if (hr === 0) continue;
+      const o = r * n;
+      for (let c = 0; c < m; c++) HF[o + c] -= hr * h[c];
     }
-    for (let i = 0; i < n; i++) HF[i * n + j] = HF[j * n + i] = 0;
+    // move the last free variable into slot a
+    const last = m - 1;
+    if (a !== last) {
+      for (let c = 0; c < m; c++) HF[a * n + c] = HF[last * n + c];
+      for (let r = 0; r < m; r++) HF[r * n + a] = HF[r * n + last];
+      HF[a * n + a] = HF[last * n + last];
+      const jl = this.idx[last];
+      this.idx[a] = jl;
+      this.pos[jl] = a;
+    }
+    this.pos[j] = -1;
+    this.m = last;
+  }
+
+  /** Many fixes at once: one Cholesky of B_FF, O(m^3) for m free variables, instead of O(k m^2). */
+  fixMany(js: number[]): void {
+    let added = 0;
+    for (const j of js) if (!this.fixed[j]) { this.fixed[j] = 1; added++; }
+    if (added > 0) this.rebuild();
   }
 
   free(j: number): void {
-    const { n, HF, B, fixed } = this;
+    const { n, HF, B, fixed, idx } = this;
     if (!fixed[j]) return;
-    fixed[j] = 0;
-    const b = new Float64Array(n);
-    for (let i = 0; i < n; i++) if (!fixed[i] && i !== j) b[i] = B[i * n + j];
-    const x = new Float64Array(n);
-    DenseBfgs.mul(HF, n, b, x);
-    const gamma = B[j * n + j] - dot(b, x);
-    if (!(gamma > 1e-12 * Math.abs(B[j * n + j]))) return this.rebuild();
-    for (let i = 0; i < n; i++) {
-      const xi = x[i] / gamma;
-      if (xi === 0) continue;
-      const o = i * n;
-      for (let k = 0; k < n; k++) HF[o + k] += xi * x[k];
+    const m = this.m;
+    const b = new Float64Array(m);
+    for (let a = 0; a < m; a++) b[a] = B[idx[a] * n + j];
+    const x = new Float64Array(m);
+    for (let a = 0; a < m; a++) {
+      const o = a * n;
+      let s = 0;
+      for (let c = 0; c < m; c++) s += HF[o + c] * b[c];
+      x[a] = s;
     }
-    for (let i = 0; i < n; i++) HF[i * n + j] = HF[j * n + i] = -x[i] / gamma;
-    HF[j * n + j] = 1 / gamma;
+    const gamma = B[j * n + j] - dot(b, x, m);
+    fixed[j] = 0;
+    if (!(gamma > 1e-12 * Math.abs(B[j * n + j]))) return this.rebuild();
+    for (let r = 0; r < m; r++) {
+      const xr = x[r] / gamma;
+      if (xr === 0) continue;
+      const o = r * n;
+      for (let c = 0; c < m; c++) HF[o + c] += xr * x[c];
+    }
+    for (let r = 0; r < m; r++) HF[r * n + m] = HF[m * n + r] = -x[r] / gamma;
+    HF[m * n + m] = 1 / gamma;
+    idx[m] = j;
+    this.pos[j] = m;
+    this.m = m + 1;
   }
 
-  /** H_F from scratch: Cholesky of B_FF, then its inverse column by column. */
+  /** The block from scratch: Cholesky of B_FF, then its inverse column by column. */
   private rebuild(): void {
-    const { n, B, HF, fixed } = this;
-    const free: number[] = [];
-    for (let i = 0; i < n; i++) if (!fixed[i]) free.push(i);
-    const m = free.length;
+    const { n, B, HF, fixed, idx, pos } = this;
+    let m = 0;
+    for (let j = 0; j < n; j++) {
+      if (fixed[j]) pos[j] = -1;
+      else { idx[m] = j; pos[j] = m; m++; }
+    }
+    this.m = m;
     const L = new Float64Array(m * m);
     for (let a = 0; a < m; a++) {
+      const ba = idx[a] * n;
       for (let c = 0; c <= a; c++) {
-        let s = B[free[a] * n + free[c]];
+        let s = B[ba + idx[c]];
         for (let k = 0; k < c; k++) s -= L[a * m + k] * L[c * m + k];
         if (a === c) L[a * m + a] = Math.sqrt(Math.max(s, 1e-300));
         else L[a * m + c] = s / L[c * m + c];
       }
     }
-    HF.fill(0);
     const col = new Float64Array(m);
     for (let c = 0; c < m; c++) {
       col.fill(0);
       col[c] = 1;
-      for (let a = 0; a < m; a++) {
+      for (let a = c; a < m; a++) {
         let s = col[a];
-        for (let k = 0; k < a; k++) s -= L[a * m + k] * col[k];
+        for (let k = c; k < a; k++) s -= L[a * m + k] * col[k];
         col[a] = s / L[a * m + a];
       }
       for (let a = m - 1; a >= 0; a--) {
@@ -175,7 +240,7 @@ class DenseReducedInverse implements ReducedInverse {
         for (let k = a + 1; k < m; k++) s -= L[k * m + a] * col[k];
         col[a] = s / L[a * m + a];
       }
-      for (let a = 0; a < m; a++) HF[free[a] * n + free[c]] = col[a];
+      for (let a = 0; a < m; a++) HF[a * n + c] = col[a];
     }
   }
 }

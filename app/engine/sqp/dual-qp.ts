@@ -270,11 +270,14 @@ export function solveQp(q: QpInput): QpOutput {
    * about a third of the cost of adding the same constraints one by one.
    */
   function startFromWarmSet(): void {
+    const toFix: number[] = [];
     for (let j = 0; j < dim; j++) {
       if (warm[offL + j] && lower[j] > -Infinity) fixedSide[j] = -1;
       else if (warm[offU + j] && upper[j] < Infinity) fixedSide[j] = 1;
-      if (fixedSide[j] !== 0) HF.fix(j);
+      if (fixedSide[j] !== 0) toFix.push(j);
     }
+    if (HF.fixMany) HF.fixMany(toFix);
+    else for (const j of toFix) HF.fix(j);
     for (let i = 0; i < nE; i++) active.push(i);
     for (let key = nE; key < offL; key++) if (warm[key]) active.push(key);
     for (const key of active) isActive[key] = 1;

@@ -20,6 +20,8 @@ export interface ReducedInverse {
   apply(v: Float64Array, out: Float64Array): void;
   fix(j: number): void;
   free(j: number): void;
+  /** Fixes many variables at once (a warm start), where that is cheaper than one by one. */
+  fixMany?(js: number[]): void;
 }
 
 export function dot(a: Float64Array, b: Float64Array, n = a.length): number {
