@@ -1,8 +1,10 @@
 // The product's pages end to end, in headless chromium against the built app with a worker:
 // each role sees only what it may do; an engineer uploads a good and a broken truss (the
 // broken one's errors are listed with the items they name), queues a run and watches it
-// finish without a page reload; the 3D view draws (its pixels are sampled); the numbers on
-// the page match the API's; a checker approves; the downloads arrive. Screenshots at
+// finish without a page reload; the 3D view draws (its pixels are sampled) and "Fit to view"
+// leaves a margin round the tall demo mast; the numbers on the page match the API's; a
+// checker returns the run, then approves it, and the review form and PDF link follow; the
+// admin's list of people reads on a phone; the downloads arrive. Screenshots at
 // 1440×900 and 390×844 go to test-artifacts/screenshots/.
 import crypto from "node:crypto";
 import fs from "node:fs";
@@ -65,6 +67,33 @@ async function canvasInk(page: Page) {
       }
     }
     return { ratio: ink / (d.length / 4), colours: colours.size, width: c.width };
+  });
+}
+
+/** Share of inked pixels inside the canvas, and the count of inked pixels in a 4 % band along its edges. */
+async function canvasEdgeInk(page: Page) {
+  return page.evaluate(() => {
+    const c = document.querySelector<HTMLCanvasElement>('[data-testid="truss-viewer"] canvas');
+    if (!c || c.width === 0) return { inside: 0, border: -1 };
+    const off = document.createElement("canvas");
+    off.width = c.width;
+    off.height = c.height;
+    const ctx = off.getContext("2d")!;
+    ctx.drawImage(c, 0, 0);
+    const d = ctx.getImageData(0, 0, c.width, c.height).data;
+    const bg = [d[0]!, d[1]!, d[2]!];
+    const bx = Math.ceil(c.width * 0.04);
+    const by = Math.ceil(c.height * 0.04);
+    let inside = 0;
+    let border = 0;
+    for (let y = 0; y < c.height; y++)
+      for (let x = 0; x < c.width; x++) {
+        const i = (y * c.width + x) * 4;
+        if (Math.abs(d[i]! - bg[0]!) + Math.abs(d[i + 1]! - bg[1]!) + Math.abs(d[i + 2]! - bg[2]!) <= 40) continue;
+        if (x < bx || y < by || x >= c.width - bx || y >= c.height - by) border++;
+        else inside++;
+      }
+    return { inside: inside / (c.width * c.height), border };
   });
 }
 
@@ -320,16 +349,75 @@ describe("pages", () => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
     const form = page.getByTestId("review-form");
+    const report = page.getByTestId("download-report");
+    await expect(report.innerText()).resolves.toBe("Calculation report (PDF) — not reviewed yet");
+    // a return without a comment is refused by the server: the choice stays, the error shows
+    await form.getByLabel("Return with changes").check();
+    await form.getByRole("button", { name: "Record decision" }).click();
+    await form.getByText("a comment is required when returning a job").waitFor({ timeout: 15_000 });
+    expect(await form.getByLabel("Return with changes").isChecked()).toBe(true);
+    // with a comment it is recorded: the form starts empty, the list and the PDF link follow
+    await form.getByLabel("Comment").fill("Add the drift case on the east bay.");
+    await form.getByRole("button", { name: "Record decision" }).click();
+    await page.getByText("Decision recorded.").waitFor({ timeout: 15_000 });
+    await expect(page.getByTestId("review-history").innerText()).resolves.toContain("Add the drift case on the east bay.");
+    expect(await form.getByLabel("Comment").inputValue()).toBe("");
+    expect(await form.getByLabel("Return with changes").isChecked()).toBe(false);
+    expect(await form.getByLabel("Approve").isChecked()).toBe(false);
+    await expect(report.innerText()).resolves.toBe("Calculation report (PDF) — changes requested, not approved");
     await form.getByLabel("Approve").check();
     await form.getByLabel("Comment").fill("Checked member forces against a hand calculation of the snow case.");
     await form.getByRole("button", { name: "Record decision" }).click();
-    await page.getByText("Decision recorded.").waitFor({ timeout: 15_000 });
+    await page.getByTestId("review-history").getByText("hand calculation of the snow case").waitFor({ timeout: 15_000 });
+    await expect(report.innerText()).resolves.toBe("Calculation report (PDF) — approved");
+    expect(await form.getByLabel("Comment").inputValue()).toBe("");
     const history = await page.getByTestId("review-history").innerText();
     expect(history).toMatch(/approved/i);
     const checkerName = (account("checker") as { name?: string }).name;
     if (checkerName) expect(history).toContain(checkerName);
     expect(history).toContain("hand calculation of the snow case");
     await screenshot(page, "pages-review-1440x900");
+    await page.close();
+  });
+
+  it("fits the tall demo mast to the view with a margin, on a desktop and on a phone", async () => {
+    const page = await pageAs("engineer");
+    const MAST = path.resolve(import.meta.dirname, "../../demo/models/halvard-point-relay-mast.truss.json");
+    await page.goto(`${app.baseUrl}/projects/${state.projectId}`);
+    await page.locator('[data-testid="upload"] input[type="file"]').setInputFiles(MAST);
+    await page.waitForURL(/\/models\/[^/]+$/, { timeout: 20_000 });
+    for (const viewport of [{ width: 1440, height: 900 }, { width: 390, height: 844 }]) {
+      await page.setViewportSize(viewport);
+      await waitForCanvas(page);
+      await page.getByRole("button", { name: "Fit to view" }).click();
+      await page.waitForTimeout(800);
+      const edges = await canvasEdgeInk(page);
+      expect(edges.inside, `${viewport.width}: the mast is drawn`).toBeGreaterThan(0.003);
+      // nothing drawn in a band of 4 % along each edge: arrows and supports included
+      expect(edges.border, `${viewport.width}: ink at the canvas edge`).toBe(0);
+      await screenshot(page, `pages-mast-fit-${viewport.width}x${viewport.height}`);
+    }
+    await page.close();
+  });
+
+  it("shows the people and roles list on a phone without sideways scrolling", async () => {
+    const page = await pageAs("admin", { width: 390, height: 844 });
+    await page.goto(`${app.baseUrl}/admin/users`);
+    await page.getByTestId("account-row").first().waitFor();
+    const sideways = await page.evaluate(() => {
+      const card = document.querySelector('[data-testid="accounts"]')!;
+      return { page: document.documentElement.scrollWidth - document.documentElement.clientWidth, list: card.scrollWidth - card.clientWidth };
+    });
+    expect(sideways.page, "the page").toBeLessThanOrEqual(1);
+    expect(sideways.list, "the list inside its card").toBeLessThanOrEqual(1);
+    // every account's role control and e-mail are on screen
+    for (const row of await page.getByTestId("account-row").all()) {
+      const box = (await row.boundingBox())!;
+      expect(box.x + box.width).toBeLessThanOrEqual(390);
+    }
+    await screenshot(page, "pages-admin-users-390x844");
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await expect(page.getByRole("columnheader", { name: "Role" }).isVisible()).resolves.toBe(true);
     await page.close();
   });
 
