@@ -9,6 +9,7 @@ import { randomUUID } from "node:crypto";
 import type { Page } from "playwright-core";
 import { startApp } from "../tests/e2e/harness";
 import { launchBrowser, signIn } from "../tests/e2e/support/browser";
+import { steelModelHeader } from "../tests/support/model-header";
 
 const GRID = Number(process.env.BENCH_PAGE_GRID ?? 19); // 19 → 2,558 members, 685 nodes
 const TARGET_MS = 2000;
@@ -41,13 +42,7 @@ function gridRoof(n: number) {
     }
   const inner = nodes.filter((x) => x.id.startsWith("T") && !x.fixed);
   return {
-    format: "strutwise.truss",
-    version: 1,
-    name: `Saltmarsh Lane market hall roof grid ${n - 1}×${n - 1}`,
-    description: "Benchmark model: double-layer grid roof on perimeter supports.",
-    units: { length: "mm", force: "N", mass: "t" },
-    dimension: 3,
-    materials: [{ id: "steel", E: 210000, density: 7.85e-9, allowableTension: 235, allowableCompression: 200 }],
+    ...steelModelHeader(`Saltmarsh Lane market hall roof grid ${n - 1}×${n - 1}`, 3, { tension: 235, compression: 200 }, "Benchmark model: double-layer grid roof on perimeter supports."),
     nodes,
     members,
     loadCases: [

@@ -20,13 +20,16 @@ interface NestedState extends LimitState {
   analysis: Analysis;
 }
 
-export interface NestedFormulation {
+/** What either formulation hands the driver: the solver problem, its counters and scale. */
+export interface Formulation<State> {
   problem: SqpProblem;
   counters: Counters;
   objectiveScale: number;
-  /** state of the last analysed design (areas, coordinates, displacements) */
-  stateAt(z: Float64Array): NestedState;
+  /** areas, coordinates and displacements at a point */
+  stateAt(z: Float64Array): State;
 }
+
+export type NestedFormulation = Formulation<NestedState>;
 
 export function nestedFormulation(p: DesignProblem): NestedFormulation {
   const s = p.structure;

@@ -28,17 +28,12 @@ import type { SparseRow, SqpProblem } from "../sqp";
 import { internalForceByGeometry, memberLengths } from "./element";
 import { Partials, limitPartials, limitValue, massPartials, objectiveValue, type LimitState } from "./limits";
 import { designState, type DesignProblem } from "./problem";
-import type { Counters } from "./nested";
+import type { Counters, Formulation } from "./nested";
 
 const AXIS = ["x", "y", "z"];
 
-export interface SimultaneousFormulation {
-  problem: SqpProblem;
-  counters: Counters;
-  objectiveScale: number;
+export interface SimultaneousFormulation extends Formulation<LimitState> {
   nFree: number;
-  /** design variables + displacements (full nNodes*3 vectors) of a point */
-  stateAt(z: Float64Array): LimitState;
 }
 
 export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulation {

@@ -3,6 +3,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { trussModelSchema, type TrussModel, type TrussModelInput } from "~/engine/truss";
+import { steelModelHeader } from "../../support/model-header";
 
 const dir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../fixtures/models/design");
 
@@ -32,12 +33,7 @@ export function mast3d(): TrussModelInput {
   }
   add("M0", "M2", "cross");
   return {
-    format: "strutwise.truss",
-    version: 1,
-    name: "Test mast (3D, shape and sizing)",
-    units: { length: "mm", force: "N", mass: "t" },
-    dimension: 3,
-    materials: [{ id: "steel", E: 210000, density: 7.85e-9, allowableTension: 235, allowableCompression: 200 }],
+    ...steelModelHeader("Test mast (3D, shape and sizing)", 3, { tension: 235, compression: 200 }),
     nodes,
     members,
     loadCases: [

@@ -1,4 +1,5 @@
 // Truss models for the queue tests, written out here so each test says what it solves.
+import { steelModelHeader } from "../../support/model-header";
 export interface ModelJson {
   [key: string]: unknown;
 }
@@ -11,12 +12,7 @@ export interface ModelJson {
  */
 export function twoBarModel(name = "Queue probe: two-bar frame"): ModelJson {
   return {
-    format: "strutwise.truss",
-    version: 1,
-    name,
-    units: { length: "mm", force: "N", mass: "t" },
-    dimension: 2,
-    materials: [{ id: "steel", E: 210000, density: 7.85e-9, allowableTension: 235, allowableCompression: 235 }],
+    ...steelModelHeader(name, 2, { tension: 235, compression: 235 }),
     nodes: [
       { id: "A", x: 0, y: 0, fixed: ["x", "y"] },
       { id: "B", x: 4000, y: 0, fixed: ["x", "y"] },
@@ -61,12 +57,7 @@ export function gridModel(bays: number, depth: number, name = `Queue probe: ${ba
       }
     }
   return {
-    format: "strutwise.truss",
-    version: 1,
-    name,
-    units: { length: "mm", force: "N", mass: "t" },
-    dimension: 2,
-    materials: [{ id: "steel", E: 210000, density: 7.85e-9, allowableTension: 235, allowableCompression: 235 }],
+    ...steelModelHeader(name, 2, { tension: 235, compression: 235 }),
     nodes,
     members,
     loadCases: [
