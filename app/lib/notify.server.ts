@@ -131,7 +131,8 @@ function noReviewReason(outcome: string): string {
 /**
  * To the submitter: the job finished (with its solver outcome), failed or was cancelled.
  * `reviewRequested` says whether checkers were asked to review the run (the queue decides it
- * from the result, see review-request.ts); without it, only an optimum counts as asked.
+ * from the result, see review-request.ts); without it, every outcome but infeasible or failed
+ * counts as asked.
  */
 export async function notifyJobFinished(jobId: string, opts: { reviewRequested?: boolean } = {}): Promise<void> {
   await guarded(`job-finished (job ${jobId})`, async () => {
@@ -152,7 +153,7 @@ export async function notifyJobFinished(jobId: string, opts: { reviewRequested?:
         facts.push([`Objective (${s.objectiveKind ?? "mass"})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
         if (s.iterations !== undefined) facts.push(["Iterations", String(s.iterations)]);
       }
-      const asked = (opts.reviewRequested ?? outcome === "optimal") && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);
+      const asked = (opts.reviewRequested ?? true) && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);
       paragraphs.push(asked ? "A checker still has to review it before the report is approved." : noReviewReason(outcome));
     } else if (j.status === "failed") {
       subject = `Job failed: ${j.modelName}${jobTag(j.id)}`;
