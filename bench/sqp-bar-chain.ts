@@ -6,7 +6,12 @@
 // practice) a_j = P (N - j) / s_max, volume P / s_max * N (N + 1) / 2.
 import type { SqpProblem } from "../app/engine/sqp";
 
-export function barChain(N: number, P = 1, sMax = 0.01): { problem: SqpProblem; volume: number } {
+/**
+ * withStates: equilibrium declared as state equations (SqpProblem.stateEquations); d(eq)/du is
+ * the chain's tridiagonal stiffness matrix (diagonal a_{i-1} + a_i, off-diagonal -a_i),
+ * solved by the Thomas algorithm, so the solver takes null-space steps.
+ */
+export function barChain(N: number, P = 1, sMax = 0.01, withStates = false): { problem: SqpProblem; volume: number } {
   const n = 2 * N; // x = [a_0..a_{N-1}, u_1..u_N]
   const A = (j: number) => j;
   const U = (i: number) => N + i - 1; // i = 1..N
@@ -69,5 +74,28 @@ export function barChain(N: number, P = 1, sMax = 0.01): { problem: SqpProblem; 
       return { grad, eq, ineq };
     },
   };
+  if (withStates) {
+    problem.stateEquations = {
+      nDesign: N,
+      factor(x) {
+        const diag = new Float64Array(N), off = new Float64Array(N); // off[k]: entry (k, k+1)
+        for (let k = 0; k < N; k++) {
+          diag[k] = x[A(k)] + (k + 1 < N ? x[A(k + 1)] : 0);
+          if (k + 1 < N) off[k] = -x[A(k + 1)];
+        }
+        const solve = (r: Float64Array) => {
+          const c = new Float64Array(N), d = new Float64Array(N);
+          for (let k = 0; k < N; k++) {
+            const m = diag[k] - (k > 0 ? off[k - 1] * c[k - 1] : 0);
+            c[k] = off[k] / m;
+            d[k] = (r[k] - (k > 0 ? off[k - 1] * d[k - 1] : 0)) / m;
+          }
+          for (let k = N - 2; k >= 0; k--) d[k] -= c[k] * d[k + 1];
+          return d;
+        };
+        return { solve, solveTransposed: solve }; // symmetric
+      },
+    };
+  }
   return { problem, volume: ((P / sMax) * N * (N + 1)) / 2 };
 }

@@ -61,11 +61,11 @@ for (const [n, m, screening] of sizes) {
 
 console.log("\nbar chain, simultaneous formulation (areas and displacements, equilibrium as equalities; closed-form volume):");
 for (const N of [5, 20, 50]) {
-  for (const hessian of ["bfgs", "lbfgs"] as const) {
-    const { problem, volume } = barChain(N);
+  for (const [hessian, withStates] of [["bfgs", false], ["lbfgs", false], ["bfgs", true]] as const) {
+    const { problem, volume } = barChain(N, 1, 0.01, withStates);
     const t0 = performance.now();
     const r = minimize(problem, { hessian, maxIterations: 200 });
     const s = (performance.now() - t0) / 1000;
-    console.log(`N=${N} ${hessian.padEnd(5)} ${r.status.padEnd(13)} volume ${r.f.toPrecision(8)} (closed form ${volume}) rel.err ${(Math.abs(r.f - volume) / volume).toExponential(1)} it ${r.iterations} ${s.toFixed(2)} s`);
+    console.log(`N=${N} ${hessian.padEnd(5)} ${(withStates ? "null-space" : "full").padEnd(10)} ${r.status.padEnd(13)} volume ${r.f.toPrecision(8)} (closed form ${volume}) rel.err ${(Math.abs(r.f - volume) / volume).toExponential(1)} it ${r.iterations} ${s.toFixed(2)} s`);
   }
 }

@@ -22,7 +22,8 @@
 //   stationarity     ||g + J_E'l_E + J_I'l_I - nu_lower + nu_upper||inf <= tol
 //   feasibility      max(|c_E|, max(0, c_I)) over EVERY row <= tol
 //   complementarity  max(|l_i c_i|, nu_j * distance to bound j) <= tol
-// kktResidual is the largest of the three. "optimal" only when all three hold at the returned
+// (stationarity divided by max(1, mean |multiplier| / 100): with huge multipliers the residual
+// carries their rounding, the measure interior-point codes use.) kktResidual is the largest of the three. "optimal" only when all three hold at the returned
 // point, which satisfies all rows to tol (scaled) — never at a violating point.
 // Other ends: iteration or time limit and no-progress -> "not-converged" with the best point
 // (lowest objective among feasible iterates, else the least violation); elastic mode that can
@@ -258,6 +259,12 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       if (m.upper[j] > 0) compl = Math.max(compl, m.upper[j] * (hi[j] - xs[j]));
     }
     for (let i = 0; i < nIneq; i++) if (m.ineq[i] !== 0) compl = Math.max(compl, Math.abs(m.ineq[i] * p.ci[i]));
+    // stationarity relative to the multipliers' size, as interior-point codes measure it:
+    // divided by max(1, mean |multiplier| / 100), since with multipliers of 1e7 the residual
+    // of g + J'l carries their rounding (IPOPT's s_d, Waechter & Biegler 2006)
+    let mSum = 0;
+    for (const a of [m.eq, m.ineq, m.lower, m.upper]) for (let i = 0; i < a.length; i++) mSum += Math.abs(a[i]);
+    stat /= Math.max(1, mSum / (nEq + nIneq + 2 * n) / 100);
     const feas = maxViolation(p.ce, p.ci);
     kktParts = { stat, compl, feas };
     return Math.max(stat, compl, feas);

@@ -7,6 +7,7 @@
 import { Matrix, LuDecomposition } from "ml-matrix";
 import { describe, expect, it } from "vitest";
 import { minimize, type SqpProblem } from "~/engine/sqp";
+import { barChain } from "../../../bench/sqp-bar-chain";
 import { compile, hockSchittkowski, toSqpProblem, type HsProblem } from "./hock-schittkowski";
 
 /**
@@ -91,5 +92,17 @@ describe("null-space steps on Hock-Schittkowski problems with equalities", () =>
     const r = minimize({ ...base, stateEquations: { nDesign: 2, factor: () => { throw new Error("the stiffness matrix is singular"); } } }, {});
     expect(r.status).toBe("failed");
     expect(r.message).toMatch(/could not be factored at .*the stiffness matrix is singular/);
+  });
+});
+
+describe("null-space steps on the bar chain (simultaneous formulation of a determinate truss)", () => {
+  // Closed form (common practice): a statically determinate chain's minimum-volume design is
+  // fully stressed, a_j = P (N - j) / s_max, volume P / s_max * N (N + 1) / 2 (bench/sqp-bar-chain.ts).
+  it.each([5, 20, 50])("N = %i reaches the fully stressed volume", (N) => {
+    const { problem, volume } = barChain(N, 1, 0.01, true);
+    const r = minimize(problem, { maxIterations: 100 });
+    expect(r.status, r.message).toBe("optimal");
+    expect(Math.abs(r.f - volume) / volume).toBeLessThan(1e-9);
+    for (let j = 0; j < N; j++) expect(r.x[j]).toBeCloseTo((N - j) / 0.01, 6);
   });
 });
