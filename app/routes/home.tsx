@@ -6,6 +6,7 @@ import { fmtDateTime } from "~/components/ui/format";
 import { EmptyState } from "~/components/ui/States";
 import { db } from "~/db/client.server";
 import { reviews } from "~/db/schema";
+import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { getUser } from "~/lib/auth/authorize.server";
 import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { listProjects } from "~/lib/auth/projects.server";
@@ -29,7 +30,8 @@ export async function loader({ request }: Route.LoaderArgs) {
     listJobs({ submittedBy: engineer && user.role !== "admin" ? user.id : undefined, limit: 8 }),
     listProjects(),
   ]);
-  let waiting = succeeded.jobs.filter((j) => j.submittedBy !== user.id);
+  // an infeasible run has no design to sign off (review-request.ts), so it waits for nobody
+  let waiting = succeeded.jobs.filter((j) => j.submittedBy !== user.id && !OUTCOMES_WITHOUT_REVIEW.includes(j.outcome ?? ""));
   if (waiting.length) {
     const reviewed = new Set(
       (await db().select({ jobId: reviews.jobId }).from(reviews).where(inArray(reviews.jobId, waiting.map((j) => j.id)))).map((r) => r.jobId),

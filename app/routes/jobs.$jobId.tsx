@@ -7,6 +7,7 @@ import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
 import { OutcomePanel } from "~/components/job/OutcomePanel";
 import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
 import { ReviewForm, ReviewHistory, type ReviewActionData } from "~/components/job/ReviewPanel";
+import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { latestDecision, reportLinkLabel } from "~/components/job/review-words";
 import { useJobFiles } from "~/components/job/useJobFiles";
 import { Cautions } from "~/components/ui/Cautions";
@@ -320,7 +321,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           <ReviewHistory reviews={reviews} />
           {job.status === "succeeded" && may.review && (
             <div className="mt-4 border-t border-rule pt-4">
-              <ReviewForm />
+              <ReviewForm canApprove={!OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "")} />
             </div>
           )}
           {job.status === "succeeded" && may.own && !may.review && (

@@ -48,7 +48,7 @@ export function req(path: string, init: RequestInit & { cookie?: string; key?: s
 }
 
 /** A project, a model and a job row straight in the database (the queue is not needed here). */
-export async function makeJob(opts: { submittedBy: string; status?: "queued" | "running" | "succeeded" | "failed" | "cancelled"; code?: string }) {
+export async function makeJob(opts: { submittedBy: string; status?: "queued" | "running" | "succeeded" | "failed" | "cancelled"; code?: string; outcome?: "optimal" | "not-converged" | "infeasible" }) {
   const { db } = await import("~/db/client.server");
   const { projects, models, jobs } = await import("~/db/schema");
   const { randomUUID } = await import("node:crypto");
@@ -72,6 +72,6 @@ export async function makeJob(opts: { submittedBy: string; status?: "queued" | "
     warnings: [],
     uploadedBy: opts.submittedBy,
   });
-  await db().insert(jobs).values({ id: jobId, projectId, modelId, submittedBy: opts.submittedBy, status: opts.status ?? "succeeded", options: {} });
+  await db().insert(jobs).values({ id: jobId, projectId, modelId, submittedBy: opts.submittedBy, status: opts.status ?? "succeeded", options: {}, ...(opts.outcome ? { outcome: opts.outcome } : {}) });
   return { projectId, modelId, jobId };
 }

@@ -69,6 +69,15 @@ describe("four-eyes review", () => {
     expect((await res.json()).error).toContain(status);
   });
 
+  it("an infeasible run has no design to approve: 409, but it can be returned with comments", async () => {
+    const { jobId } = await makeJob({ submittedBy: ids.engineer!, outcome: "infeasible" });
+    const res = await post(jobId, "checker", { decision: "approved", comment: "" });
+    expect(res.status).toBe(409);
+    expect((await res.json()).error).toMatch(/ended infeasible: it has no design to approve/);
+    const back = await post(jobId, "checker", { decision: "changes-requested", comment: "Widen the area bounds of the tie" });
+    expect(back.status).toBe(201);
+  });
+
   it("returning a job needs a comment: 400 on the comment field", async () => {
     const { jobId } = await makeJob({ submittedBy: ids.engineer! });
     const res = await post(jobId, "checker", { decision: "changes-requested", comment: "   " });

@@ -71,3 +71,24 @@ describe("review form reset", () => {
     expect(formShouldReset("idle", undefined)).toBe(false);
   });
 });
+
+describe("review form of an infeasible run", () => {
+  // useFetcher needs a data router: render inside one made in memory
+  async function render(canApprove: boolean) {
+    const { createMemoryRouter, RouterProvider } = await import("react-router");
+    const { ReviewForm } = await import("~/components/job/ReviewPanel");
+    const router = createMemoryRouter([{ path: "/", element: createElement(ReviewForm, { canApprove }) }]);
+    return renderToString(createElement(RouterProvider, { router }));
+  }
+  it("offers no approval, only a return with changes, and says why", async () => {
+    const html = await render(false);
+    expect(html).not.toContain('value="approved"');
+    expect(html).toContain('value="changes-requested"');
+    expect(html).toContain("nothing to approve");
+  });
+  it("offers both decisions otherwise", async () => {
+    const html = await render(true);
+    expect(html).toContain('value="approved"');
+    expect(html).toContain('value="changes-requested"');
+  });
+});

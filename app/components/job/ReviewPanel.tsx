@@ -38,7 +38,8 @@ export interface ReviewActionData {
   fieldErrors?: { decision?: string; comment?: string };
 }
 
-export function ReviewForm() {
+/** canApprove false: the run has no design to sign off (infeasible), it can only be returned. */
+export function ReviewForm({ canApprove = true }: { canApprove?: boolean }) {
   const fetcher = useFetcher<ReviewActionData>();
   const busy = fetcher.state !== "idle";
   const errs = fetcher.data?.fieldErrors ?? {};
@@ -54,13 +55,16 @@ export function ReviewForm() {
       <fieldset>
         <legend className="field-label">Decision</legend>
         <div className="flex flex-wrap gap-4 text-sm">
+          {canApprove && (
+            <label className="flex items-center gap-2">
+              <input type="radio" name="decision" value="approved" className="accent-[var(--color-ok)]" required /> Approve
+            </label>
+          )}
           <label className="flex items-center gap-2">
-            <input type="radio" name="decision" value="approved" className="accent-[var(--color-ok)]" required /> Approve
-          </label>
-          <label className="flex items-center gap-2">
-            <input type="radio" name="decision" value="changes-requested" className="accent-[var(--color-warn)]" /> Return with changes
+            <input type="radio" name="decision" value="changes-requested" className="accent-[var(--color-warn)]" required={!canApprove} /> Return with changes
           </label>
         </div>
+        {!canApprove && <p className="mt-1 text-sm text-ink-soft">No design met every limit, so there is nothing to approve; return it with what must change.</p>}
         {errs.decision && <p className="field-error">{errs.decision}</p>}
       </fieldset>
       <label className="block">

@@ -9,6 +9,7 @@ import { db as defaultDb, type Db } from "~/db/client.server";
 import { jobs, reviews, user } from "~/db/schema";
 import { jsonError } from "~/lib/http.server";
 import { notifyDecision } from "~/lib/notify.server";
+import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { audit } from "./audit.server";
 import { forbidden, type SessionUser } from "./authorize.server";
 import { can } from "./permissions";
@@ -41,7 +42,8 @@ export interface Review {
 
 /**
  * Record a decision. Throws a Response: 403 (no review permission, or the four-eyes rule),
- * 404 (no such job), 409 (the job has not succeeded), 400 (missing comment).
+ * 404 (no such job), 409 (the job has not succeeded, or an approval of an infeasible run),
+ * 400 (missing comment).
  */
 export async function createReview(
   input: { jobId: string; reviewer: SessionUser; decision: Decision; comment?: string; request?: Request },
@@ -62,6 +64,9 @@ export async function createReview(
   }
   if (job.status !== "succeeded") {
     throw jsonError(409, `Only a succeeded job can be reviewed; job ${job.id} is ${job.status}`);
+  }
+  if (parsed.data.decision === "approved" && OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "")) {
+    throw jsonError(409, `Job ${job.id} ended ${job.outcome}: it has no design to approve; return it with comments instead`);
   }
   const id = randomUUID();
   await database.insert(reviews).values({
