@@ -104,9 +104,29 @@ def main():
     x0 = np.array(P["x0"], dtype=float)
     bounds = list(zip(P["lower"], P["upper"]))
     cons = [{"type": "ineq", "fun": lambda x: -response_rows(x)[0], "jac": lambda x: -response_rows(x)[1]}] if limits else []
+    # optional wall-time cap: the iteration callback stops the run and the figures so far are
+    # printed (iterations done, their time), so a benchmark can compare the cost per iteration
+    max_seconds = P.get("maxSeconds")
+    done = {"nit": 0, "x": x0}
+
+    class TimeUp(Exception):
+        pass
+
+    def callback(xk):
+        done["nit"] += 1
+        done["x"] = xk
+        if max_seconds is not None and time.perf_counter() - t > max_seconds:
+            raise TimeUp()
+
     t = time.perf_counter()
-    r = minimize(fun, x0, jac=grad, bounds=bounds, constraints=cons, method="SLSQP",
-                 options={"maxiter": P.get("maxiter", 500), "ftol": P.get("ftol", 1e-10)})
+    try:
+        r = minimize(fun, x0, jac=grad, bounds=bounds, constraints=cons, method="SLSQP", callback=callback,
+                     options={"maxiter": P.get("maxiter", 500), "ftol": P.get("ftol", 1e-10)})
+    except TimeUp:
+        secs = time.perf_counter() - t
+        print(json.dumps({"x": list(map(float, done["x"])), "f": float(fun(done["x"]) * f0), "nit": done["nit"], "nfev": -1,
+                          "njev": -1, "success": False, "message": f"stopped at the {max_seconds} s cap", "seconds": secs, "capped": True}))
+        return
     secs = time.perf_counter() - t
     print(json.dumps({"x": r.x.tolist(), "f": float(r.fun * f0), "nit": int(r.nit), "nfev": int(r.nfev),
                       "njev": int(r.njev), "success": bool(r.success), "message": str(r.message), "seconds": secs}))

@@ -22,6 +22,8 @@ export interface SlsqpOutcome {
   success: boolean;
   message: string;
   seconds: number;
+  /** stopped by maxSeconds: nit iterations done in `seconds` */
+  capped?: boolean;
 }
 
 export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
@@ -45,10 +47,14 @@ export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
   };
 }
 
-export function runSlsqp(p: DesignProblem, f0: number, opts: { maxiter?: number; timeoutMs?: number } = {}): SlsqpOutcome | null {
+/**
+ * maxSeconds: SLSQP stops itself after that much time and reports the iterations done
+ * (capped: true); timeoutMs: a hard kill of the process, which then throws.
+ */
+export function runSlsqp(p: DesignProblem, f0: number, opts: { maxiter?: number; timeoutMs?: number; maxSeconds?: number } = {}): SlsqpOutcome | null {
   const py = scipyPython();
   if (!py) return null;
-  const input = JSON.stringify(slsqpProblemData(p, f0, opts.maxiter));
+  const input = JSON.stringify({ ...slsqpProblemData(p, f0, opts.maxiter), ...(opts.maxSeconds ? { maxSeconds: opts.maxSeconds } : {}) });
   const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs });
   if (r.status !== 0) throw new Error(`slsqp_truss.py failed (${r.status ?? r.signal}): ${r.stderr}`);
   return JSON.parse(r.stdout.trim().split("\n").pop()!) as SlsqpOutcome;
