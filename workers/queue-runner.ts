@@ -27,7 +27,7 @@ import { jobResultKey } from "~/lib/jobs/keys";
 import { ProgressRecorder, type ProgressPoint } from "~/lib/jobs/progress.server";
 import { designWorthReview } from "~/lib/review-request";
 import { getText, putObject } from "~/lib/storage.server";
-import type { SolveTaskInput, SolveTaskOutput } from "./solve-task";
+import type { PROGRESS_END, SolveTaskInput, SolveTaskOutput } from "./solve-task";
 
 type StopReason = "cancel" | "time" | "lost" | "shutdown";
 
@@ -276,15 +276,19 @@ export class QueueRunner {
     signal.throwIfAborted();
 
     const { port1, port2 } = new MessageChannel();
-    port1.on("message", (p: ProgressPoint) => recorder.push(p));
+    // progress and the result travel on different ports: the result is recorded only once the
+    // task's end mark has come through the progress port, so no progress is lost
+    let drained!: () => void;
+    const ended = new Promise<void>((resolve) => (drained = resolve));
+    port1.on("message", (p: ProgressPoint | typeof PROGRESS_END) => {
+      if ("end" in p) drained();
+      else recorder.push(p);
+    });
     const input: SolveTaskInput = { jobId: job.id, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2 };
-    // the task closes its end when it returns; progress and the result travel on different
-    // ports, so wait for that close (all progress delivered) before the result is recorded
-    const drained = new Promise<void>((resolve) => port1.once("close", () => resolve()));
     try {
       const out = (await this.o.pool.run(input, { transferList: [port2] as never, signal })) as SolveTaskOutput;
       let timer: NodeJS.Timeout | undefined;
-      await Promise.race([drained, new Promise<void>((r) => (timer = setTimeout(r, 2000)))]);
+      await Promise.race([ended, new Promise<void>((r) => (timer = setTimeout(r, 2000)))]);
       clearTimeout(timer);
       return out;
     } finally {

@@ -23,6 +23,9 @@ export interface SolveTaskOutput {
   elapsedMs: number;
 }
 
+/** Posted on the progress port when the task ends, after every progress message. */
+export const PROGRESS_END = { end: true } as const;
+
 /** A model the engine refuses; the message names the offending item. */
 export class ModelRejectedError extends Error {
   override name = "ModelRejectedError";
@@ -60,6 +63,9 @@ export default function solveTask(input: SolveTaskInput): SolveTaskOutput {
       elapsedMs: performance.now() - started,
     };
   } finally {
+    // the end mark: messages on one port arrive in order, so the caller knows that every
+    // progress message before it has arrived (a port closed here is not seen closed there)
+    port?.postMessage(PROGRESS_END);
     port?.close();
   }
 }
