@@ -2,7 +2,7 @@
 // key is kept; the key itself is shown once. A key acts with its owner's role as it is at the
 // time of each request, so a demotion takes effect on the owner's keys at once.
 import { createHash, randomBytes, randomUUID } from "node:crypto";
-import { and, desc, eq, isNull } from "drizzle-orm";
+import { and, desc, eq, isNull, sql } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
 import { apiKeys, user } from "~/db/schema";
 import { audit } from "./audit.server";
@@ -88,15 +88,32 @@ export async function revokeApiKey(
   return true;
 }
 
+// every API request runs this lookup: built and prepared once per database, not per call
+const ownerQueries = new WeakMap<Db, ReturnType<typeof prepareOwnerQuery>>();
+function prepareOwnerQuery(database: Db) {
+  return database
+    // only what authorization reads of the owner (authorize.server.ts toSessionUser)
+    .select({
+      keyId: apiKeys.id,
+      lastUsedAt: apiKeys.lastUsedAt,
+      user: { id: user.id, email: user.email, name: user.name, role: user.role, banned: user.banned },
+    })
+    .from(apiKeys)
+    .innerJoin(user, eq(user.id, apiKeys.userId))
+    .where(and(eq(apiKeys.hash, sql.placeholder("hash")), isNull(apiKeys.revokedAt)))
+    .limit(1)
+    .prepare();
+}
+function ownerQuery(database: Db) {
+  let q = ownerQueries.get(database);
+  if (!q) ownerQueries.set(database, (q = prepareOwnerQuery(database)));
+  return q;
+}
+
 /** The owner of a live key, or null for an unknown, malformed or revoked key. */
 export async function ownerOfApiKey(key: string, database: Db = defaultDb()) {
   if (!key.startsWith(KEY_PREFIX) || key.length > 200) return null;
-  const rows = await database
-    .select({ keyId: apiKeys.id, lastUsedAt: apiKeys.lastUsedAt, user })
-    .from(apiKeys)
-    .innerJoin(user, eq(user.id, apiKeys.userId))
-    .where(and(eq(apiKeys.hash, hashApiKey(key)), isNull(apiKeys.revokedAt)))
-    .limit(1);
+  const rows = await ownerQuery(database).execute({ hash: hashApiKey(key) });
   const hit = rows[0];
   if (!hit) return null;
   // record use at most once a minute, to keep scripted bursts from writing on every call

@@ -27,7 +27,7 @@ function bearerToken(request: Request): string | null {
 
 type UserRow = { id: string; email: string; name: string; role?: string | null; banned?: boolean | null };
 
-function toSessionUser(u: UserRow, via: SessionUser["via"]): SessionUser | null {
+function toSessionUser(u: Pick<UserRow, "id" | "email" | "name" | "role" | "banned">, via: SessionUser["via"]): SessionUser | null {
   if (u.banned) return null;
   // a role outside the known four gets nothing: deny by default
   if (!isRole(u.role)) return null;
