@@ -39,6 +39,12 @@ export function elasticHessian(B: HessianApprox, n: number): QpHessian {
           if (j === n) fixedXi = false;
           else inner.free(j);
         },
+        fixMany(js) {
+          if (js.includes(n)) fixedXi = true;
+          const rest = js.filter((j) => j !== n);
+          if (inner.fixMany) inner.fixMany(rest);
+          else for (const j of rest) inner.fix(j);
+        },
       };
     },
   };

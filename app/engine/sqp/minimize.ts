@@ -119,15 +119,16 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   const n = Number.isInteger(problem.n) && problem.n > 0 ? problem.n : 0;
   const nEq = problem.nEq ?? 0;
   const nIneq = problem.nIneq ?? 0;
-  if (shapeError) {
-    const x = new Float64Array(n);
-    const { message, hint } = describeStop({ kind: "failed", what: shapeError });
+  /** A problem refused before any evaluation: nothing computed, the sentence says why. */
+  const refused = (what: string, x: Float64Array): SqpResult => {
+    const { message, hint } = describeStop({ kind: "failed", what });
     return {
       status: "failed", message, hint, x, f: 0, eq: new Float64Array(nEq), ineq: new Float64Array(nIneq),
       multipliers: emptyResult(n, nEq, nIneq), iterations: 0, evaluations: 0, derivativeEvaluations: 0,
       kktResidual: Infinity, maxViolation: Infinity, history,
     };
-  }
+  };
+  if (shapeError) return refused(shapeError, new Float64Array(n));
 
   // project x0 into the bounds
   const lower = new Float64Array(n);
@@ -152,14 +153,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   const stateEq = problem.stateEquations && options.reducedSpace !== false ? problem.stateEquations : null;
   if (stateEq) {
     const bad = checkStateEquations(stateEq, n, nEq, lower, upper, (j) => problem.names?.variables?.[j] ?? `x[${j}]`);
-    if (bad) {
-      const { message, hint } = describeStop({ kind: "failed", what: bad });
-      return {
-        status: "failed", message, hint, x: x0, f: 0, eq: new Float64Array(nEq), ineq: new Float64Array(nIneq),
-        multipliers: emptyResult(n, nEq, nIneq), iterations: 0, evaluations: 0, derivativeEvaluations: 0,
-        kktResidual: Infinity, maxViolation: Infinity, history,
-      };
-    }
+    if (bad) return refused(bad, x0);
   }
   const nB = stateEq ? stateEq.nDesign : n;
   const hessianKind = options.hessian ?? (nB <= 400 ? "bfgs" : "lbfgs");
@@ -277,9 +271,15 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
   const atNoiseFloor = (D: number, phi0: number): boolean =>
     kktParts.feas <= tol && kktParts.compl <= tol && kktParts.stat <= Math.sqrt(tol) && -D <= 1e-13 * (1 + Math.abs(phi0));
 
-  // least-squares multipliers at the start, for the rows active there
+  // first multipliers: from the states with state equations, else least squares on the rows
+  // active at the start
   const lsMult = emptyResult(n, nEq, nIneq);
-  if (!stateEq) {
+  if (stateEq) {
+    // multipliers of the state equations from stationarity in the states (exact, one solve)
+    const fac = stateFactorAt(x);
+    if (typeof fac === "string") return failed(fac, { x, pt, mult: emptyResult(n, nEq, nIneq), kkt: Infinity }, 0);
+    lsMult.eq.set(fac.solveTransposed(Float64Array.from(dv.g.subarray(nB, n))).map((v) => -v));
+  } else {
     const rows: QpRow[] = [];
     const tags: [kind: number, i: number][] = [];
     const nearTol = Math.max(tol, 1e-6);
@@ -299,15 +299,6 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       else if (kind === 2) lsMult.lower[i] = Math.max(0, lam[k]);
       else lsMult.upper[i] = Math.max(0, lam[k]);
     });
-  }
-  if (stateEq) {
-    // multipliers of the state equations from stationarity in the states (exact, one solve)
-    const fac = stateFactorAt(x);
-    if (typeof fac === "string") return failed(fac, { x, pt, mult: emptyResult(n, nEq, nIneq), kkt: Infinity }, 0);
-    lsMult.ineq.fill(0);
-    lsMult.lower.fill(0);
-    lsMult.upper.fill(0);
-    lsMult.eq.set(fac.solveTransposed(Float64Array.from(dv.g.subarray(nB, n))).map((v) => -v));
   }
   let mult: Multipliers = lsMult;
   let kkt = kktAt(pt, dv, lsMult, x);

@@ -141,12 +141,14 @@ export function solveReducedQp(q: ReducedQpInput): QpOutput {
 
   // reduced inequality rows: one adjoint solve per row that depends on the states
   const adjoints: (Float64Array | null)[] = [];
+  const stateParts: (Float64Array | null)[] = []; // G_y,i, kept for the correction solve
   const shifts = new Float64Array(rowsIn.length); // G_y,i p
   const rows: QpRow[] = [];
   const rhs = new Float64Array(rowsIn.length);
   rowsIn.forEach((i, k) => {
     const r = dv.ji[i] as QpRow;
     const gyRow = statePart(r, nD, nY);
+    stateParts.push(gyRow);
     const red = designPart(r, nD);
     let t: Float64Array | null = null;
     if (gyRow) {
@@ -218,8 +220,8 @@ export function solveReducedQp(q: ReducedQpInput): QpOutput {
     resolve(eqRhs, ineqRhs) {
       const p2 = factor.solve(eqRhs);
       const red = new Float64Array(rowsIn.length);
-      rowsIn.forEach((i, k) => {
-        const gyRow = statePart(dv.ji[i] as QpRow, nD, nY);
+      rowsIn.forEach((_, k) => {
+        const gyRow = stateParts[k];
         let sh = 0;
         if (gyRow) for (let c = 0; c < nY; c++) sh += gyRow[c] * p2[c];
         red[k] = ineqRhs[k] - sh;

@@ -5,7 +5,7 @@ import { asc, eq, sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { reviews, user } from "~/db/schema";
 import type { TrussResult } from "~/engine/design/result-types";
-import { loadJobWithModel } from "~/lib/job-with-model.server";
+import { loadJobWithModel, type JobWithModel } from "~/lib/job-with-model.server";
 import { getObject, getText, putObject } from "~/lib/storage.server";
 import { buildReportPdf } from "./document";
 import type { ModelFile, ReportData } from "./report-data";
@@ -27,11 +27,17 @@ export class ReportError extends Error {
   }
 }
 
-export async function loadReportData(jobId: string): Promise<ReportData> {
+/** The job's rows; 404 without such a job, 409 unless it succeeded. */
+async function succeededJob(jobId: string): Promise<JobWithModel> {
   const row = await loadJobWithModel(jobId);
   if (!row) throw new ReportError(404, `Job ${jobId} not found`);
-  const { job, model, project, submitter } = row;
-  if (job.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${job.status}; a report exists only for a job that succeeded`);
+  if (row.job.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${row.job.status}; a report exists only for a job that succeeded`);
+  return row;
+}
+
+/** Everything the report shows; `row` when the caller has loaded the job already. */
+export async function loadReportData(jobId: string, row?: JobWithModel): Promise<ReportData> {
+  const { job, model, project, submitter } = row ?? (await succeededJob(jobId));
   if (!job.resultKey) throw new ReportError(409, `Job ${jobId} succeeded but has no stored result`);
 
   const resultText = await getText(job.resultKey);
@@ -120,15 +126,13 @@ export async function renderReportFile(jobId: string): Promise<RenderedReport> {
     .orderBy(...REVIEW_ORDER);
   const latestId = latest.length ? latest[latest.length - 1]!.id : null;
   const key = reportCacheKey(jobId, latestId);
-  const f = await loadJobWithModel(jobId);
-  if (!f) throw new ReportError(404, `Job ${jobId} not found`);
-  if (f.job.status !== "succeeded") throw new ReportError(409, `Job ${jobId} is ${f.job.status}; a report exists only for a job that succeeded`);
+  const f = await succeededJob(jobId);
   const fileName = reportFileName(f.project.code, f.model.name, jobId);
 
   const hit = await getObject(key);
   if (hit && hit.byteLength > 0) return { bytes: hit, fileName, cacheKey: key, cached: true };
 
-  const data = await loadReportData(jobId);
+  const data = await loadReportData(jobId, f);
   const bytes = await buildReportPdf(data);
   // a decision made while this report was being gathered is in it: file it under that state
   const storedKey = reportCacheKey(jobId, data.reviews[data.reviews.length - 1]?.id ?? null);
