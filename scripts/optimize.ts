@@ -2,8 +2,6 @@
 // Result JSON on stdout (or into --out), progress on stderr.
 // Exit codes: 0 optimal, 2 invalid input, 3 infeasible, 4 not converged, 1 anything else.
 import fs from "node:fs";
-import { parseModel } from "../app/engine/truss";
-import { optimizeModel, DesignSetupError } from "../app/engine/design";
 
 const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--quiet]";
 const EXIT = { optimal: 0, failed: 1, infeasible: 3, "not-converged": 4 } as const;
@@ -38,8 +36,12 @@ function parseArgs(argv: string[]) {
   return out;
 }
 
-function main() {
+async function main() {
   const args = parseArgs(process.argv.slice(2));
+  // the engine loads only once the arguments are known good: `--help` and a usage error answer
+  // without it (the precompiled bundle keeps it in a chunk of its own)
+  const { parseModel } = await import("../app/engine/truss");
+  const { optimizeModel, DesignSetupError } = await import("../app/engine/design");
   let text: string;
   try {
     text = fs.readFileSync(args.file!, "utf8");
@@ -87,4 +89,4 @@ function main() {
   process.exitCode = EXIT[result.status] ?? 1;
 }
 
-main();
+await main();

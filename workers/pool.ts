@@ -3,6 +3,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { Piscina } from "piscina";
 import { config } from "~/lib/config.server";
+import { bundleNeeded, toolFile } from "../scripts/tools-bundle.mjs";
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 
@@ -16,7 +17,9 @@ export interface SolvePoolOptions {
 export function createSolvePool(opts: SolvePoolOptions = {}): Piscina {
   const c = config();
   const threads = opts.threads ?? c.WORKER_THREADS;
-  const filename = opts.filename ?? path.join(here, "solve-task.ts");
+  // the precompiled task when its bundle is fresh (the worker makes it so at start-up): a
+  // thread then starts without compiling TypeScript
+  const filename = opts.filename ?? (bundleNeeded() === null ? toolFile("solve-task") : path.join(here, "solve-task.ts"));
   // A .ts task needs the tsx loader in each thread; threads inherit the process's flags, so
   // it is added only when the process was not started with it.
   const hasTsx = process.execArgv.some((a, i, all) => a.includes("tsx") && (i === 0 || all[i - 1] === "--import" || a.startsWith("--import")));

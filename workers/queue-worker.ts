@@ -6,6 +6,7 @@ import { sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { migrateDb } from "~/db/migrate.server";
 import { config } from "~/lib/config.server";
+import { ensureToolsBundle } from "../scripts/tools-bundle.mjs";
 import { createSolvePool } from "./pool";
 import { QueueRunner } from "./queue-runner";
 
@@ -28,6 +29,8 @@ async function main() {
   const c = config();
   if (process.argv.includes("--migrate")) await migrateDb(db());
   await waitForSchema();
+  const bundled = await ensureToolsBundle().catch((e: Error) => `not bundled (${e.message}); the threads compile TypeScript`);
+  if (bundled) console.log(`[worker] solver threads: ${bundled}`);
   const pool = createSolvePool();
   const runner = new QueueRunner({
     db: db(),

@@ -1,4 +1,4 @@
-// `npm run optimize` end to end: result JSON on stdout or into --out, progress on stderr, and
+// `npm run optimize` end to end (the precompiled bundle, as npm runs it): result JSON on stdout or into --out, progress on stderr, and
 // the documented exit codes (0 optimal, 2 invalid input, 3 infeasible, 4 not converged).
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
@@ -9,7 +9,7 @@ import { describe, expect, it } from "vitest";
 const root = path.resolve(import.meta.dirname, "../../..");
 const fx = (f: string) => path.join(root, "tests/fixtures/models/design", f);
 const run = (...args: string[]) =>
-  spawnSync(process.execPath, ["--import", "tsx", path.join(root, "scripts/optimize.ts"), ...args], { cwd: root, encoding: "utf8" });
+  spawnSync(process.execPath, [path.join(root, "scripts/run-tool.mjs"), "optimize", ...args], { cwd: root, encoding: "utf8", env: { ...process.env, STRUTWISE_QUIET_BUNDLE: "1" } });
 
 describe("optimize command line", () => {
   it("prints the result JSON of an optimal run and exits 0", () => {

@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 const root = path.join(import.meta.dirname, "../../..");
 const fixtures = path.join(root, "tests/fixtures/models/analysis");
 const run = (file: string) =>
-  spawnSync(process.execPath, ["--import", "tsx", path.join(root, "scripts/analyze.ts"), file], { cwd: root, encoding: "utf8" });
+  spawnSync(process.execPath, [path.join(root, "scripts/run-tool.mjs"), "analyze", file], { cwd: root, encoding: "utf8", env: { ...process.env, STRUTWISE_QUIET_BUNDLE: "1" } });
 
 describe("analyze command line", () => {
   it("prints the analysis with the result format's field names", () => {
