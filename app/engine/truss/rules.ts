@@ -31,7 +31,10 @@ export function checkReferences(raw: unknown, errors: IssueList): void {
   const materialIds = duplicates(errors, materials, ["materials"], "material");
   const nodeIds = duplicates(errors, nodes, ["nodes"], "node");
   duplicates(errors, members, ["members"], "member");
-  duplicates(errors, loadCases, ["loadCases"], "load case");
+  const caseIds = duplicates(errors, loadCases, ["loadCases"], "load case");
+  const sections = list(raw.sections);
+  const sectionIds = duplicates(errors, sections, ["sections"], "section");
+  checkCombinations(list(raw.combinations), caseIds, errors);
 
   members.forEach((m, e) => {
     const a = str(m.start);
@@ -49,6 +52,13 @@ export function checkReferences(raw: unknown, errors: IssueList): void {
     }
     const mat = str(m.material);
     if (mat !== undefined && !materialIds.has(mat)) errors.add(["members", e, "material"], `uses material "${mat}", which is not defined in materials`);
+    const sec = str(m.section);
+    if (sec === undefined && m.area === undefined) errors.add(["members", e, "area"], `"area" is missing: give the member an area or a section`);
+    if (sec !== undefined && !sectionIds.has(sec)) {
+      errors.add(["members", e, "section"], sections.length > 0
+        ? `uses section "${sec}", which is not in the model's sections catalogue`
+        : `uses section "${sec}", but the model lists no sections`);
+    }
   });
 
   loadCases.forEach((lc, c) => {
@@ -58,7 +68,27 @@ export function checkReferences(raw: unknown, errors: IssueList): void {
     });
   });
 
-  if (isObj(raw.design)) checkDesign(raw.design, { dim, nodes, nodeIds, members, materials, materialIds }, errors);
+  if (isObj(raw.design)) checkDesign(raw.design, { dim, nodes, nodeIds, members, materials, materialIds, sections }, errors);
+}
+
+/** Combinations: ids apart from the load cases' (results share one map), factors on known cases. */
+function checkCombinations(combinations: Obj[], caseIds: Map<string, number>, errors: IssueList): void {
+  const seen = new Map<string, number>();
+  combinations.forEach((c, i) => {
+    const id = str(c.id);
+    if (id !== undefined) {
+      if (caseIds.has(id)) errors.add(["combinations", i, "id"], `combination id "${id}" is also a load case id (loadCases[${caseIds.get(id)}]); results list both in one map, so the ids must differ`);
+      const prev = seen.get(id);
+      if (prev !== undefined) errors.add(["combinations", i, "id"], `duplicate combination id "${id}" (also used by combinations[${prev}])`);
+      else seen.set(id, i);
+    }
+    if (!isObj(c.factors)) return;
+    const keys = Object.keys(c.factors);
+    if (keys.length === 0) errors.add(["combinations", i, "factors"], `combination "${id ?? i}" has no factors: name at least one load case`);
+    for (const k of keys) {
+      if (!caseIds.has(k)) errors.add(["combinations", i, "factors", k], `combination "${id ?? i}" puts a factor on unknown load case "${k}"`);
+    }
+  });
 }
 
 interface Context {
@@ -68,6 +98,7 @@ interface Context {
   members: Obj[];
   materials: Obj[];
   materialIds: Map<string, number>;
+  sections: Obj[];
 }
 
 function checkDesign(d: Obj, ctx: Context, errors: IssueList): void {
@@ -124,6 +155,11 @@ function checkDesign(d: Obj, ctx: Context, errors: IssueList): void {
   });
 
   const cons = isObj(d.constraints) ? d.constraints : {};
+  checkSizing(d, ctx, declared, bounds, errors);
+  const buckling = isObj(cons.buckling) ? cons.buckling : undefined;
+  if (buckling && ctx.sections.length === 0 && num(buckling.sectionRatio) === undefined) {
+    errors.add(["design", "constraints", "buckling", "sectionRatio"], "sectionRatio is needed for the buckling check when the model lists no sections (I = sectionRatio * A^2)");
+  }
   list(cons.displacement).forEach((lim, k) => {
     const n = str(lim.node);
     if (n !== undefined && n !== "*" && !ctx.nodeIds.has(n)) errors.add(["design", "constraints", "displacement", k, "node"], `limits unknown node "${n}" (use a node id or "*")`);
@@ -149,10 +185,26 @@ function checkDesign(d: Obj, ctx: Context, errors: IssueList): void {
   }
 }
 
+/** Catalogue sizing needs sections, and every area variable at least one section within its bounds. */
+function checkSizing(d: Obj, ctx: Context, declared: Map<string, Obj>, bounds: Obj | undefined, errors: IssueList): void {
+  if (d.sizing !== "catalogue") return;
+  if (ctx.sections.length === 0) {
+    errors.add(["design", "sizing"], 'catalogue sizing needs a section catalogue: add "sections" to the model (or choose sizing "continuous")');
+    return;
+  }
+  const areas = ctx.sections.map((s) => num(s.area)).filter((a): a is number => a !== undefined);
+  for (const v of areaVariables(ctx.members, declared, bounds)) {
+    if (v.min === undefined || v.max === undefined) continue;
+    if (!areas.some((a) => a >= v.min! && a <= v.max!)) {
+      errors.add(["design", "sizing"], `${v.label} has no section with an area within its bounds ${v.min}..${v.max}: widen the bounds or add sections`);
+    }
+  }
+}
+
 /** The bounds of each area variable (one per group, one per ungrouped member). */
-function areaVariables(members: Obj[], declared: Map<string, Obj>, bounds: Obj | undefined): { min?: number; max?: number }[] {
+function areaVariables(members: Obj[], declared: Map<string, Obj>, bounds: Obj | undefined): { label: string; min?: number; max?: number }[] {
   const seen = new Set<string>();
-  const out: { min?: number; max?: number }[] = [];
+  const out: { label: string; min?: number; max?: number }[] = [];
   const def = { min: bounds ? num(bounds.min) : undefined, max: bounds ? num(bounds.max) : undefined };
   for (const m of members) {
     const g = str(m.group);
@@ -160,8 +212,8 @@ function areaVariables(members: Obj[], declared: Map<string, Obj>, bounds: Obj |
       if (seen.has(g)) continue;
       seen.add(g);
       const dg = declared.get(g);
-      out.push({ min: num(dg?.min) ?? def.min, max: num(dg?.max) ?? def.max });
-    } else out.push(def);
+      out.push({ label: `group "${g}"`, min: num(dg?.min) ?? def.min, max: num(dg?.max) ?? def.max });
+    } else out.push({ label: `member "${str(m.id) ?? "?"}"`, ...def });
   }
   return out;
 }

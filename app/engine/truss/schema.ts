@@ -50,8 +50,30 @@ export const memberSchema = z.object({
   start: id("start node"),
   end: id("end node"),
   material: id("material"),
-  area: positive("area"),
+  // optional only when `section` is given: the model schema below fills it from the section
+  area: positive("area").optional(),
   group: id("group").optional(),
+  /** effective-length factor k of this member; overrides design.constraints.buckling.effectiveLengthFactor */
+  bucklingFactor: positive("bucklingFactor").optional(),
+  /** starting section, an id in `sections` (its area replaces `area`) */
+  section: id("section").optional(),
+});
+
+/** One catalogue section: area and least second moment of area I, in the model's units. */
+export const sectionSchema = z.object({
+  id: id("section id"),
+  area: positive("section area"),
+  I: positive("I (least second moment of area)"),
+  family: z.string({ error: "family must be text" }).max(100, { error: "family must be at most 100 characters" }).optional(),
+});
+
+export const COMBINATION_USES = ["strength", "service"] as const;
+
+export const combinationSchema = z.object({
+  id: id("combination id"),
+  name: z.string().max(200, { error: "combination name must be at most 200 characters" }).optional(),
+  use: z.enum(COMBINATION_USES, { error: "use must be strength or service" }),
+  factors: z.record(z.string(), finite("combination factor"), { error: "factors must map load case ids to numbers" }),
 });
 
 export const loadSchema = z.object({
@@ -65,6 +87,8 @@ export const loadCaseSchema = z.object({
   id: id("load case id"),
   name: z.string().max(200, { error: "load case name must be at most 200 characters" }).optional(),
   loads: z.array(loadSchema, { error: "loads must be a list" }),
+  /** factor on the structure's own weight in this case (gravity -y in 2D, -z in 3D) */
+  selfWeight: finite("selfWeight").optional(),
 });
 
 const boundsSchema = z.object({ min: positive("min"), max: positive("max") });
@@ -96,7 +120,8 @@ export const constraintsSchema = z.object({
   volume: z.object({ max: positive("volume max") }).optional(),
   buckling: z
     .object({
-      sectionRatio: positive("sectionRatio"),
+      // not needed when the model lists sections (I then comes from the catalogue)
+      sectionRatio: positive("sectionRatio").optional(),
       effectiveLengthFactor: positive("effectiveLengthFactor").default(1),
     })
     .optional(),
@@ -105,6 +130,7 @@ export const constraintsSchema = z.object({
 export const designSchema = z.object({
   objective: z.enum(["mass", "compliance"], { error: "objective must be mass or compliance" }),
   formulation: z.enum(["nested", "simultaneous"], { error: "formulation must be nested or simultaneous" }).default("nested"),
+  sizing: z.enum(["continuous", "catalogue"], { error: "sizing must be continuous or catalogue" }).optional(),
   areaBounds: boundsSchema.optional(),
   groups: z.array(groupSchema, { error: "groups must be a list" }).optional(),
   shape: z.array(shapeVariableSchema, { error: "shape must be a list" }).optional(),
@@ -117,7 +143,7 @@ export const designSchema = z.object({
     .optional(),
 });
 
-export const trussModelSchema = z.object({
+const modelObjectSchema = z.object({
   format: z.literal("strutwise.truss", { error: 'format must be exactly "strutwise.truss"' }),
   version: z.literal(1, { error: "version must be 1" }),
   name: z
@@ -132,29 +158,54 @@ export const trussModelSchema = z.object({
   nodes: z.array(nodeSchema, { error: "nodes must be a list" }).min(2, { error: "at least two nodes are needed" }),
   members: z.array(memberSchema, { error: "members must be a list" }).min(1, { error: "at least one member is needed" }),
   loadCases: z.array(loadCaseSchema, { error: "loadCases must be a list" }).min(1, { error: "at least one load case is needed" }),
+  sections: z.array(sectionSchema, { error: "sections must be a list" }).optional(),
+  combinations: z.array(combinationSchema, { error: "combinations must be a list" }).optional(),
   design: designSchema.optional(),
 });
 
-export type TrussModel = z.infer<typeof trussModelSchema>;
-export type TrussModelInput = z.input<typeof trussModelSchema>;
+type ParsedModelObject = z.infer<typeof modelObjectSchema>;
+export type Member = Omit<ParsedModelObject["members"][number], "area"> & { area: number };
+export type TrussModel = Omit<ParsedModelObject, "members"> & { members: Member[] };
+
+/**
+ * A member with a section starts from the section's area (truss-format.md, "Additions"); the
+ * rules (rules.ts) report a member with neither an area nor a known section, so every member of
+ * a model that passes them has an area.
+ */
+function withSectionAreas(m: ParsedModelObject): TrussModel {
+  const byId = new Map((m.sections ?? []).map((s) => [s.id, s]));
+  const members = m.members.map((mm) => {
+    const sec = mm.section !== undefined ? byId.get(mm.section) : undefined;
+    return { ...mm, area: sec ? sec.area : (mm.area ?? Number.NaN) };
+  });
+  return { ...m, members };
+}
+
+export const trussModelSchema = modelObjectSchema.transform(withSectionAreas);
+
+export type TrussModelInput = z.input<typeof modelObjectSchema>;
 export type Units = z.infer<typeof unitsSchema>;
 export type Material = z.infer<typeof materialSchema>;
 export type TrussNode = z.infer<typeof nodeSchema>;
-export type Member = z.infer<typeof memberSchema>;
 export type Load = z.infer<typeof loadSchema>;
 export type LoadCase = z.infer<typeof loadCaseSchema>;
 export type DesignBlock = z.infer<typeof designSchema>;
 export type DesignGroup = z.infer<typeof groupSchema>;
 export type ShapeVariable = z.infer<typeof shapeVariableSchema>;
 export type DisplacementLimit = z.infer<typeof displacementLimitSchema>;
+export type Section = z.infer<typeof sectionSchema>;
+export type Combination = z.infer<typeof combinationSchema>;
+export type CombinationUse = (typeof COMBINATION_USES)[number];
 
 /** Keys each object may carry; anything else is reported as an ignored field (a typo guard). */
 export const KNOWN_KEYS = {
-  root: ["format", "version", "name", "description", "units", "dimension", "materials", "nodes", "members", "loadCases", "design"],
+  root: ["format", "version", "name", "description", "units", "dimension", "materials", "nodes", "members", "loadCases", "sections", "combinations", "design"],
   material: ["id", "name", "E", "density", "allowableTension", "allowableCompression"],
   node: ["id", "x", "y", "z", "fixed"],
-  member: ["id", "start", "end", "material", "area", "group"],
-  loadCase: ["id", "name", "loads"],
+  member: ["id", "start", "end", "material", "area", "group", "bucklingFactor", "section"],
+  loadCase: ["id", "name", "loads", "selfWeight"],
+  section: ["id", "area", "I", "family"],
+  combination: ["id", "name", "use", "factors"],
   load: ["node", "fx", "fy", "fz"],
-  design: ["objective", "formulation", "areaBounds", "groups", "shape", "constraints", "solver"],
+  design: ["objective", "formulation", "sizing", "areaBounds", "groups", "shape", "constraints", "solver"],
 } as const;

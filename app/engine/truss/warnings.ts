@@ -22,7 +22,17 @@ export function unknownFieldWarnings(raw: unknown, warnings: IssueList): void {
   each(r.materials, KNOWN_KEYS.material, "materials");
   each(r.nodes, KNOWN_KEYS.node, "nodes");
   each(r.members, KNOWN_KEYS.member, "members");
+  if (Array.isArray(r.members)) {
+    r.members.forEach((m, e) => {
+      const mm = (typeof m === "object" && m !== null ? m : {}) as Record<string, unknown>;
+      if (typeof mm.section === "string" && mm.area !== undefined) {
+        warnings.add(["members", e, "area"], `area ${String(mm.area)} is ignored: the member starts from section "${mm.section}"`);
+      }
+    });
+  }
   each(r.loadCases, KNOWN_KEYS.loadCase, "loadCases");
+  each(r.sections, KNOWN_KEYS.section, "sections");
+  each(r.combinations, KNOWN_KEYS.combination, "combinations");
   if (Array.isArray(r.loadCases)) {
     r.loadCases.forEach((lc, c) => {
       if (lc && typeof lc === "object" && Array.isArray((lc as { loads?: unknown }).loads)) {
@@ -56,7 +66,7 @@ export function modelWarnings(model: TrussModel, s: Structure, warnings: IssueLi
   const nodeIndex = new Map(s.nodeIds.map((id, i) => [id, i]));
   model.loadCases.forEach((lc, c) => {
     const f = s.loads[c];
-    if (!f.some((v) => v !== 0)) warnings.add(["loadCases", c], "has no non-zero loads");
+    if (!f.some((v) => v !== 0) && !lc.selfWeight) warnings.add(["loadCases", c], "has no non-zero loads");
     lc.loads.forEach((l, k) => {
       const i = nodeIndex.get(l.node) ?? -1;
       const comps = [l.fx, l.fy, l.fz] as const;
