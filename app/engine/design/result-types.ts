@@ -13,11 +13,66 @@ export interface ResultMember {
   end?: string;
   group?: string;
   area: number;
+  /** catalogue sizing (or a model member with a section): the section's id */
+  section?: string;
   length: number;
-  force: Record<string, number>; // per load case, tension positive
+  force: Record<string, number>; // per load case and combination, tension positive
   stress: Record<string, number>;
   utilization: number; // worst ratio over its checks and load cases
-  governing?: string; // which check gives that utilization, e.g. "stress:LC1"
+  governing?: string; // which check gives that utilization, e.g. "stress:LC1" or "buckling:ULS-1"
+  /** the load case or combination of that governing check */
+  governingCase?: string;
+  /** effective-length factor k of the buckling check */
+  bucklingFactor?: number;
+}
+
+/** Support reactions of one supported node: x, y, z per load case and combination (0 on free axes). */
+export interface ResultReaction {
+  node: string;
+  values: Record<string, [number, number, number]>;
+}
+
+/** The check that reactions balance the applied loads and own weight, per case or combination. */
+export interface ReactionBalance {
+  id: string; // load case or combination
+  applied: [number, number, number]; // total applied load including own weight
+  reactions: [number, number, number]; // total of the reactions
+  /** |applied + reactions| / max(|applied|), largest component */
+  residual: number;
+}
+
+export interface ResultCombination {
+  id: string;
+  name?: string;
+  use: "strength" | "service";
+  factors: Record<string, number>;
+}
+
+/** One area variable of a catalogue design and why it ended where it did. */
+export interface CatalogueChoice {
+  id: string; // group id, or the member id of an ungrouped member
+  members: number;
+  continuousArea: number;
+  section: string;
+  area: number;
+  /**
+   * the limit, checked by a full analysis, that a one-step lighter section would break, e.g.
+   * "stress:AB:ULS-1"; "lightest" when no lighter section lies within the variable's bounds
+   */
+  steppedBy: string;
+}
+
+export interface CatalogueSizing {
+  continuousObjective: number;
+  /** status of the continuous optimization the search started from */
+  continuousStatus: SolverStatus;
+  /** objective of rounding every variable up and then repairing by stepping up (the floor) */
+  roundedObjective: number;
+  /** relative gap objective / continuousObjective - 1 */
+  gap: number;
+  /** full analyses the discrete search ran */
+  analyses: number;
+  choices: CatalogueChoice[];
 }
 
 export interface ResultNode {
@@ -85,7 +140,14 @@ export interface TrussResult {
   mass?: number;
   members: ResultMember[];
   nodes: ResultNode[];
-  loadCases?: { id: string; name?: string }[];
+  loadCases?: { id: string; name?: string; selfWeight?: number }[];
+  combinations?: ResultCombination[];
+  /** every supported node; always three components (z is 0 in 2D) */
+  reactions?: ResultReaction[];
+  reactionBalance?: ReactionBalance[];
+  /** catalogue sizing: the continuous optimum it started from */
+  continuousObjective?: number;
+  catalogue?: CatalogueSizing;
   variables: { id: string; value: number }[];
   activeConstraints: ActiveConstraint[];
   shadowPrices?: ShadowPrice[];
