@@ -18,6 +18,8 @@ export default [
     route("models/:modelId", "routes/models.$modelId.tsx"),
     route("jobs", "routes/jobs._index.tsx"),
     route("jobs/:jobId", "routes/jobs.$jobId.tsx"),
+    route("catalogues", "routes/catalogues._index.tsx"),
+    route("catalogues/:catalogueId", "routes/catalogues.$catalogueId.tsx"),
     route("dev/inbox", "routes/dev.inbox.tsx"),
   ]),
   ...prefix("api", [
@@ -34,5 +36,8 @@ export default [
     route("jobs/:jobId/cancel", "routes/api/jobs.$jobId.cancel.ts"),
     route("jobs/:jobId/result", "routes/api/jobs.$jobId.result.ts"),
     route("jobs/:jobId/progress", "routes/api/jobs.$jobId.progress.ts"),
+    route("catalogues", "routes/api/catalogues.ts"),
+    route("catalogues/:catalogueId", "routes/api/catalogues.$catalogueId.ts"),
+    route("catalogues/:catalogueId/retire", "routes/api/catalogues.$catalogueId.retire.ts"),
   ]),
 ] satisfies RouteConfig;

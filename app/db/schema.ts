@@ -148,3 +148,4 @@ export const invitations = sqliteTable("invitations", {
   createdAt: createdAt(),
   acceptedAt: integer("accepted_at", { mode: "timestamp_ms" }),
 });
+export * from "./tables/catalogues";

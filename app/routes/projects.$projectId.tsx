@@ -5,7 +5,9 @@ import { JobsList } from "~/components/job/JobsList";
 import { fmtBytes, fmtDateTime, shortHash } from "~/components/ui/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { EmptyState } from "~/components/ui/States";
-import { UploadBox, type UploadResult } from "~/components/ui/UploadBox";
+import { type UploadResult } from "~/components/ui/UploadBox";
+import { ModelUploadWithSections } from "~/components/catalogues/ModelUploadWithSections";
+import { listCatalogues, sectionsFromUploadForm } from "~/lib/catalogues/catalogues.server";
 import { db } from "~/db/client.server";
 import { projects, user as users } from "~/db/schema";
 import { requirePermission } from "~/lib/auth/authorize.server";
@@ -37,6 +39,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     moreJobs: jobs.nextCursor !== null,
     uploadLimit: config().UPLOAD_LIMIT_BYTES,
     mayUpload: can(user.role, "create:model"),
+    catalogues: can(user.role, "create:model") ? (await listCatalogues()).map((c) => ({ id: c.id, name: c.name, sectionCount: c.sectionCount, families: c.families })) : [],
   };
 }
 
@@ -56,7 +59,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!(file instanceof File) || file.size === 0) {
     return data<UploadResult>({ error: "Choose a truss JSON file to upload", details: [{ path: "file", message: "no file was sent" }] }, { status: 400 });
   }
-  const res = await storeModel({ projectId: params.projectId, fileName: file.name, bytes: new Uint8Array(await file.arrayBuffer()), user });
+  const withSections = await sectionsFromUploadForm(form, new Uint8Array(await file.arrayBuffer()));
+  if (!withSections.ok) return data<UploadResult>({ error: withSections.error, details: withSections.details }, { status: withSections.status });
+  const res = await storeModel({ projectId: params.projectId, fileName: file.name, bytes: withSections.bytes, user });
   if (!res.ok) return data<UploadResult>({ error: res.error, details: res.details }, { status: res.status });
   const m = res.model;
   await auditUpload(request, user, m);
@@ -68,7 +73,7 @@ export function ErrorBoundary() {
 }
 
 export default function ProjectPage({ loaderData }: Route.ComponentProps) {
-  const { project, models, jobs, uploadLimit, mayUpload, moreJobs } = loaderData;
+  const { project, models, jobs, uploadLimit, mayUpload, moreJobs, catalogues } = loaderData;
   return (
     <div className="space-y-6">
       <header>
@@ -90,7 +95,7 @@ export default function ProjectPage({ loaderData }: Route.ComponentProps) {
       {mayUpload && (
         <section className="card" aria-label="Upload a model">
           <h2 className="mb-3 font-semibold">Upload a model</h2>
-          <UploadBox projectId={project.id} limitBytes={uploadLimit} />
+          <ModelUploadWithSections projectId={project.id} limitBytes={uploadLimit} catalogues={catalogues} />
         </section>
       )}
 

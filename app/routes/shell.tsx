@@ -32,6 +32,9 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
       <NavLink to="/jobs" className={link} onClick={() => setOpen(false)}>
         Jobs
       </NavLink>
+      <NavLink to="/catalogues" className={link} onClick={() => setOpen(false)} data-testid="nav-catalogues">
+        Catalogues
+      </NavLink>
       {isAdmin && (
         <>
           <NavLink to="/admin/users" className={link} onClick={() => setOpen(false)} data-testid="nav-admin-users">

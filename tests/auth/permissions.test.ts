@@ -7,9 +7,9 @@ import { can, PERMISSIONS, ROLES, rolesWith, type Permission } from "~/lib/auth/
 // uploads, queues and cancels; checker reads and reviews; viewer reads.
 const EXPECTED: Record<(typeof ROLES)[number], Permission[]> = {
   admin: [...PERMISSIONS],
-  engineer: ["read:project", "read:model", "read:job", "create:project", "create:model", "create:job", "cancel:job:own", "manage:apikey:own"],
-  checker: ["read:project", "read:model", "read:job", "review:job", "manage:apikey:own"],
-  viewer: ["read:project", "read:model", "read:job", "manage:apikey:own"],
+  engineer: ["read:project", "read:model", "read:job", "create:project", "create:model", "create:job", "cancel:job:own", "manage:apikey:own", "read:catalogue", "manage:catalogue"],
+  checker: ["read:project", "read:model", "read:job", "review:job", "manage:apikey:own", "read:catalogue"],
+  viewer: ["read:project", "read:model", "read:job", "manage:apikey:own", "read:catalogue"],
 };
 
 describe("permissions", () => {

@@ -12,7 +12,8 @@ export interface UploadResult {
   warnings?: Issue[];
 }
 
-export function UploadBox({ projectId, limitBytes }: { projectId: string; limitBytes: number }) {
+/** `fields` travel with the file (e.g. the catalogue whose sections the model takes). */
+export function UploadBox({ projectId, limitBytes, fields }: { projectId: string; limitBytes: number; fields?: Record<string, string> }) {
   const fetcher = useFetcher<UploadResult>();
   const busy = fetcher.state !== "idle";
 
@@ -24,9 +25,10 @@ export function UploadBox({ projectId, limitBytes }: { projectId: string; limitB
       fd.set("intent", "upload");
       fd.set("projectId", projectId);
       fd.set("file", file, file.name);
+      for (const [k, v] of Object.entries(fields ?? {})) if (v) fd.set(k, v);
       fetcher.submit(fd, { method: "post", encType: "multipart/form-data" });
     },
-    [fetcher, projectId],
+    [fetcher, projectId, fields],
   );
 
   const { getRootProps, getInputProps, isDragActive, fileRejections } = useDropzone({

@@ -80,6 +80,8 @@ const ACTION_WORDS: Record<Permission, string> = {
   "read:audit": "Reading the audit trail",
   "manage:apikey:own": "Keeping API keys",
   "manage:apikey:any": "Managing other people's API keys",
+  "read:catalogue": "Reading section catalogues",
+  "manage:catalogue": "Uploading or retiring a section catalogue",
 };
 
 const orList = (items: string[]) => (items.length > 1 ? `${items.slice(0, -1).join(", ")} or ${items.at(-1)}` : (items[0] ?? "no"));

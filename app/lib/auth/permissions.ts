@@ -18,17 +18,19 @@ export const PERMISSIONS = [
   "read:audit",
   "manage:apikey:own",
   "manage:apikey:any",
+  "read:catalogue",
+  "manage:catalogue",
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
-const READ: Permission[] = ["read:project", "read:model", "read:job"];
+const READ: Permission[] = ["read:project", "read:model", "read:job", "read:catalogue"];
 
 // product.md, "Who uses it": admin sees and manages everything; engineers produce; checkers
 // read and review; viewers read. Everyone may keep API keys of their own, which act with
 // exactly their owner's role.
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   admin: PERMISSIONS,
-  engineer: [...READ, "create:project", "create:model", "create:job", "cancel:job:own", "manage:apikey:own"],
+  engineer: [...READ, "create:project", "create:model", "create:job", "cancel:job:own", "manage:apikey:own", "manage:catalogue"],
   checker: [...READ, "review:job", "manage:apikey:own"],
   viewer: [...READ, "manage:apikey:own"],
 };

@@ -59,6 +59,12 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/models/:id": { GET: ALL, POST: PRODUCERS }, // POST queues a job
   "/jobs": { GET: ALL },
   "/jobs/:id": { GET: ALL, POST: "signed-in" }, // actions inside check review/cancel rights
+  // section catalogues: the desk's, read by everyone signed in, kept by admins and engineers
+  "/catalogues": { GET: ALL, POST: PRODUCERS }, // POST uploads a CSV catalogue
+  "/catalogues/:id": { GET: ALL, POST: PRODUCERS }, // POST retires it
+  "/api/catalogues": { GET: ALL, POST: PRODUCERS },
+  "/api/catalogues/:id": { GET: ALL },
+  "/api/catalogues/:id/retire": { POST: PRODUCERS },
   "/dev/inbox": { GET: ADMIN }, // any signed-in role too, but only when NODE_ENV=development
 };
 

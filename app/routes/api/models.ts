@@ -4,6 +4,7 @@ import { requirePermission } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
 import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
+import { sectionsFromUploadForm } from "~/lib/catalogues/catalogues.server";
 import type { Route } from "./+types/models";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -44,11 +45,19 @@ export async function action({ request }: Route.ActionArgs) {
   if (details.length) return jsonError(400, "The upload is incomplete", details);
   const file = upload as unknown as { name: string; bytes: Uint8Array };
 
-  const stored = await storeModel({ projectId: (projectId as string).trim(), fileName: file.name, bytes: file.bytes, user });
+  // optional: the sections of a stored catalogue copied into the model (catalogueId, catalogueFamilies)
+  const withSections = await sectionsFromUploadForm(form, file.bytes);
+  if (!withSections.ok) return jsonError(withSections.status, withSections.error, withSections.details);
+
+  const stored = await storeModel({ projectId: (projectId as string).trim(), fileName: file.name, bytes: withSections.bytes, user });
   if (!stored.ok) return jsonError(stored.status, stored.error, stored.details);
   const m = stored.model;
   await auditUpload(request, user, m);
-  return Response.json({ id: m.id, name: m.name, sha256: m.sha256, summary: m.summary, warnings: m.warnings, projectId: m.projectId }, { status: 201 });
+  const { catalogue } = withSections;
+  return Response.json(
+    { id: m.id, name: m.name, sha256: m.sha256, summary: m.summary, warnings: [...withSections.warnings, ...m.warnings], projectId: m.projectId, ...(catalogue ? { catalogue } : {}) },
+    { status: 201 },
+  );
 
   function tooLarge() {
     const r = uploadTooLarge(null, null, limit);
