@@ -8,6 +8,7 @@ import { reviews, user } from "~/db/schema";
 import { config } from "~/lib/config.server";
 import { loadJobWithModel } from "~/lib/job-with-model.server";
 import { sendMail, type Mail } from "~/lib/mail.server";
+import { formatDateTime, formatNumber } from "~/lib/format";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 
 interface JobFacts {
@@ -114,11 +115,6 @@ async function guarded(what: string, fn: () => Promise<void>): Promise<void> {
     const reason = e instanceof Error ? e.message : String(e);
     console.error(`[notify] could not send the ${what} mail: ${reason}`);
   }
-}
-
-function formatNumber(v: number | undefined): string {
-  if (v === undefined || !Number.isFinite(v)) return "–";
-  return Math.abs(v) >= 1e-3 && Math.abs(v) < 1e6 ? String(Number(v.toPrecision(5))) : v.toExponential(3).replace("e+", "e");
 }
 
 /** Why a finished run asks no checker for review, in the submitter's words. */
@@ -251,7 +247,7 @@ export async function notifyDecision(reviewId: string): Promise<void> {
             : `${reviewer} has checked your optimization run of "${j.modelName}" and requests changes.`,
           `Comment: ${r.comment || "(none)"}`,
         ],
-        facts: [...jobFactRows(j), ["Checked by", reviewer], ["Decided", r.createdAt.toISOString().replace("T", " ").slice(0, 16) + " UTC"]],
+        facts: [...jobFactRows(j), ["Checked by", reviewer], ["Decided", formatDateTime(r.createdAt)]],
         link: jobLink(j.id),
         linkLabel: "Open the job",
       }),

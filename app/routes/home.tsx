@@ -2,7 +2,7 @@ import { inArray } from "drizzle-orm";
 import { Link } from "react-router";
 import { toJobRows } from "~/components/job/job-rows.server";
 import { JobsList } from "~/components/job/JobsList";
-import { fmtDateTime } from "~/components/ui/format";
+import { formatDateTime } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
 import { db } from "~/db/client.server";
 import { reviews } from "~/db/schema";
@@ -122,7 +122,7 @@ export default function Home({ loaderData }: Route.ComponentProps) {
                   <span className="mt-1 block font-medium text-ink">{p.name}</span>
                   <span className="mt-1 block text-xs text-ink-muted">
                     {p.client ? `${p.client} · ` : ""}
-                    {fmtDateTime(p.createdAt)}
+                    {formatDateTime(p.createdAt)}
                   </span>
                 </Link>
               </li>

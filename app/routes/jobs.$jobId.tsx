@@ -11,7 +11,7 @@ import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { latestDecision, reportLinkLabel } from "~/components/job/review-words";
 import { useJobFiles } from "~/components/job/useJobFiles";
 import { Cautions } from "~/components/ui/Cautions";
-import { fmtDateTime, fmtDuration, fmtNum, fmtPercent, fmtSci } from "~/components/ui/format";
+import { formatDateTime, formatDuration, formatNumber, formatPercent, formatResidual } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { OutcomeBadge, ReviewBadge, StatusBadge } from "~/components/ui/StatusBadge";
 import { ErrorNote, LoadingNote, Stat } from "~/components/ui/States";
@@ -194,9 +194,9 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           {job.status === "succeeded" && <ReviewBadge decision={current?.decision} />}
         </h1>
         <p className="mt-2 text-sm text-ink-muted">
-          submitted by {facts.submitterName} · {fmtDateTime(job.createdAt)}
-          {job.finishedAt && <> · finished {fmtDateTime(job.finishedAt)}</>}
-          {elapsed !== null && <> · ran {fmtDuration(elapsed)}</>}
+          submitted by {facts.submitterName} · {formatDateTime(job.createdAt)}
+          {job.finishedAt && <> · finished {formatDateTime(job.finishedAt)}</>}
+          {elapsed !== null && <> · ran {formatDuration(elapsed)}</>}
           {Object.keys(job.options).length > 0 && (
             <>
               {" "}
@@ -231,19 +231,19 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           <Cautions />
           <section className="card" aria-label="Summary">
             <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-3 lg:grid-cols-6">
-              <Stat label={`${head.objective.kind} initial`} value={fmtNum(head.objective.initial)} />
-              <Stat label={`${head.objective.kind} final`} value={<span data-testid="objective-final">{fmtNum(head.objective.final)}</span>} hint={u ? (head.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
-              <Stat label="change" value={saving !== null ? fmtPercent(-saving) : "–"} />
+              <Stat label={`${head.objective.kind} initial`} value={formatNumber(head.objective.initial)} />
+              <Stat label={`${head.objective.kind} final`} value={<span data-testid="objective-final">{formatNumber(head.objective.final)}</span>} hint={u ? (head.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
+              <Stat label="change" value={saving !== null ? formatPercent(-saving) : "–"} />
               <Stat label="iterations" value={head.iterations} />
               <Stat label="analyses" value={head.analyses} hint="stiffness solves or KKT evaluations used" />
-              <Stat label="KKT residual" value={fmtSci(head.kktResidual)} />
-              <Stat label="max violation" value={fmtSci(head.maxViolation)} />
-              <Stat label={`volume (${u?.length}³)`} value={fmtNum(head.volume)} />
-              {head.mass !== undefined && <Stat label={`mass (${u?.mass})`} value={fmtNum(head.mass)} />}
-              <Stat label="max utilization" value={fmtPercent(head.maxUtilization)} />
+              <Stat label="KKT residual" value={formatResidual(head.kktResidual)} />
+              <Stat label="max violation" value={formatResidual(head.maxViolation)} />
+              <Stat label={`volume (${u?.length}³)`} value={formatNumber(head.volume)} />
+              {head.mass !== undefined && <Stat label={`mass (${u?.mass})`} value={formatNumber(head.mass)} />}
+              <Stat label="max utilization" value={formatPercent(head.maxUtilization)} />
               {head.formulation && <Stat label="formulation" value={head.formulation} />}
               {head.verification && (
-                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : `${head.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${fmtSci(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
+                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : `${head.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${formatResidual(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
               )}
               {head.solver && <Stat label="solver" value={`${head.solver.name} ${head.solver.version}`} wrap />}
             </dl>
@@ -289,7 +289,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               {head.variables.map((v) => (
                 <tr key={v.id}>
                   <td>{v.id}</td>
-                  <td className="num">{fmtNum(v.value, 6)}</td>
+                  <td className="num">{formatNumber(v.value, { sig: 6 })}</td>
                 </tr>
               ))}
             </tbody>

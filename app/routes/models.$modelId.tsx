@@ -4,7 +4,7 @@ import { toJobRows } from "~/components/job/job-rows.server";
 import { JobsList } from "~/components/job/JobsList";
 import { parseQueueForm } from "~/components/job/queue-form";
 import { QueueForm, type QueueDefaults } from "~/components/job/QueueForm";
-import { fmtBytes, fmtDateTime, fmtNum } from "~/components/ui/format";
+import { formatBytes, formatDateTime, formatNumber } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { EmptyState, IssueList, Stat } from "~/components/ui/States";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
@@ -161,7 +161,7 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
         <h1 className="mt-1 text-2xl font-semibold sm:text-3xl">{model.name}</h1>
         {file?.description && <p className="mt-2 max-w-3xl text-ink-soft">{file.description}</p>}
         <p className="mt-2 text-sm text-ink-muted">
-          {model.fileName} · {fmtBytes(model.sizeBytes)} · uploaded {fmtDateTime(model.createdAt)}
+          {model.fileName} · {formatBytes(model.sizeBytes)} · uploaded {formatDateTime(model.createdAt)}
           {uploaderName && <> by {uploaderName}</>}
         </p>
         <p className="mt-1 break-all font-mono text-2xs text-ink-muted" data-testid="model-sha256">
@@ -175,9 +175,9 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
           <Stat label="nodes" value={model.nodeCount} />
           <Stat label="members" value={model.memberCount} />
           <Stat label="load cases" value={file?.loadCases.length ?? s.counts?.loadCases ?? "–"} />
-          {s.totalLength !== undefined && <Stat label={`total length (${u?.length})`} value={fmtNum(s.totalLength)} />}
-          {s.initialVolume !== undefined && <Stat label={`volume (${u?.length}³)`} value={fmtNum(s.initialVolume)} />}
-          {s.initialMass !== undefined && <Stat label={`mass (${u?.mass})`} value={fmtNum(s.initialMass)} />}
+          {s.totalLength !== undefined && <Stat label={`total length (${u?.length})`} value={formatNumber(s.totalLength)} />}
+          {s.initialVolume !== undefined && <Stat label={`volume (${u?.length}³)`} value={formatNumber(s.initialVolume)} />}
+          {s.initialMass !== undefined && <Stat label={`mass (${u?.mass})`} value={formatNumber(s.initialMass)} />}
         </dl>
         {stability && (
           <p className={`mt-4 rounded-md px-3 py-2 text-sm ${stability.ok ? "bg-ok-wash text-ok" : "bg-bad-wash text-bad"}`} data-testid="stability">
@@ -216,10 +216,10 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
                   {file.materials.map((m) => (
                     <tr key={m.id}>
                       <td>{m.name ? `${m.id} (${m.name})` : m.id}</td>
-                      <td className="num whitespace-nowrap">{fmtNum(m.E)}</td>
-                      <td className="num whitespace-nowrap">{fmtNum(m.density)}</td>
-                      <td className="num whitespace-nowrap">{fmtNum(m.allowableTension)}</td>
-                      <td className="num whitespace-nowrap">{fmtNum(m.allowableCompression)}</td>
+                      <td className="num whitespace-nowrap">{formatNumber(m.E)}</td>
+                      <td className="num whitespace-nowrap">{formatNumber(m.density)}</td>
+                      <td className="num whitespace-nowrap">{formatNumber(m.allowableTension)}</td>
+                      <td className="num whitespace-nowrap">{formatNumber(m.allowableCompression)}</td>
                     </tr>
                   ))}
                 </tbody>
@@ -246,7 +246,7 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
                       <td className="num whitespace-nowrap">{lc.count}</td>
                       {lc.total.map((t, i) => (
                         <td key={i} className="num whitespace-nowrap">
-                          {fmtNum(t)}
+                          {formatNumber(t)}
                         </td>
                       ))}
                     </tr>
@@ -267,7 +267,7 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
             <Stat label="area groups" value={file.design.groups} />
             <Stat label="shape variables" value={file.design.shape.length} />
             <Stat label="limits" value={file.design.limits.join(", ") || "none"} wrap />
-            {file.design.areaBounds && <Stat label={`area bounds (${u?.length}²)`} value={`${fmtNum(file.design.areaBounds.min)} – ${fmtNum(file.design.areaBounds.max)}`} wrap />}
+            {file.design.areaBounds && <Stat label={`area bounds (${u?.length}²)`} value={`${formatNumber(file.design.areaBounds.min)} – ${formatNumber(file.design.areaBounds.max)}`} wrap />}
           </dl>
         ) : (
           <EmptyState title="No design block">This file can be analysed but not optimized: add a design block (objective, bounds, limits) and upload it again.</EmptyState>

@@ -2,7 +2,7 @@ import { eq } from "drizzle-orm";
 import { data, Link, redirect } from "react-router";
 import { toJobRows } from "~/components/job/job-rows.server";
 import { JobsList } from "~/components/job/JobsList";
-import { fmtBytes, fmtDateTime, shortHash } from "~/components/ui/format";
+import { formatBytes, formatDateTime, shortHash } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { EmptyState } from "~/components/ui/States";
 import { type UploadResult } from "~/components/ui/UploadBox";
@@ -86,7 +86,7 @@ export default function ProjectPage({ loaderData }: Route.ComponentProps) {
         <h1 className="mt-1 text-2xl font-semibold sm:text-3xl">{project.name}</h1>
         <p className="mt-2 text-sm text-ink-muted">
           {project.client && <>for {project.client} · </>}
-          opened {fmtDateTime(project.createdAt)}
+          opened {formatDateTime(project.createdAt)}
           {project.createdByName && <> by {project.createdByName}</>}
         </p>
         {project.description && <p className="mt-2 max-w-3xl text-ink-soft">{project.description}</p>}
@@ -128,13 +128,13 @@ export default function ProjectPage({ loaderData }: Route.ComponentProps) {
                       {m.warnings > 0 && <span className="badge ml-2 bg-warn-wash text-warn">{m.warnings} notes</span>}
                     </td>
                     <td className="text-ink-muted">
-                      {m.fileName} <span className="text-2xs">({fmtBytes(m.sizeBytes)})</span>
+                      {m.fileName} <span className="text-2xs">({formatBytes(m.sizeBytes)})</span>
                     </td>
                     <td className="num">{m.dimension}D</td>
                     <td className="num">{m.nodeCount}</td>
                     <td className="num">{m.memberCount}</td>
                     <td>{m.hasDesign ? "yes" : <span className="text-ink-muted">analysis only</span>}</td>
-                    <td className="whitespace-nowrap">{fmtDateTime(m.createdAt)}</td>
+                    <td className="whitespace-nowrap">{formatDateTime(m.createdAt)}</td>
                     <td className="font-mono text-2xs text-ink-muted" title={m.sha256}>
                       {shortHash(m.sha256)}
                     </td>

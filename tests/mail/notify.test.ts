@@ -47,7 +47,7 @@ describe("notifyJobFinished", () => {
     expect(mails[0]!.to).toEqual(["ines.okafor@brightspan.example"]);
     expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (optimal) · job job-ok-0");
     expect(mails[0]!.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
-    expect(mails[0]!.text).toContain("0.412 → 0.287");
+    expect(mails[0]!.text).toContain("0.4120 → 0.2870");
     expect(mails[0]!.html).toContain('href="http://desk.example.test:4450/jobs/job-ok-001"');
   });
 

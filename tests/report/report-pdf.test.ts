@@ -79,10 +79,10 @@ describe("the report before review", () => {
     // (L3-L4), moments about U4 at x = 8750 mm: M = 160000·8750 − 40000·(7500 + 5000 + 2500)
     // = 8.0e8 N·mm; force = M / h = 8.0e8 / 2000 = 400000 N tension (method of sections,
     // common practice). Its group then needs 400000 / 235 = 1702 mm² (fully stressed).
-    expect(all).toMatch(/BC4 L3–L4 bottom-chord 1702 2500 100\.0 % stress:LC1/);
-    expect(all).toMatch(/BC4 400000 235 /);
+    expect(all).toMatch(/BC4 L3–L4 bottom-chord 1,702 2,500\.0 100\.0 % stress:LC1/);
+    expect(all).toMatch(/BC4 400,000 235\.0 /);
     // End diagonal D1 (L0-U1) in LC1: shear 160000 N, sin θ = 2000 / 2358.5, force −188680 N
-    expect(all).toMatch(/D1 −188700 /);
+    expect(all).toMatch(/D1 −188,700 /);
   });
 
   it("states the shadow prices in plain words and the verification record", () => {
@@ -178,8 +178,8 @@ describe("results that need attention", () => {
     expect(all).toContain("not converged: the solver stopped before meeting its tolerances");
     expect(all).toContain("What to try Raise the iteration limit or start from larger areas");
     expect(all).toContain("All limits met NO: 1 check failed");
-    expect(all).toMatch(/Failed checks .*stress:BC2:LC1 stress 244\.4 235 104\.0 % FAILED/s);
-    expect(all).toMatch(/BC2 L1–L2 bottom-chord \S+ 2500 104\.0 %/);
+    expect(all).toMatch(/Failed checks .*stress:BC2:LC1 stress 244\.4 235\.0 104\.0 % FAILED/s);
+    expect(all).toMatch(/BC2 L1–L2 bottom-chord \S+ 2,500\.0 104\.0 %/);
   });
 
   it("words the active constraints itself when the result has no shadow-price sentences", async () => {

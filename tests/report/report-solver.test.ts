@@ -27,10 +27,10 @@ describe("report of a solved two-bar truss", () => {
       generatedAt: new Date("2026-11-30T12:00:00Z"),
     });
     const all = (await pageTexts(pdf)).join("\n");
-    expect(all).toMatch(/LC L–C bars 353\.6 1414\.2 100\.0 %/);
-    expect(all).toMatch(/RC R–C bars 353\.6 1414\.2 100\.0 %/);
-    expect(all).toMatch(/LC −70710 −200/); // 70711 N to four figures
-    expect(all).toMatch(/apex-rise 600 −300 2000/); // apex from y = 400 up to y = 1000
+    expect(all).toMatch(/LC L–C bars 353\.6 1,414\.2 100\.0 %/);
+    expect(all).toMatch(/RC R–C bars 353\.6 1,414\.2 100\.0 %/);
+    expect(all).toMatch(/LC −70,710 −200\.0/); // 70711 N to four figures
+    expect(all).toMatch(/apex-rise 600\.000 −300\.0 2,000/); // apex from y = 400 up to y = 1000
     expect(all).toContain("optimal: the solver met its optimality and feasibility tolerances");
     expect(all).toContain(result.message);
   });

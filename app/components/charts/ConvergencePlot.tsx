@@ -3,9 +3,8 @@
 // fall by decades as the solver converges). The numbers are also in a table for screen
 // readers and for copying.
 import { useEffect, useRef, useState } from "react";
-import { fmtNum, fmtSci } from "~/components/ui/format";
+import { formatNumber, formatResidual, linearAxis, logAxis, VIOLATION_FLOOR } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
-import { linearScale, linePath, logScale, tickLabel } from "./scales";
 
 export interface ConvergencePoint {
   iteration: number;
@@ -46,13 +45,14 @@ export function ConvergencePlot({
     );
 
   const its = history.map((h) => h.iteration);
-  const x = linearScale([Math.min(...its), Math.max(...its, Math.min(...its) + 1)], [M.left, width - M.right], Math.max(2, Math.floor(width / 90)));
   // iterations are whole numbers: no tick between two of them
-  x.ticks = x.ticks.filter((t) => Number.isInteger(t));
+  const x = linearAxis([Math.min(...its), Math.max(...its, Math.min(...its) + 1)], [M.left, width - M.right], { count: Math.max(2, Math.floor(width / 90)), integer: true });
   const top: [number, number] = [M.top + PANEL_H, M.top];
   const bottom: [number, number] = [M.top + 2 * PANEL_H + GAP, M.top + PANEL_H + GAP];
-  const yObj = linearScale(history.map((h) => h.objective ?? NaN), top, 4);
-  const yLog = logScale(history.flatMap((h) => [h.maxViolation ?? NaN, h.kktResidual ?? NaN]), bottom);
+  const yObj = linearAxis(history.map((h) => h.objective ?? NaN), top, { count: 4 });
+  // a violation below the floor is a limit met within rounding: drawn on the floor line, so a
+  // converged run's line does not seem to climb from 1e-15 to 1e-12 at the end
+  const yLog = logAxis(history.flatMap((h) => [h.maxViolation ?? NaN, h.kktResidual ?? NaN]), bottom, { floor: VIOLATION_FLOOR });
   const height = bottom[0] + M.bottom;
   const series = [
     { key: "objective", label: objectiveLabel, cls: "stroke-ink", dot: "fill-ink", y: yObj, pick: (h: ConvergencePoint) => h.objective, dash: undefined },
@@ -71,7 +71,7 @@ export function ConvergencePlot({
                 <g key={t}>
                   <line x1={M.left} x2={width - M.right} y1={p.y(t)} y2={p.y(t)} className="stroke-rule" strokeWidth={0.75} />
                   <text x={M.left - 6} y={p.y(t)} dy="0.32em" textAnchor="end" className="fill-ink-muted">
-                    {tickLabel(t, p.y.log)}
+                    {p.y.label(t)}
                   </text>
                 </g>
               ))}
@@ -82,7 +82,7 @@ export function ConvergencePlot({
           ))}
           {x.ticks.map((t) => (
             <text key={t} x={x(t)} y={bottom[0] + 16} textAnchor="middle" className="fill-ink-muted">
-              {tickLabel(t, false)}
+              {x.label(t)}
             </text>
           ))}
           <text x={width - M.right} y={bottom[0] + 28} textAnchor="end" className="fill-ink-soft font-sans text-[11px]">
@@ -91,12 +91,12 @@ export function ConvergencePlot({
           {series.map((s) => {
             // mark the newest point, so a run that has reported once already shows something
             const v = valueOrNull(s.pick(last), s.y.log);
-            return v === null ? null : <circle key={`${s.key}-last`} cx={x(last.iteration)} cy={s.y(v)} r={2.5} className={s.dot} />;
+            return v === null ? null : <circle key={`${s.key}-last`} cx={x(last.iteration)} cy={s.y(s.y.log ? Math.max(v, s.y.domain[0]) : v)} r={2.5} className={s.dot} />;
           })}
           {series.map((s) => (
             <path
               key={s.key}
-              d={linePath(history.map((h) => ({ x: x(h.iteration), y: valueOrNull(s.pick(h), s.y.log) === null ? null : s.y(s.pick(h)!) })))}
+              d={linePath(history.map((h) => ({ x: x(h.iteration), y: valueOrNull(s.pick(h), s.y.log) === null ? null : s.y(s.y.log ? Math.max(s.pick(h)!, s.y.domain[0]) : s.pick(h)!) })))}
               fill="none"
               className={s.cls}
               strokeWidth={1.75}
@@ -116,7 +116,7 @@ export function ConvergencePlot({
           </span>
         ))}
         <span className="text-ink-muted">
-          last: iteration {last.iteration}, {objectiveLabel} {fmtNum(last.objective)}, violation {fmtSci(last.maxViolation)}, KKT {fmtSci(last.kktResidual)}
+          last: iteration {last.iteration}, {objectiveLabel} {formatNumber(last.objective)}, violation {formatResidual(last.maxViolation)}, KKT {formatResidual(last.kktResidual)}
         </span>
       </figcaption>
       <details className="mt-2 text-sm">
@@ -135,9 +135,9 @@ export function ConvergencePlot({
               {history.map((h) => (
                 <tr key={h.iteration}>
                   <td className="num">{h.iteration}</td>
-                  <td className="num">{fmtNum(h.objective, 6)}</td>
-                  <td className="num">{fmtSci(h.maxViolation)}</td>
-                  <td className="num">{fmtSci(h.kktResidual)}</td>
+                  <td className="num">{formatNumber(h.objective, { sig: 6 })}</td>
+                  <td className="num">{formatResidual(h.maxViolation)}</td>
+                  <td className="num">{formatResidual(h.kktResidual)}</td>
                 </tr>
               ))}
             </tbody>
@@ -152,4 +152,19 @@ function valueOrNull(v: number | null, log: boolean): number | null {
   if (v === null || !Number.isFinite(v)) return null;
   if (log && v < 0) return null;
   return v;
+}
+
+/** SVG path through the points, broken where a value is missing. */
+function linePath(points: { x: number; y: number | null }[]): string {
+  let d = "";
+  let pen = false;
+  for (const p of points) {
+    if (p.y === null || !Number.isFinite(p.y)) {
+      pen = false;
+      continue;
+    }
+    d += `${pen ? "L" : "M"}${p.x.toFixed(1)},${p.y.toFixed(1)}`;
+    pen = true;
+  }
+  return d;
 }

@@ -1,7 +1,7 @@
 // The limits that shape the design, with their shadow prices: how much objective each one
 // costs per unit it is relaxed (the Lagrange multipliers of the active constraints).
 import type { TrussResult } from "~/engine/design/result-types";
-import { fmtSci } from "~/components/ui/format";
+import { formatResidual } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
 import { describeConstraint } from "./constraint-words";
 
@@ -15,13 +15,13 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
           id: p.constraint,
           multiplier: p.multiplier,
           unit: p.unit,
-          sentence: p.sentence || `Relaxing the ${describeConstraint(p.constraint)} by one unit would change the ${result.objective.kind} by about ${fmtSci(p.multiplier)} ${p.unit}.`,
+          sentence: p.sentence || `Relaxing the ${describeConstraint(p.constraint)} by one unit would change the ${result.objective.kind} by about ${formatResidual(p.multiplier)} ${p.unit}.`,
         }))
       : result.activeConstraints.map((a) => ({
           id: a.id,
           multiplier: a.multiplier,
           unit: "",
-          sentence: `Relaxing the ${describeConstraint(a.id)} by one unit would change the ${result.objective.kind} by about ${fmtSci(a.multiplier)}.`,
+          sentence: `Relaxing the ${describeConstraint(a.id)} by one unit would change the ${result.objective.kind} by about ${formatResidual(a.multiplier)}.`,
         }));
   // shadow prices come ranked by the engine on a unit-free scale; raw multipliers of different
   // units cannot be compared, so only the fallback list is ordered here
@@ -39,7 +39,7 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
                 {r.id}
               </code>
               <span className="num text-sm text-ink" title="shadow price (Lagrange multiplier)">
-                {fmtSci(r.multiplier)} {r.unit}
+                {formatResidual(r.multiplier)} {r.unit}
               </span>
             </div>
             <p className="mt-1 text-sm text-ink-soft">{r.sentence}</p>
@@ -53,7 +53,7 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
             {rows.slice(limit).map((r) => (
               <li key={r.id} className="flex gap-3">
                 <code className="font-mono text-xs text-ink-muted">{r.id}</code>
-                <span className="num">{fmtSci(r.multiplier)} {r.unit}</span>
+                <span className="num">{formatResidual(r.multiplier)} {r.unit}</span>
               </li>
             ))}
           </ul>

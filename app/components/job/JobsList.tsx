@@ -5,7 +5,7 @@ import { createColumnHelper } from "@tanstack/react-table";
 import { useEffect, useMemo, useRef, type ReactNode } from "react";
 import { Link, useFetcher } from "react-router";
 import { DataTable } from "~/components/tables/DataTable";
-import { fmtDateTime, fmtDuration, fmtNum } from "~/components/ui/format";
+import { formatDateTime, formatDuration, formatNumber } from "~/lib/format";
 import { OutcomeBadge, StatusBadge } from "~/components/ui/StatusBadge";
 
 export interface JobListRow {
@@ -110,11 +110,11 @@ export function JobsList({
       ...(showModel ? [col.accessor("modelName", { header: "model", cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue()}>{c.getValue()}</span> })] : []),
       ...(showProject ? [col.accessor("projectCode", { header: "project" })] : []),
       col.accessor((r) => r.submitter ?? "", { id: "submitter", header: "submitted by", meta: { className: "hidden md:table-cell" } }),
-      col.accessor("createdAt", { header: "queued", cell: (c) => <span className="whitespace-nowrap">{fmtDateTime(c.getValue())}</span>, meta: { className: "hidden sm:table-cell" } }),
+      col.accessor("createdAt", { header: "queued", cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>, meta: { className: "hidden sm:table-cell" } }),
       col.accessor((r) => (r.startedAt && r.finishedAt ? Date.parse(r.finishedAt) - Date.parse(r.startedAt) : null), {
         id: "duration",
         header: "ran",
-        cell: (c) => fmtDuration(c.getValue()),
+        cell: (c) => formatDuration(c.getValue()),
         meta: { numeric: true, className: "hidden md:table-cell" },
         sortUndefined: "last",
       }),
@@ -126,7 +126,7 @@ export function JobsList({
           const o = c.row.original.objective;
           return o ? (
             <span title={o.kind}>
-              {fmtNum(o.final)} <span className="text-2xs text-ink-muted">{o.kind}</span>
+              {formatNumber(o.final)} <span className="text-2xs text-ink-muted">{o.kind}</span>
             </span>
           ) : (
             "–"

@@ -4,7 +4,7 @@
 import { useEffect, useRef } from "react";
 import { useFetcher, useRevalidator } from "react-router";
 import { ConvergencePlot, type ConvergencePoint } from "~/components/charts/ConvergencePlot";
-import { fmtNum, fmtSci } from "~/components/ui/format";
+import { formatNumber, formatResidual } from "~/lib/format";
 import { ProgressBar } from "~/components/ui/ProgressBar";
 import { StatusBadge } from "~/components/ui/StatusBadge";
 import { ErrorNote } from "~/components/ui/States";
@@ -108,15 +108,15 @@ export function LiveProgress({
         </div>
         <div>
           <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">{objectiveLabel}</dt>
-          <dd className="num text-left text-lg">{fmtNum(p?.objective)}</dd>
+          <dd className="num text-left text-lg">{formatNumber(p?.objective)}</dd>
         </div>
         <div>
           <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">max violation</dt>
-          <dd className="num text-left text-lg">{fmtSci(p?.maxViolation)}</dd>
+          <dd className="num text-left text-lg">{formatResidual(p?.maxViolation)}</dd>
         </div>
         <div>
           <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">KKT residual</dt>
-          <dd className="num text-left text-lg">{fmtSci(p?.kktResidual)}</dd>
+          <dd className="num text-left text-lg">{formatResidual(p?.kktResidual)}</dd>
         </div>
       </dl>
       {live.status === "running" && <ConvergencePlot history={points} objectiveLabel={objectiveLabel} live />}

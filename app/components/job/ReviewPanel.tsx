@@ -2,7 +2,7 @@
 // append-only: a new one supersedes the last, none is edited (product.md, step 4).
 import { useEffect, useRef } from "react";
 import { useFetcher } from "react-router";
-import { fmtDateTime } from "~/components/ui/format";
+import { formatDateTime } from "~/lib/format";
 import { ReviewBadge } from "~/components/ui/StatusBadge";
 import { EmptyState, ErrorNote } from "~/components/ui/States";
 import { formShouldReset } from "./review-words";
@@ -22,7 +22,7 @@ export function ReviewHistory({ reviews }: { reviews: ReviewView[] }) {
             <div className="flex flex-wrap items-center gap-2 text-sm">
               <ReviewBadge decision={r.decision} />
               <strong>{r.reviewerName}</strong>
-              <span className="text-ink-muted">{fmtDateTime(r.createdAt)}</span>
+              <span className="text-ink-muted">{formatDateTime(r.createdAt)}</span>
               {i > 0 && <span className="text-2xs text-ink-muted">(superseded)</span>}
             </div>
             {r.comment && <p className="mt-1 whitespace-pre-wrap text-sm text-ink-soft">{r.comment}</p>}

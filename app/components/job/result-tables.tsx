@@ -3,7 +3,7 @@
 import { createColumnHelper, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
 import type { ResultMember, ResultNode, TrussResult } from "~/engine/design/result-types";
-import { fmtNum, fmtPercent } from "~/components/ui/format";
+import { formatNumber, formatPercent } from "~/lib/format";
 import { DataTable } from "~/components/tables/DataTable";
 import { downloadText, fileSlug, toCsv } from "~/components/tables/csv";
 import { forceSense, UTIL_BANDS, utilBandIndex } from "~/components/viewer/palette";
@@ -90,15 +90,15 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
         cell: (c) => (
           <span className="inline-flex items-center gap-1.5">
             <span className={`inline-block h-2 w-2 rounded-full ${UTIL_BANDS[utilBandIndex(c.getValue())]!.className}`} aria-hidden />
-            {fmtPercent(c.getValue())}
+            {formatPercent(c.getValue())}
           </span>
         ),
       }),
-      col.accessor("area", { header: `area (${u.length}²)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${u.force})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${u.force}/${u.length}²)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor("area", { header: `area (${u.length}²)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${u.force})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${u.force}/${u.length}²)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
-      col.accessor("length", { header: `length (${u.length})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor("length", { header: `length (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       col.accessor((m) => `${m.start ?? topology.members.get(m.id)?.start ?? "?"}–${m.end ?? topology.members.get(m.id)?.end ?? "?"}`, { id: "nodes", header: "nodes" }),
       col.accessor((m) => m.group ?? topology.members.get(m.id)?.group ?? "", { id: "group", header: "group" }),
       col.accessor((m) => m.governing ?? "", { id: "governing", header: "governed by" }),
@@ -132,15 +132,15 @@ export function NodeTable({ result, topology, fileName }: { result: TrussResult;
   const columns = useMemo(
     () => [
       col.accessor("id", { header: "node" }),
-      col.accessor("x", { header: `x (${u.length})`, cell: (c) => fmtNum(c.getValue(), 6), meta: { numeric: true } }),
-      col.accessor("y", { header: `y (${u.length})`, cell: (c) => fmtNum(c.getValue(), 6), meta: { numeric: true } }),
-      col.accessor("z", { header: `z (${u.length})`, cell: (c) => fmtNum(c.getValue(), 6), meta: { numeric: true } }),
-      ...(anyMoved ? [col.accessor((n) => moved(n), { id: "moved", header: `moved (${u.length})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } })] : []),
+      col.accessor("x", { header: `x (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6 }), meta: { numeric: true } }),
+      col.accessor("y", { header: `y (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6 }), meta: { numeric: true } }),
+      col.accessor("z", { header: `z (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6 }), meta: { numeric: true } }),
+      ...(anyMoved ? [col.accessor((n) => moved(n), { id: "moved", header: `moved (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } })] : []),
       col.accessor((n) => (n.fixed ?? topology.nodes.get(n.id)?.fixed ?? []).join(", "), { id: "fixed", header: "restrained" }),
       ...([0, 1, 2] as const).map((k) =>
-        col.accessor((n) => n.displacement[lc]?.[k] ?? 0, { id: `u${"xyz"[k]}`, header: `u${"xyz"[k]} (${u.length})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+        col.accessor((n) => n.displacement[lc]?.[k] ?? 0, { id: `u${"xyz"[k]}`, header: `u${"xyz"[k]} (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       ),
-      col.accessor((n) => Math.hypot(...(n.displacement[lc] ?? [0, 0, 0])), { id: "umag", header: `|u| (${u.length})`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
+      col.accessor((n) => Math.hypot(...(n.displacement[lc] ?? [0, 0, 0])), { id: "umag", header: `|u| (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [lc, anyMoved, topology, u],

@@ -1,12 +1,14 @@
 // CSV text for table downloads (RFC 4180: comma separated, CRLF line ends, fields with a
 // comma, quote or line break quoted, quotes doubled). Numbers are written in full precision
-// so a spreadsheet sees what the result file holds, not the rounded screen text.
+// (csvNumber: 15 significant figures) so a spreadsheet sees what the result holds, not the screen text.
+
+import { csvNumber } from "~/lib/format";
 
 export type CsvValue = string | number | boolean | null | undefined;
 
 export function csvField(v: CsvValue): string {
   if (v === null || v === undefined) return "";
-  if (typeof v === "number") return Number.isFinite(v) ? String(v) : "";
+  if (typeof v === "number") return csvNumber(v);
   const s = String(v);
   // a leading = + - @ would be run as a formula by spreadsheets: prefix a quote (common practice)
   const safe = /^[=+\-@]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;

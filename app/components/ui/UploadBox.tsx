@@ -3,7 +3,7 @@
 import { useCallback } from "react";
 import { useDropzone, type FileRejection } from "react-dropzone";
 import { useFetcher } from "react-router";
-import { fmtBytes } from "./format";
+import { formatBytes } from "~/lib/format";
 import { ErrorNote, IssueList, type Issue } from "./States";
 
 export interface UploadResult {
@@ -44,7 +44,7 @@ export function UploadBox({ projectId, limitBytes, fields }: { projectId: string
     ? rejection.errors
         .map((e) =>
           e.code === "file-too-large"
-            ? `${rejection.file.name} is ${fmtBytes(rejection.file.size)}; the limit is ${fmtBytes(limitBytes)}`
+            ? `${rejection.file.name} is ${formatBytes(rejection.file.size)}; the limit is ${formatBytes(limitBytes)}`
             : e.code === "file-invalid-type"
               ? `${rejection.file.name} is not a .json file`
               : e.message,
@@ -65,7 +65,7 @@ export function UploadBox({ projectId, limitBytes, fields }: { projectId: string
         <input {...getInputProps({ name: "file", "aria-label": "Truss model file" })} />
         <p className="font-medium text-ink">{busy ? "Checking the model…" : isDragActive ? "Drop the file to upload it" : "Drop a truss JSON here, or click to pick one"}</p>
         <p className="mt-1 text-xs text-ink-muted">
-          format strutwise.truss version 1 · up to {fmtBytes(limitBytes)} · checked at once, nothing is stored if it has errors
+          format strutwise.truss version 1 · up to {formatBytes(limitBytes)} · checked at once, nothing is stored if it has errors
         </p>
       </div>
       {rejectText && <ErrorNote title="That file was not sent">{rejectText}</ErrorNote>}

@@ -2,7 +2,7 @@
 // page has mounted in a browser that offers WebGL (three.js cannot render on the server);
 // until then, and without WebGL, the box says what is happening instead of staying blank.
 import { Component, lazy, Suspense, useEffect, useMemo, useState, type ReactNode } from "react";
-import { fmtNum, fmtPercent } from "~/components/ui/format";
+import { formatNumber, formatPercent } from "~/lib/format";
 import { Legend } from "./Legend";
 import type { ColourMode, SceneSettings } from "./TrussScene";
 import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike } from "./truss-view";
@@ -128,7 +128,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
         <Toggle label="supports" checked={settings.showSupports} onChange={(v) => set("showSupports", v)} />
         {view.hasResult && settings.showDeformed && (
           <label className="flex min-w-56 flex-1 items-center gap-2">
-            <span className="whitespace-nowrap text-ink-muted">Magnify ×{fmtNum(deformationScale, 2)}</span>
+            <span className="whitespace-nowrap text-ink-muted">Magnify ×{formatNumber(deformationScale, { sig: 2 })}</span>
             <input
               type="range"
               min={0}
@@ -138,7 +138,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
               onChange={(e) => setScaleStep(Number(e.target.value))}
               className="w-full accent-[var(--color-brass)]"
               aria-label="Deformation magnification"
-              aria-valuetext={`${fmtNum(deformationScale, 2)} times`}
+              aria-valuetext={`${formatNumber(deformationScale, { sig: 2 })} times`}
             />
           </label>
         )}
@@ -184,12 +184,12 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
         <p className="text-ink-muted sm:text-right" aria-live="polite" data-testid="selected-member">
           {sel ? (
             <>
-              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): area {fmtNum(sel.area)}
+              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): area {formatNumber(sel.area)}
               {units ? ` ${units.length}²` : ""}
-              {sel.utilization !== null && <>, utilization {fmtPercent(sel.utilization)}</>}
+              {sel.utilization !== null && <>, utilization {formatPercent(sel.utilization)}</>}
               {sel.force && lc && (
                 <>
-                  , force {fmtNum(sel.force[lc.id] ?? 0)}
+                  , force {formatNumber(sel.force[lc.id] ?? 0)}
                   {units ? ` ${units.force}` : ""} in {lc.id}
                 </>
               )}

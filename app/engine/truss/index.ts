@@ -10,5 +10,5 @@ export { parseModel, parseModelText, type ParseResult, type ParseOptions } from 
 export { type ModelIssue } from "./issues";
 export { type ModelSummary } from "./summary";
 export * as units from "./units";
-export { convertUnit, formatQuantity, unitLabel, type Quantity } from "./units";
+export { convertUnit, unitLabel, type Quantity } from "./units";
 export { analyzeModelToJson, type AnalysisReport } from "./report";

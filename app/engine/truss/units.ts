@@ -1,5 +1,5 @@
 // Units: every number of a model is in the units it declares; these helpers convert between
-// unit systems and format values for display. Factors are exact by definition (NIST SP 811,
+// unit systems (display formatting lives in app/lib/format.ts). Factors are exact by definition (NIST SP 811,
 // appendix B): 1 in = 0.0254 m, 1 ft = 0.3048 m, 1 lb = 0.45359237 kg, standard gravity
 // 9.80665 m/s^2, so 1 lbf = 4.4482216152605 N; 1 kip = 1000 lbf; 1 t = 1000 kg.
 import type { ForceUnit, LengthUnit, MassUnit, Units } from "./schema";
@@ -85,25 +85,3 @@ const STRESS_NAMES: Record<string, string> = {
   "lbf/ft": "psf",
   "kip/ft": "ksf",
 };
-
-export interface FormatOptions {
-  /** significant digits (default 4) */
-  digits?: number;
-  /** show in another unit system (converted) */
-  to?: Units;
-}
-
-/** "12.35 kN", "235 MPa", "1.234e-5 m": a value with its unit for tables and reports. */
-export function formatQuantity(value: number, quantity: Quantity, units: Units, opts: FormatOptions = {}): string {
-  const target = opts.to ?? units;
-  const v = opts.to ? convertUnit(value, quantity, units, target) : value;
-  return `${formatNumber(v, opts.digits ?? 4)} ${unitLabel(quantity, target)}`;
-}
-
-export function formatNumber(v: number, digits = 4): string {
-  if (!Number.isFinite(v)) return String(v);
-  if (v === 0) return "0";
-  const a = Math.abs(v);
-  if (a >= 1e-3 && a < 1e6) return String(Number(v.toPrecision(digits)));
-  return v.toExponential(Math.max(0, digits - 1)).replace(/\.?0+e/, "e");
-}

@@ -1,7 +1,7 @@
 // Section 4, the governing constraints with their shadow prices in plain words, and section 5,
 // the independent verification checks of the final design.
 import type { ShadowPrice, TrussResult, VerificationCheck } from "~/engine/design/result-types";
-import { num, pct, sci } from "./format";
+import { formatNumber, formatPercent, formatResidual } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, INK, INK_MUTED, OK } from "./palette";
 import type { ReportData } from "./report-data";
@@ -55,7 +55,7 @@ export function shadowPrices(r: TrussResult): ShadowPrice[] {
       constraint: a.id,
       multiplier: a.multiplier,
       unit,
-      sentence: `Relaxing ${what} by one unit would change the ${r.objective.kind} by about ${num(-Math.abs(a.multiplier), 3)} ${obj} (${num(Math.abs(a.multiplier), 3)} ${unit}).`,
+      sentence: `Relaxing ${what} by one unit would change the ${r.objective.kind} by about ${formatNumber(-Math.abs(a.multiplier), { sig: 3 })} ${obj} (${formatNumber(Math.abs(a.multiplier), { sig: 3 })} ${unit}).`,
     };
   });
 }
@@ -77,7 +77,7 @@ export function constraintsSection(w: ReportWriter, data: ReportData) {
     for (const p of prices.slice(0, WORDED)) {
       const text = `${p.sentence}`;
       w.ensure(w.paragraphHeight(text, { size: 9, width: w.width - 14 }) + 18);
-      w.line("mono", 8, `${p.constraint}    ${num(p.multiplier, 4)} ${p.unit}`, w.left, w.y, { color: INK_MUTED, width: w.width });
+      w.line("mono", 8, `${p.constraint}    ${formatNumber(p.multiplier, { sig: 4 })} ${p.unit}`, w.left, w.y, { color: INK_MUTED, width: w.width });
       w.y += 11;
       w.paragraph(text, { size: 9, x: w.left + 14, gap: 6 });
     }
@@ -89,7 +89,7 @@ export function constraintsSection(w: ReportWriter, data: ReportData) {
           { header: "Shadow price", weight: 2.4, align: "right" },
           { header: "Unit", weight: 3 },
         ],
-        prices.slice(WORDED).map((p) => [p.constraint, num(p.multiplier, 4), p.unit]),
+        prices.slice(WORDED).map((p) => [p.constraint, formatNumber(p.multiplier, { sig: 4 }), p.unit]),
         { title: `The other ${prices.length - WORDED} active limits` },
       );
     }
@@ -108,8 +108,8 @@ export function constraintsSection(w: ReportWriter, data: ReportData) {
   w.facts([
     ["All limits met", v.allLimitsMet ? "yes" : `NO: ${v.failures.length} check${v.failures.length === 1 ? "" : "s"} failed`],
     ["Checks performed", String(v.checked)],
-    ["Equilibrium residual", `${sci(v.equilibriumResidual)} (largest |K u − f| over |f|, all load cases)`],
-    ["Largest utilization", pct(v.maxUtilization)],
+    ["Equilibrium residual", `${formatResidual(v.equilibriumResidual)} (largest |K u − f| over |f|, all load cases)`],
+    ["Largest utilization", formatPercent(v.maxUtilization)],
   ]);
   const checkTable = (title: string, checks: VerificationCheck[]) =>
     table(
@@ -122,7 +122,7 @@ export function constraintsSection(w: ReportWriter, data: ReportData) {
         { header: "Ratio", weight: 1.8, align: "right" },
         { header: "Result", weight: 1.4 },
       ],
-      checks.map((c) => [c.id, c.kind, num(c.value), num(c.limit), pct(c.ratio), c.ok ? "met" : "FAILED"]),
+      checks.map((c) => [c.id, c.kind, formatNumber(c.value), formatNumber(c.limit), formatPercent(c.ratio), c.ok ? "met" : "FAILED"]),
       { title, cellColor: (i, col) => (col === 5 ? (checks[i]!.ok ? OK : BAD) : undefined) },
     );
   if (v.failures.length) checkTable("Failed checks", v.failures);

@@ -1,7 +1,7 @@
 // The cover page: what was computed, by whom, from which file, and its review state, followed
 // by the cautions and the record of review decisions.
 import { CAUTION_TEXT, CAUTION_TITLE } from "./cautions";
-import { num, utc } from "./format";
+import { formatDateTime, formatNumber } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, BAD_WASH, BRASS, BRASS_WASH, INK, INK_MUTED, INK_SOFT, OK, OK_WASH, WARN, WARN_WASH } from "./palette";
 import { reviewState, type ReportData } from "./report-data";
@@ -39,12 +39,12 @@ export function reviewBox(w: ReportWriter, data: ReportData) {
     ]);
   } else if (state.kind === "changes-requested") {
     box(w, WARN, WARN_WASH, "CHANGES REQUESTED — NOT APPROVED", [
-      `Checked by ${state.review.reviewer} on ${utc(state.review.at)}, who returned it with changes requested.`,
+      `Checked by ${state.review.reviewer} on ${formatDateTime(state.review.at, { seconds: true })}, who returned it with changes requested.`,
       `Comment: ${state.review.comment || "(none)"}`,
     ]);
   } else {
     box(w, OK, OK_WASH, "APPROVED", [
-      `Checked and approved by ${state.review.reviewer} on ${utc(state.review.at)}.`,
+      `Checked and approved by ${state.review.reviewer} on ${formatDateTime(state.review.at, { seconds: true })}.`,
       `Comment: ${state.review.comment || "(none)"}`,
     ]);
   }
@@ -66,15 +66,15 @@ export function coverPage(w: ReportWriter, data: ReportData) {
   w.facts([
     ["Project", `${project.code} — ${project.name}`],
     ...(project.client ? ([["Client", project.client]] as [string, string][]) : []),
-    ["Model", `${model.name} (file ${model.fileName}, ${num(model.sizeBytes / 1024, 3)} KiB)`],
+    ["Model", `${model.name} (file ${model.fileName}, ${formatNumber(model.sizeBytes / 1024, { sig: 3 })} KiB)`],
     ["Job", job.id],
     ["Submitted by", job.submitter ?? "unknown"],
-    ["Queued", utc(job.createdAt)],
-    ["Started", utc(job.startedAt)],
-    ["Finished", utc(job.finishedAt)],
+    ["Queued", formatDateTime(job.createdAt, { seconds: true })],
+    ["Started", formatDateTime(job.startedAt, { seconds: true })],
+    ["Finished", formatDateTime(job.finishedAt, { seconds: true })],
     ["Solver", `${solver}${result.formulation ? `, ${result.formulation} formulation` : ""}`],
     ["Result", statusWords(result.status)],
-    ["Report generated", utc(data.generatedAt)],
+    ["Report generated", formatDateTime(data.generatedAt, { seconds: true })],
   ]);
   w.facts([["Input file SHA-256", model.sha256]], { monoValues: true, size: 8 });
   w.space(6);
@@ -87,7 +87,7 @@ export function coverPage(w: ReportWriter, data: ReportData) {
     w.paragraph("Decisions are kept in the order they were made; the latest one sets the state of this report.", { size: 8, color: INK_MUTED });
     // a list, not a table: a checker's comment is part of the record and is never cut short
     for (const r of data.reviews) {
-      const head = `${utc(r.at)} · ${r.reviewer} · ${r.decision === "approved" ? "approved" : "changes requested"}`;
+      const head = `${formatDateTime(r.at, { seconds: true })} · ${r.reviewer} · ${r.decision === "approved" ? "approved" : "changes requested"}`;
       w.ensure(14 + w.paragraphHeight(r.comment || "(no comment)", { size: 8.5, width: w.width - 14 }));
       w.line("sans-semibold", 8.5, head, w.left, w.y, { color: r.decision === "approved" ? OK : WARN, width: w.width });
       w.y += 12;

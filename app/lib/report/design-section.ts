@@ -1,6 +1,6 @@
 // Section 2, the design problem as posed: objective, formulation, variables with their
 // bounds, the limits, the solver settings and the options the job overrode.
-import { num } from "./format";
+import { formatNumber } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { INK_MUTED } from "./palette";
 import type { ModelFile, ReportData } from "./report-data";
@@ -77,7 +77,7 @@ export function designSection(w: ReportWriter, data: ReportData) {
     ["Formulation", FORMULATION_WORDS[formulation] ?? formulation],
     [
       "Solver settings",
-      `at most ${(opts.maxIterations as number | undefined) ?? d?.solver?.maxIterations ?? "the default number of"} iterations, tolerance ${num((opts.tolerance as number | undefined) ?? d?.solver?.tolerance ?? Number.NaN)}`.replace(
+      `at most ${(opts.maxIterations as number | undefined) ?? d?.solver?.maxIterations ?? "the default number of"} iterations, tolerance ${formatNumber((opts.tolerance as number | undefined) ?? d?.solver?.tolerance ?? Number.NaN)}`.replace(
         "tolerance not a number",
         "default tolerance",
       ),
@@ -88,7 +88,7 @@ export function designSection(w: ReportWriter, data: ReportData) {
   if (overrides.length > 0) {
     w.heading("Options set for this job", 2);
     w.paragraph("These options were chosen when the job was queued and take precedence over the model's design block.", { size: 8.5, color: INK_MUTED });
-    w.facts(overrides.map(([k, v]) => [OPTION_WORDS[k] ?? k, typeof v === "boolean" ? (v ? "on" : "off") : typeof v === "number" ? num(v) : String(v)]));
+    w.facts(overrides.map(([k, v]) => [OPTION_WORDS[k] ?? k, typeof v === "boolean" ? (v ? "on" : "off") : typeof v === "number" ? formatNumber(v) : String(v)]));
   }
 
   w.heading("Limits", 2);
@@ -98,10 +98,10 @@ export function designSection(w: ReportWriter, data: ReportData) {
   if (bucklingOn && c.buckling) {
     limits.push([
       "Euler buckling",
-      `on: compressive stress at most π²·E·I / ((k·L)²·A) with I = ${num(c.buckling.sectionRatio)} · A² and k = ${num(c.buckling.effectiveLengthFactor ?? 1)}`,
+      `on: compressive stress at most π²·E·I / ((k·L)²·A) with I = ${formatNumber(c.buckling.sectionRatio)} · A² and k = ${formatNumber(c.buckling.effectiveLengthFactor ?? 1)}`,
     ]);
   } else limits.push(["Euler buckling", bucklingOn ? "on (parameters from the job options)" : "off"]);
-  limits.push(["Volume", volumeMax !== undefined ? `total volume Σ A·L at most ${num(volumeMax)} ${u.volume}` : "no limit"]);
+  limits.push(["Volume", volumeMax !== undefined ? `total volume Σ A·L at most ${formatNumber(volumeMax)} ${u.volume}` : "no limit"]);
   const dispOverride = opts.displacementLimit as number | undefined;
   const disp = dispOverride !== undefined ? [{ node: "*", axis: "all", limit: dispOverride }] : (c.displacement ?? []);
   limits.push(["Displacement", disp.length ? `${disp.length} limit${disp.length > 1 ? "s" : ""}, each displacement component bounded separately (table below)` : "no limit"]);
@@ -114,7 +114,7 @@ export function designSection(w: ReportWriter, data: ReportData) {
         { header: "Axis", weight: 2 },
         { header: `Limit |u| (${u.length})`, weight: 3, align: "right" },
       ],
-      disp.map((l) => [l.node === "*" ? "every node" : l.node, l.axis === "all" ? "x, y and z each" : l.axis, num(l.limit)]),
+      disp.map((l) => [l.node === "*" ? "every node" : l.node, l.axis === "all" ? "x, y and z each" : l.axis, formatNumber(l.limit)]),
       { title: "Displacement limits" },
     );
   }
@@ -132,7 +132,7 @@ export function designSection(w: ReportWriter, data: ReportData) {
         { header: `Upper bound (${u.area})`, weight: 2.2, align: "right" },
         { header: `Start (${u.area})`, weight: 2, align: "right" },
       ],
-      vars.map((v) => [v.id, v.members.length === 1 ? v.members[0]! : `${v.members.length}: ${v.members.join(", ")}`, num(v.min), num(v.max), num(v.initial)]),
+      vars.map((v) => [v.id, v.members.length === 1 ? v.members[0]! : `${v.members.length}: ${v.members.join(", ")}`, formatNumber(v.min), formatNumber(v.max), formatNumber(v.initial)]),
     );
   }
   const shape = d?.shape ?? [];
@@ -147,7 +147,7 @@ export function designSection(w: ReportWriter, data: ReportData) {
         { header: `Upper (${u.length})`, weight: 1.8, align: "right" },
         { header: "Moves (node.axis × factor)", weight: 7 },
       ],
-      shape.map((s) => [s.id, num(s.min), num(s.max), s.moves.map((mv) => `${mv.node}.${mv.axis} × ${num(mv.factor)}`).join(", ")]),
+      shape.map((s) => [s.id, formatNumber(s.min), formatNumber(s.max), s.moves.map((mv) => `${mv.node}.${mv.axis} × ${formatNumber(mv.factor)}`).join(", ")]),
     );
   }
 }

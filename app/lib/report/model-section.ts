@@ -1,5 +1,5 @@
 // Section 1, the model as uploaded: units, materials, nodes and supports, members, load cases.
-import { num } from "./format";
+import { formatNumber } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { INK_MUTED } from "./palette";
 import type { ModelFile, ReportData } from "./report-data";
@@ -51,7 +51,7 @@ export function modelSection(w: ReportWriter, data: ReportData) {
       { header: `Allowable tension (${u.stress})`, weight: 2.4, align: "right" },
       { header: `Allowable compression (${u.stress})`, weight: 2.6, align: "right" },
     ],
-    (m.materials ?? []).map((mat) => [mat.id, num(mat.E), num(mat.density), num(mat.allowableTension), num(mat.allowableCompression)]),
+    (m.materials ?? []).map((mat) => [mat.id, formatNumber(mat.E), formatNumber(mat.density), formatNumber(mat.allowableTension), formatNumber(mat.allowableCompression)]),
   );
 
   w.heading("Nodes and supports", 2);
@@ -65,9 +65,9 @@ export function modelSection(w: ReportWriter, data: ReportData) {
     ],
     (m.nodes ?? []).map((n) => [
       n.id,
-      num(n.x, 6),
-      num(n.y, 6),
-      ...(dim === 3 ? [num(n.z ?? 0, 6)] : []),
+      formatNumber(n.x, { sig: 6 }),
+      formatNumber(n.y, { sig: 6 }),
+      ...(dim === 3 ? [formatNumber(n.z ?? 0, { sig: 6 })] : []),
       (n.fixed ?? []).filter((a) => axes.includes(a)).join(", ") || "free",
     ]),
     { title: `${m.nodes?.length ?? 0} nodes` },
@@ -86,14 +86,14 @@ export function modelSection(w: ReportWriter, data: ReportData) {
       { header: `Initial area (${u.area})`, weight: 2.4, align: "right" },
       { header: `Length (${u.length})`, weight: 2.2, align: "right" },
     ],
-    (m.members ?? []).map((mem) => [mem.id, mem.start, mem.end, mem.material, mem.group ?? "", num(mem.area), num(memberLength(nodes, mem.start, mem.end), 5)]),
+    (m.members ?? []).map((mem) => [mem.id, mem.start, mem.end, mem.material, mem.group ?? "", formatNumber(mem.area), formatNumber(memberLength(nodes, mem.start, mem.end), { sig: 5 })]),
     { title: `${m.members?.length ?? 0} members` },
   );
 
   w.heading("Load cases", 2);
   const rows: string[][] = [];
   for (const lc of m.loadCases ?? []) {
-    for (const l of lc.loads) rows.push([lc.id, lc.name ?? "", l.node, num(l.fx ?? 0), num(l.fy ?? 0), ...(dim === 3 ? [num(l.fz ?? 0)] : [])]);
+    for (const l of lc.loads) rows.push([lc.id, lc.name ?? "", l.node, formatNumber(l.fx ?? 0), formatNumber(l.fy ?? 0), ...(dim === 3 ? [formatNumber(l.fz ?? 0)] : [])]);
     if (lc.loads.length === 0) rows.push([lc.id, lc.name ?? "", "(no loads)", "", "", ...(dim === 3 ? [""] : [])]);
   }
   table(

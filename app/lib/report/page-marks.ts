@@ -2,7 +2,7 @@
 // state banner (a NOT REVIEWED mark and watermark until a checker approves), and the footer
 // with the short caution and "page n of m".
 import { CAUTION_SHORT } from "./cautions";
-import { utc } from "./format";
+import { formatDateTime } from "~/lib/format";
 import { MARGIN, PAGE_SIZE, type ReportWriter } from "./layout";
 import { BAD, BAD_WASH, INK, INK_MUTED, OK, OK_WASH, RULE, WARN, WARN_WASH } from "./palette";
 import type { ReviewState } from "./report-data";
@@ -13,13 +13,13 @@ export function reviewBanner(state: ReviewState): { text: string; color: string;
       return { text: "NOT REVIEWED — no checker has approved this calculation", color: BAD, wash: BAD_WASH, watermark: "NOT REVIEWED" };
     case "changes-requested":
       return {
-        text: `CHANGES REQUESTED — NOT APPROVED (${state.review.reviewer}, ${utc(state.review.at)})`,
+        text: `CHANGES REQUESTED — NOT APPROVED (${state.review.reviewer}, ${formatDateTime(state.review.at, { seconds: true })})`,
         color: WARN,
         wash: WARN_WASH,
         watermark: "NOT APPROVED",
       };
     case "approved":
-      return { text: `APPROVED by ${state.review.reviewer} on ${utc(state.review.at)}`, color: OK, wash: OK_WASH, watermark: null };
+      return { text: `APPROVED by ${state.review.reviewer} on ${formatDateTime(state.review.at, { seconds: true })}`, color: OK, wash: OK_WASH, watermark: null };
   }
 }
 

@@ -2,7 +2,7 @@
 // truss, member and node tables per load case, and the shape variables' final values.
 import { convergencePlot } from "./convergence-plot";
 import { statusWords } from "./cover";
-import { num, pct, sci } from "./format";
+import { formatNumber, formatPercent, formatResidual } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, COMPRESSION, INK, INK_MUTED, TENSION, UTIL_BANDS, utilBand } from "./palette";
 import type { ReportData } from "./report-data";
@@ -31,14 +31,14 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
   ];
   if (r.hint) facts.push(["What to try", r.hint]);
   facts.push(
-    [`Objective (${r.objective.kind}, ${objUnit})`, `initial ${num(r.objective.initial, 5)}, final ${num(r.objective.final, 5)} (${Number.isFinite(change) ? `${change > 0 ? "+" : ""}${pct(change)}` : "no change figure"})`],
+    [`Objective (${r.objective.kind}, ${objUnit})`, `initial ${formatNumber(r.objective.initial, { sig: 5 })}, final ${formatNumber(r.objective.final, { sig: 5 })} (${Number.isFinite(change) ? `${change > 0 ? "+" : ""}${formatPercent(change)}` : "no change figure"})`],
     ["Iterations", `${r.iterations} iterations, ${r.analyses} analyses`],
-    ["KKT residual", `${sci(r.kktResidual)} (scaled)`],
-    ["Largest violation", `${sci(r.maxViolation)} (relative to each limit)`],
-    ["Volume", `${num(r.volume, 5)} ${u.volume}`],
+    ["KKT residual", `${formatResidual(r.kktResidual)} (scaled)`],
+    ["Largest violation", `${formatResidual(r.maxViolation)} (relative to each limit)`],
+    ["Volume", `${formatNumber(r.volume, { sig: 5 })} ${u.volume}`],
   );
-  if (r.mass !== undefined) facts.push(["Mass", `${num(r.mass, 5)} ${u.mass}`]);
-  if (r.solver?.elapsedMs !== undefined) facts.push(["Solve time", `${num(r.solver.elapsedMs / 1000, 3)} s`]);
+  if (r.mass !== undefined) facts.push(["Mass", `${formatNumber(r.mass, { sig: 5 })} ${u.mass}`]);
+  if (r.solver?.elapsedMs !== undefined) facts.push(["Solve time", `${formatNumber(r.solver.elapsedMs / 1000, { sig: 3 })} s`]);
   w.facts(facts);
 
   convergencePlot(w, r.history, `${r.objective.kind} (${objUnit})`, { title: "Convergence" });
@@ -60,7 +60,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
       { header: "Utilization", weight: 2, align: "right" },
       { header: "Governed by", weight: 3 },
     ],
-    r.members.map((m) => [m.id, m.start && m.end ? `${m.start}–${m.end}` : "", m.group ?? "", num(m.area), num(m.length, 5), pct(m.utilization), m.governing ?? ""]),
+    r.members.map((m) => [m.id, m.start && m.end ? `${m.start}–${m.end}` : "", m.group ?? "", formatNumber(m.area), formatNumber(m.length, { sig: 5 }), formatPercent(m.utilization), m.governing ?? ""]),
     {
       title: `${r.members.length} members`,
       marker: (i) => utilColor(r.members[i]!.utilization),
@@ -81,7 +81,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
           { header: `${lc.id} stress (${u.stress})`, weight: 2.6, align: "right" as const },
         ]),
       ],
-      r.members.map((m) => [m.id, ...group.flatMap((lc) => [num(m.force[lc.id]), num(m.stress[lc.id])])]),
+      r.members.map((m) => [m.id, ...group.flatMap((lc) => [formatNumber(m.force[lc.id]), formatNumber(m.stress[lc.id])])]),
       {
         cellColor: (i, c) => {
           if (c === 0) return undefined;
@@ -102,7 +102,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
         { header: "Node", weight: 3 },
         ...group.flatMap((lc) => axes.map((a) => ({ header: `${lc.id} u${a}`, weight: 2, align: "right" as const }))),
       ],
-      r.nodes.map((n) => [n.id, ...group.flatMap((lc) => axes.map((_, k) => num(n.displacement[lc.id]?.[k])))]),
+      r.nodes.map((n) => [n.id, ...group.flatMap((lc) => axes.map((_, k) => formatNumber(n.displacement[lc.id]?.[k])))]),
     );
   }
 
@@ -116,7 +116,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
       { header: "Lower bound", weight: 2, align: "right" },
       { header: "Upper bound", weight: 2, align: "right" },
     ],
-    r.variables.map((v) => [v.id, num(v.value, 6), num(shapeDef.get(v.id)?.min), num(shapeDef.get(v.id)?.max)]),
+    r.variables.map((v) => [v.id, formatNumber(v.value, { sig: 6 }), formatNumber(shapeDef.get(v.id)?.min), formatNumber(shapeDef.get(v.id)?.max)]),
     { empty: "This design problem has no shape variables; the geometry is as uploaded." },
   );
   w.doc.fillColor(INK);

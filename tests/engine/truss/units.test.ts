@@ -1,7 +1,8 @@
 // Exact conversion factors (NIST Special Publication 811, appendix B: the inch is 0.0254 m and
 // the pound 0.45359237 kg exactly; standard gravity 9.80665 m/s^2 defines the pound-force).
 import { describe, expect, it } from "vitest";
-import { convertUnit, formatQuantity, unitLabel } from "~/engine/truss";
+import { convertUnit, unitLabel } from "~/engine/truss";
+import { formatQuantity, quantityFormatter } from "~/lib/format";
 
 describe("unit conversion", () => {
   it("length", () => {
@@ -36,7 +37,7 @@ describe("unit conversion", () => {
     expect(unitLabel("stress", { length: "mm", force: "N", mass: "t" })).toBe("MPa");
     expect(unitLabel("stress", { length: "in", force: "kip", mass: "lb" })).toBe("ksi");
     expect(unitLabel("stress", { length: "cm", force: "kN", mass: "kg" })).toBe("kN/cm²");
-    expect(formatQuantity(12345.678, "force", { length: "m", force: "N", mass: "kg" }, { to: { length: "m", force: "kN", mass: "kg" } })).toBe("12.35 kN");
-    expect(formatQuantity(0.0000123, "length", { length: "m", force: "N", mass: "kg" })).toBe("1.23e-5 m");
+    expect(quantityFormatter({ length: "m", force: "N", mass: "kg" }, "kN-m").text(12345.678, "force")).toBe("12.35 kN");
+    expect(formatQuantity(0.0000123, "length", { length: "m", force: "N", mass: "kg" })).toBe("12.30e-6 m");
   });
 });
