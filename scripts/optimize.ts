@@ -4,7 +4,7 @@
 import fs from "node:fs";
 
 const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--quiet]";
-const EXIT = { optimal: 0, failed: 1, infeasible: 3, "not-converged": 4 } as const;
+const EXIT = { optimal: 0, failed: 1, infeasible: 3, "not-converged": 4, analysed: 0 } as const;
 
 function fail(code: number, lines: string[]): never {
   for (const l of lines) process.stderr.write(`${l}\n`);

@@ -1,13 +1,13 @@
 // The queue worker's loop: claim jobs while pool threads are free, run each one on the pool,
 // keep its lease alive, watch for cancel requests, store the result, record the outcome.
 // The process entry (queue-worker.ts) adds signals; tests and the benchmark use this directly.
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { randomBytes } from "node:crypto";
 import os from "node:os";
 import { MessageChannel } from "node:worker_threads";
 import type { Piscina } from "piscina";
 import type { Db } from "~/db/client.server";
-import { models } from "~/db/schema";
+import { models, modelVersions } from "~/db/schema";
 import { summarizeResult } from "~/engine/design";
 import type { JobOptions } from "~/engine/design/options";
 import type { JobSummary, TrussResult } from "~/engine/design/result-types";
@@ -269,8 +269,16 @@ export class QueueRunner {
 
   private async solve(lease: Lease, recorder: ProgressRecorder, signal: AbortSignal): Promise<SolveTaskOutput> {
     const job = lease.job;
-    const [model] = await this.o.db.select({ fileKey: models.fileKey }).from(models).where(eq(models.id, job.modelId)).limit(1);
-    if (!model) throw new Error(`The model ${job.modelId} of this job no longer exists`);
+    // the version the job was queued on (jobs older than versions: the model's latest file)
+    const [model] =
+      job.modelVersion === null
+        ? await this.o.db.select({ fileKey: models.fileKey }).from(models).where(eq(models.id, job.modelId)).limit(1)
+        : await this.o.db
+            .select({ fileKey: modelVersions.fileKey })
+            .from(modelVersions)
+            .where(and(eq(modelVersions.modelId, job.modelId), eq(modelVersions.version, job.modelVersion)))
+            .limit(1);
+    if (!model) throw new Error(`The model ${job.modelId}${job.modelVersion === null ? "" : ` version ${job.modelVersion}`} of this job no longer exists`);
     const modelText = await retrying(() => getText(model.fileKey));
     if (modelText === null) throw new Error(`The file of model ${job.modelId} is missing from storage (${model.fileKey})`);
     signal.throwIfAborted();
@@ -284,7 +292,7 @@ export class QueueRunner {
       if ("end" in p) drained();
       else recorder.push(p);
     });
-    const input: SolveTaskInput = { jobId: job.id, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2 };
+    const input: SolveTaskInput = { jobId: job.id, kind: job.kind, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2 };
     try {
       const out = (await this.o.pool.run(input, { transferList: [port2] as never, signal })) as SolveTaskOutput;
       let timer: NodeJS.Timeout | undefined;

@@ -3,13 +3,15 @@
 // through the MessagePort the caller hands over. Cancel and the time limit are the caller's
 // AbortSignal, which makes piscina end this thread, so the task itself never polls.
 import type { MessagePort } from "node:worker_threads";
-import { optimizeModel, summarizeResult } from "~/engine/design";
+import { analyseModel, optimizeModel, summarizeResult } from "~/engine/design";
 import type { JobOptions } from "~/engine/design/options";
 import type { JobSummary } from "~/engine/design/result-types";
 import { parseModel } from "~/engine/truss";
 
 export interface SolveTaskInput {
   jobId: string;
+  /** design (optimize; the default) or analysis (the model as given, no design block needed) */
+  kind?: "design" | "analysis";
   modelText: string;
   options: JobOptions;
   progressPort?: MessagePort;
@@ -42,6 +44,15 @@ export default function solveTask(input: SolveTaskInput): SolveTaskOutput {
     throw new ModelRejectedError(`The model is not valid: ${first ? `${first.path}: ${first.message}` : "no details"}${more}`);
   }
   const port = input.progressPort;
+  if (input.kind === "analysis") {
+    try {
+      const result = analyseModel(parsed.model);
+      return { resultJson: JSON.stringify(result), summary: summarizeResult(result), message: result.message, elapsedMs: performance.now() - started };
+    } finally {
+      port?.postMessage(PROGRESS_END);
+      port?.close();
+    }
+  }
   try {
     const result = optimizeModel(parsed.model, {
       ...input.options,

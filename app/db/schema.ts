@@ -54,7 +54,7 @@ export const jobs = sqliteTable(
     modelId: text("model_id").notNull().references(() => models.id),
     submittedBy: text("submitted_by").references(() => user.id),
     status: text("status", { enum: JOB_STATUSES }).notNull().default("queued"),
-    outcome: text("outcome", { enum: ["optimal", "not-converged", "infeasible", "failed"] }),
+    outcome: text("outcome", { enum: ["optimal", "not-converged", "infeasible", "failed", "analysed"] }),
     options: text("options", { mode: "json" }).notNull(), // JobOptions
     attempts: integer("attempts").notNull().default(0),
     maxAttempts: integer("max_attempts").notNull().default(3),
@@ -66,6 +66,8 @@ export const jobs = sqliteTable(
     finishedAt: integer("finished_at", { mode: "timestamp_ms" }),
     error: text("error"),
     resultKey: text("result_key"),
+    kind: text("kind", { enum: ["design", "analysis"] }).notNull().default("design"),
+    modelVersion: integer("model_version"), // the model version the job ran (null only for jobs older than versions)
     summary: text("summary", { mode: "json" }), // JobSummary: objective initial/final, iterations, max utilization
     // latest progress, throttled writes from the worker
     progressIteration: integer("progress_iteration"),
@@ -149,3 +151,4 @@ export const invitations = sqliteTable("invitations", {
   acceptedAt: integer("accepted_at", { mode: "timestamp_ms" }),
 });
 export * from "./tables/catalogues";
+export * from "./tables/model-versions";

@@ -1,17 +1,19 @@
 // Uploaded truss models: validate with the engine, keep the file in the bucket and the
 // metadata in the database. Either both are stored or neither is.
 import { DeleteObjectCommand } from "@aws-sdk/client-s3";
-import { createHash, randomUUID } from "node:crypto";
+import { randomUUID } from "node:crypto";
 import { and, desc, eq } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
-import { models, projects } from "~/db/schema";
-import { parseModel } from "~/engine/truss";
+import { models, modelVersions, projects } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import type { SessionUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { getText, putObject, s3 } from "~/lib/storage.server";
 import { modelFileKey } from "~/lib/jobs/keys";
+import { checkModelBytes, tooLargeRefusal } from "~/lib/models/model-gate";
+
+export { locateJsonError } from "~/lib/models/json-error";
 
 export type ModelRow = typeof models.$inferSelect;
 
@@ -55,82 +57,55 @@ export function toModelView(r: ModelRow): ModelView {
   };
 }
 
-const mb = (n: number) => `${(n / (1024 * 1024)).toFixed(n < 1024 * 1024 ? 2 : 1)} MB`;
-
 export function uploadTooLarge(fileName: string | null, size: number | null, limit = config().UPLOAD_LIMIT_BYTES): StoreModelResult & { ok: false } {
-  const what = fileName ? `The file ${fileName}` : "The upload";
-  const error = size === null ? `${what} is larger than the upload limit of ${mb(limit)}` : `${what} is ${mb(size)}, larger than the upload limit of ${mb(limit)}`;
-  return { ok: false, status: 413, error, details: [{ path: "file", message: `over the upload limit of ${limit} bytes` }] };
+  return tooLargeRefusal(fileName, size, limit);
 }
 
 /**
- * Validate and store an uploaded model. Order matters: every check first, then the file in
- * the bucket, then the row; a failed insert removes the file again.
+ * Validate and store an uploaded model as its version 1. Order matters: every check first,
+ * then the file in the bucket, then the rows (model and version in one batch); a failed
+ * insert removes the file again.
  */
 export async function storeModel(
-  input: { projectId: string; fileName: string; bytes: Uint8Array; user: { id: string } | null },
+  input: { projectId: string; fileName: string; bytes: Uint8Array; user: { id: string } | null; note?: string },
   database: Db = defaultDb(),
 ): Promise<StoreModelResult> {
   const { projectId, fileName, bytes } = input;
   const limit = config().UPLOAD_LIMIT_BYTES;
   if (bytes.byteLength > limit) return uploadTooLarge(fileName, bytes.byteLength, limit);
-  if (bytes.byteLength === 0) return invalid(`The file ${fileName} is empty`, [{ path: "file", message: "no content" }]);
 
   const project = await database.select({ id: projects.id }).from(projects).where(eq(projects.id, projectId)).limit(1);
   if (!project[0]) {
     return { ok: false, status: 404, error: `Project ${projectId} not found`, details: [{ path: "projectId", message: "no such project" }] };
   }
-
-  let text: string;
-  try {
-    text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
-  } catch {
-    return invalid(`The file ${fileName} is not UTF-8 text`, [{ path: "file", message: "not UTF-8 encoded text" }]);
-  }
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1); // editors on some systems add a BOM
-
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch (e) {
-    const at = locateJsonError(text);
-    const where = `line ${at.line}, column ${at.column}`;
-    return invalid(`The file ${fileName} is not valid JSON: ${at.message} at ${where}`, [
-      { path: `(file) ${where}`, message: at.message || (e as Error).message },
-    ]);
-  }
-
-  const parsed = parseModel(json);
-  if (!parsed.ok) {
-    const n = parsed.errors.length;
-    return invalid(`The model in ${fileName} has ${n} problem${n === 1 ? "" : "s"}; the first: ${parsed.errors[0]?.path}: ${parsed.errors[0]?.message}`, parsed.errors);
-  }
-  const { model, summary, warnings } = parsed;
+  const gate = checkModelBytes(fileName, bytes, limit);
+  if (!gate.ok) return gate;
+  const { model, summary, warnings, sha256 } = gate;
 
   const id = randomUUID();
   const key = modelFileKey(id);
-  const sha256 = createHash("sha256").update(bytes).digest("hex");
   await putObject(key, bytes, "application/json");
+  const facts = {
+    name: model.name,
+    fileName: fileName.slice(0, 255),
+    fileKey: key,
+    sha256,
+    sizeBytes: bytes.byteLength,
+    dimension: model.dimension,
+    nodeCount: model.nodes.length,
+    memberCount: model.members.length,
+    hasDesign: model.design != null,
+    summary,
+    warnings,
+  };
   try {
-    const [row] = await database
-      .insert(models)
-      .values({
-        id,
-        projectId,
-        name: model.name,
-        fileName: fileName.slice(0, 255),
-        fileKey: key,
-        sha256,
-        sizeBytes: bytes.byteLength,
-        dimension: model.dimension,
-        nodeCount: model.nodes.length,
-        memberCount: model.members.length,
-        hasDesign: model.design != null,
-        summary,
-        warnings,
-        uploadedBy: input.user?.id ?? null,
-      })
-      .returning();
+    const [[row]] = await database.batch([
+      database
+        .insert(models)
+        .values({ id, projectId, ...facts, uploadedBy: input.user?.id ?? null })
+        .returning(),
+      database.insert(modelVersions).values({ id: randomUUID(), modelId: id, version: 1, ...facts, note: input.note ?? null, createdBy: input.user?.id ?? null }),
+    ]);
     return { ok: true, model: toModelView(row!) };
   } catch (e) {
     await s3()
@@ -138,10 +113,6 @@ export async function storeModel(
       .catch(() => undefined);
     throw e;
   }
-}
-
-function invalid(error: string, details: ErrorDetail[]): StoreModelResult {
-  return { ok: false, status: 400, error, details };
 }
 
 export async function getModel(id: string, database: Db = defaultDb()): Promise<ModelView | null> {
@@ -175,110 +146,6 @@ export async function getModelFile(id: string, database: Db = defaultDb()): Prom
   const text = await getText(rows[0].fileKey);
   if (text === null) throw new Error(`The file of model ${id} is missing from storage (${rows[0].fileKey})`);
   return { fileName: rows[0].fileName, text };
-}
-
-/**
- * Where a JSON text first breaks the grammar (RFC 8259), as line and column (1-based) with a
- * short reason. JSON.parse on Node 20 does not always say where; this walk does.
- */
-export function locateJsonError(text: string): { line: number; column: number; message: string } {
-  let i = 0;
-  const fail = (message: string): never => {
-    throw Object.assign(new Error(message), { offset: i });
-  };
-  const ws = () => {
-    while (i < text.length && " \t\n\r".includes(text[i]!)) i++;
-  };
-  const literal = (word: string) => {
-    if (text.startsWith(word, i)) i += word.length;
-    else fail(`unexpected ${describe(text[i])}`);
-  };
-  const string = () => {
-    i++; // opening quote
-    while (i < text.length) {
-      const c = text[i]!;
-      if (c === '"') return void i++;
-      if (c === "\\") {
-        const e = text[i + 1];
-        if (e === "u") {
-          if (!/^[0-9a-fA-F]{4}$/.test(text.slice(i + 2, i + 6))) fail("bad \\u escape in a string");
-          i += 6;
-        } else if (e !== undefined && '"\\/bfnrt'.includes(e)) i += 2;
-        else fail("bad escape in a string");
-      } else if (c.charCodeAt(0) < 0x20) fail("line break or control character inside a string");
-      else i++;
-    }
-    fail("a string is not closed");
-  };
-  const number = () => {
-    const m = /^-?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?/.exec(text.slice(i, i + 400));
-    if (!m) fail(`unexpected ${describe(text[i])}`);
-    i += m![0].length;
-  };
-  const value = (): void => {
-    ws();
-    const c = text[i];
-    if (c === undefined) fail("the file ends where a value was expected");
-    if (c === "{") {
-      i++;
-      ws();
-      if (text[i] === "}") return void i++;
-      for (;;) {
-        ws();
-        if (text[i] !== '"') fail(`expected a property name in double quotes, found ${describe(text[i])}`);
-        string();
-        ws();
-        if (text[i] !== ":") fail(`expected ':' after a property name, found ${describe(text[i])}`);
-        i++;
-        value();
-        ws();
-        if (text[i] === ",") {
-          i++;
-          continue;
-        }
-        if (text[i] === "}") return void i++;
-        fail(`expected ',' or '}' in an object, found ${describe(text[i])}`);
-      }
-    }
-    if (c === "[") {
-      i++;
-      ws();
-      if (text[i] === "]") return void i++;
-      for (;;) {
-        value();
-        ws();
-        if (text[i] === ",") {
-          i++;
-          continue;
-        }
-        if (text[i] === "]") return void i++;
-        fail(`expected ',' or ']' in a list, found ${describe(text[i])}`);
-      }
-    }
-    if (c === '"') return string();
-    if (c === "t") return literal("true");
-    if (c === "f") return literal("false");
-    if (c === "n") return literal("null");
-    return number();
-  };
-  let message = "";
-  try {
-    value();
-    ws();
-    if (i < text.length) fail(`unexpected ${describe(text[i])} after the end of the document`);
-  } catch (e) {
-    message = (e as Error).message;
-  }
-  const before = text.slice(0, i);
-  const line = before.split("\n").length;
-  const column = i - (before.lastIndexOf("\n") + 1) + 1;
-  return { line, column, message };
-}
-
-function describe(c: string | undefined): string {
-  if (c === undefined) return "the end of the file";
-  if (c === "\n" || c === "\r") return "a line break";
-  return `'${c}'`;
 }
 
 /** The audit record of an upload; the page and the API write the same one. */

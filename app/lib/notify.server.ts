@@ -59,6 +59,7 @@ const OUTCOME_WORDS: Record<string, string> = {
   "not-converged": "the solver stopped before converging",
   infeasible: "no design meets every limit",
   failed: "the solver failed",
+  analysed: "the analysis is done",
 };
 
 /** A mail with a greeting, paragraphs, a key/value list and the job link; text and HTML agree. */

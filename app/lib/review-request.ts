@@ -14,6 +14,7 @@ export function designWorthReview(result: ReviewableFacts): boolean {
   // explicit "limits not met" is still honoured here
   if (result.status === "optimal") return result.verification?.allLimitsMet !== false;
   if (result.status === "not-converged") return result.verification?.allLimitsMet === true;
+  if (result.status === "analysed") return true; // a checker may review an analysis too
   return false;
 }
 

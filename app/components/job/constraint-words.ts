@@ -36,6 +36,7 @@ export function describeConstraint(id: string): string {
 /** What the solver outcome means for the engineer, when the result carries no hint. */
 export const OUTCOME_WORDS: Record<string, { title: string; tryThis: string }> = {
   optimal: { title: "Converged to an optimum", tryThis: "" },
+  analysed: { title: "Analysed as given", tryThis: "" },
   "not-converged": {
     title: "Stopped before converging",
     tryThis: "Raise the iteration cap, loosen the tolerance, or start from areas closer to the expected design.",

@@ -15,6 +15,7 @@ const OUTCOME_STYLE: Record<string, string> = {
   "not-converged": "bg-warn-wash text-warn",
   infeasible: "bg-bad-wash text-bad",
   failed: "bg-bad-wash text-bad",
+  analysed: "bg-info-wash text-info",
 };
 
 export function StatusBadge({ status }: { status: string }) {

@@ -1,5 +1,5 @@
 // The result JSON (truss-format.md, "Result"), plus the fields Strutwise adds.
-export type SolverStatus = "optimal" | "not-converged" | "infeasible" | "failed";
+export type SolverStatus = "optimal" | "not-converged" | "infeasible" | "failed" | "analysed"; // analysed: an analysis-only run
 
 export interface Units {
   length: string;

@@ -46,6 +46,7 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/models": { GET: ALL, POST: PRODUCERS },
   "/api/models/:id": { GET: ALL },
   "/api/models/:id/file": { GET: ALL },
+  "/api/models/:id/versions": { GET: ALL, POST: PRODUCERS },
   "/api/jobs": { GET: ALL, POST: PRODUCERS },
   "/api/jobs/:id": { GET: ALL },
   "/api/jobs/:id/cancel": { POST: PRODUCERS }, // and then only the submitter, unless admin

@@ -8,6 +8,7 @@ import { jobOptionsSchema, type JobOptions } from "~/engine/design/options";
 import type { HistoryEntry, JobSummary, TrussResult } from "~/engine/design/result-types";
 import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
+import { getModelVersion } from "~/lib/models/versions.server";
 import { getText } from "~/lib/storage.server";
 import { fromStatuses, isTerminal } from "./transitions";
 
@@ -27,6 +28,10 @@ export interface JobView {
   projectCode: string | null;
   modelId: string;
   modelName: string | null;
+  /** the model version the job runs (null only for jobs older than versions) */
+  modelVersion: number | null;
+  /** design: an optimization; analysis: the model as given */
+  kind: "design" | "analysis";
   submittedBy: string | null;
   status: JobStatus;
   outcome: JobRow["outcome"];
@@ -61,6 +66,8 @@ export function toJobView(r: JobRow, extra: { modelName?: string | null; project
     projectCode: extra.projectCode ?? null,
     modelId: r.modelId,
     modelName: extra.modelName ?? null,
+    modelVersion: r.modelVersion,
+    kind: r.kind,
     submittedBy: r.submittedBy,
     status: r.status,
     outcome: r.outcome,
@@ -87,9 +94,12 @@ export function toJobView(r: JobRow, extra: { modelName?: string | null; project
   };
 }
 
-/** Queue an optimization of a stored model. Throws a 400/404 Response for a bad request. */
+/**
+ * Queue a run of a stored model's version (the latest without one): an optimization, or with
+ * kind "analysis" an analysis of the model as given. Throws a 400/404 Response for a bad request.
+ */
 export async function enqueueJob(
-  input: { modelId: string; options?: unknown; user: Actor | null },
+  input: { modelId: string; version?: number | null; kind?: "design" | "analysis"; options?: unknown; user: Actor | null },
   database: Db = defaultDb(),
 ): Promise<JobView> {
   const parsed = jobOptionsSchema.safeParse(input.options ?? {});
@@ -100,16 +110,23 @@ export async function enqueueJob(
       parsed.error.issues.map((i) => ({ path: ["options", ...i.path].map(String).join("."), message: i.message })),
     );
   }
+  const kind = input.kind ?? "design";
   const [model] = await database
-    .select({ id: models.id, projectId: models.projectId, name: models.name, hasDesign: models.hasDesign })
+    .select({ id: models.id, projectId: models.projectId })
     .from(models)
     .where(eq(models.id, input.modelId))
     .limit(1);
   if (!model) throw jsonError(404, `Model ${input.modelId} not found`, [{ path: "modelId", message: "no such model" }]);
-  if (!model.hasDesign) {
-    throw jsonError(400, `Model "${model.name}" has no design block, so there is nothing to optimize; add one (truss-format.md) and upload it again`, [
-      { path: "modelId", message: "the model has no design block" },
-    ]);
+  const version = await getModelVersion(model.id, input.version ?? null, database);
+  if (!version) {
+    throw jsonError(404, `Model ${input.modelId} has no version ${input.version}`, [{ path: "version", message: "no such version of this model" }]);
+  }
+  if (kind === "design" && !version.hasDesign) {
+    throw jsonError(
+      400,
+      `Version ${version.version} of model "${version.name}" has no design block, so there is nothing to optimize; add one in the editor (docs/model-format.md), or queue an analysis`,
+      [{ path: "modelId", message: "the model has no design block" }],
+    );
   }
   const [row] = await database
     .insert(jobs)
@@ -117,6 +134,8 @@ export async function enqueueJob(
       id: randomUUID(),
       projectId: model.projectId,
       modelId: model.id,
+      modelVersion: version.version,
+      kind,
       submittedBy: input.user?.id ?? null,
       status: "queued",
       options: parsed.data,
@@ -124,7 +143,7 @@ export async function enqueueJob(
     })
     .returning();
   clearJobListCache();
-  return toJobView(row!, { modelName: model.name });
+  return toJobView(row!, { modelName: version.name });
 }
 
 async function selectJobs(where: SQL | undefined, database: Db, limit?: number) {

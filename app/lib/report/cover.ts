@@ -11,6 +11,7 @@ const STATUS_WORDS: Record<string, string> = {
   "not-converged": "not converged: the solver stopped before meeting its tolerances",
   infeasible: "infeasible: no design within the bounds meets every limit",
   failed: "failed: the solver could not complete",
+  analysed: "analysed: the model as given (its own areas), no optimization",
 };
 
 export function statusWords(status: string): string {

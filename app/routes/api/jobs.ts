@@ -21,6 +21,8 @@ const listQuerySchema = z.object({
 
 const submitSchema = z.object({
   modelId: z.string({ error: "modelId is required" }).min(1, "modelId is required"),
+  version: z.number({ error: "version must be a whole number from 1" }).int("version must be a whole number from 1").min(1, "version must be a whole number from 1").optional(),
+  kind: z.enum(["design", "analysis"], { error: 'kind must be "design" or "analysis"' }).optional(),
   options: z.record(z.string(), z.unknown()).optional(),
 });
 
@@ -38,7 +40,8 @@ export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "create:job");
   const body = submitSchema.safeParse(await readJson(request));
   if (!body.success) return jsonError(400, "The job request is not valid", zodDetails(body.error.issues));
-  const job = await enqueueJob({ modelId: body.data.modelId, options: body.data.options, user });
-  await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, options: job.options } });
+  const { modelId, version, kind, options } = body.data;
+  const job = await enqueueJob({ modelId, version, kind, options, user });
+  await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, version: job.modelVersion, kind: job.kind, options: job.options } });
   return Response.json({ id: job.id, status: job.status }, { status: 202, headers: { Location: `/api/jobs/${job.id}` } });
 }

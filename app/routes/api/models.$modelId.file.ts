@@ -1,19 +1,28 @@
-// GET /api/models/:modelId/file: the uploaded JSON exactly as it was sent.
+// GET /api/models/:modelId/file[?version=N]: one version's JSON exactly as it was stored
+// (the latest without a version).
 import { requirePermission } from "~/lib/auth/authorize.server";
-import { notFound } from "~/lib/http.server";
-import { getModelFile } from "~/lib/models.server";
+import { badRequest, notFound } from "~/lib/http.server";
+import { getModelVersionFile } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.file";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requirePermission(request, "read:model");
-  const file = await getModelFile(params.modelId);
-  if (!file) notFound(`Model ${params.modelId}`);
-  const safeName = file.fileName.replace(/[^\w.\- ]+/g, "_");
+  const raw = new URL(request.url).searchParams.get("version");
+  let version: number | null = null;
+  if (raw !== null && raw !== "") {
+    version = Number(raw);
+    if (!Number.isInteger(version) || version < 1) badRequest("version must be a whole number from 1", [{ path: "version", message: `got "${raw}"` }]);
+  }
+  const file = await getModelVersionFile(params.modelId, version);
+  if (!file) notFound(version === null ? `Model ${params.modelId}` : `Version ${version} of model ${params.modelId}`);
+  const base = file.fileName.replace(/[^\w.\- ]+/g, "_").replace(/\.truss\.json$|\.json$/i, "");
   return new Response(file.text, {
     headers: {
       "Content-Type": "application/json; charset=utf-8",
-      "Content-Disposition": `attachment; filename="${safeName}"`,
-      "Cache-Control": "private, max-age=3600", // a stored model never changes
+      "Content-Disposition": `attachment; filename="${base}.v${file.version}.truss.json"`,
+      "X-Model-Version": String(file.version),
+      // a version never changes; the latest may
+      "Cache-Control": version === null ? "private, no-cache" : "private, max-age=3600",
     },
   });
 }

@@ -1,12 +1,19 @@
-// GET /api/models/:modelId: the model's metadata and the engine's summary of it.
+// GET /api/models/:modelId: the model's metadata and the engine's summary of it, with the
+// latest version number and every version.
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { notFound } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
+import { listModelVersions } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   await requirePermission(request, "read:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
-  return Response.json(model);
+  const versions = await listModelVersions(model.id);
+  return Response.json({
+    ...model,
+    version: versions.at(-1)?.version ?? null,
+    versions: versions.map((v) => ({ version: v.version, sha256: v.sha256, createdAt: v.createdAt, createdBy: v.createdBy, note: v.note, name: v.name })),
+  });
 }
