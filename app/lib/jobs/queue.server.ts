@@ -112,19 +112,22 @@ export async function enqueueJob(
   }
   const kind = input.kind ?? "design";
   const [model] = await database
-    .select({ id: models.id, projectId: models.projectId })
+    .select({ id: models.id, projectId: models.projectId, name: models.name, hasDesign: models.hasDesign })
     .from(models)
     .where(eq(models.id, input.modelId))
     .limit(1);
   if (!model) throw jsonError(404, `Model ${input.modelId} not found`, [{ path: "modelId", message: "no such model" }]);
-  const version = await getModelVersion(model.id, input.version ?? null, database);
+  // a model row without version rows (put in place by hand, never uploaded) runs its own file
+  const version =
+    (await getModelVersion(model.id, input.version ?? null, database)) ??
+    (input.version == null ? { version: null, name: model.name, hasDesign: model.hasDesign } : null);
   if (!version) {
     throw jsonError(404, `Model ${input.modelId} has no version ${input.version}`, [{ path: "version", message: "no such version of this model" }]);
   }
   if (kind === "design" && !version.hasDesign) {
     throw jsonError(
       400,
-      `Version ${version.version} of model "${version.name}" has no design block, so there is nothing to optimize; add one in the editor (docs/model-format.md), or queue an analysis`,
+      `${version.version === null ? "Model" : `Version ${version.version} of model`} "${version.name}" has no design block, so there is nothing to optimize; add one in the editor (docs/model-format.md), or queue an analysis`,
       [{ path: "modelId", message: "the model has no design block" }],
     );
   }
