@@ -90,7 +90,7 @@ describe("model versions", () => {
     ]);
 
     // an invalid model: 400 naming the member, nothing stored
-    const broken = { ...v2, members: [{ id: "AC", start: "A", end: "Q", material: "steel", area: 1000 }, v2.members[1]] };
+    const broken = { ...v2, members: [{ id: "AC", start: "A", end: "Q", material: "steel", area: 1000 }, (v1.members as unknown[])[1]] };
     const bad = await addVersion(id, JSON.stringify(broken), "typo");
     expect(bad.status).toBe(400);
     expect(JSON.stringify(await bad.json())).toMatch(/members\[0\]\.end/);

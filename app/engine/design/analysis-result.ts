@@ -23,7 +23,16 @@ export function analyseModel(model: TrussModel): AnalysisResult {
   const objectiveKind = model.design?.objective ?? "mass";
   const objective = objectiveKind === "mass" ? a.mass : a.compliance.reduce((x, y) => x + y, 0);
 
+  const sections = new Map((model.sections ?? []).map((sec) => [sec.id, sec]));
+  // I of a member: its catalogue section's, else sectionRatio * A^2; neither: no buckling check
+  const secondMoment = (e: number): number | null => {
+    const sec = model.members[e].section === undefined ? undefined : sections.get(model.members[e].section!);
+    if (sec) return sec.I;
+    return buckling?.sectionRatio === undefined ? null : buckling.sectionRatio * a.areas[e] * a.areas[e];
+  };
   const members: ResultMember[] = model.members.map((m, e) => {
+    const I = buckling ? secondMoment(e) : null;
+    const k = m.bucklingFactor ?? buckling?.effectiveLengthFactor ?? 1;
     const force: Record<string, number> = {};
     const stress: Record<string, number> = {};
     let utilization = 0;
@@ -35,9 +44,9 @@ export function analyseModel(model: TrussModel): AnalysisResult {
       const allow = sigma >= 0 ? s.allowTension[e] : s.allowCompression[e];
       const r = Number.isFinite(allow) ? Math.abs(sigma) / allow : 0;
       if (r > utilization) [utilization, governing] = [r, `stress:${lc}`];
-      if (buckling && sigma < 0) {
-        const kL = buckling.effectiveLengthFactor * a.lengths[e];
-        const sigmaE = (Math.PI * Math.PI * s.E[e] * buckling.sectionRatio * a.areas[e]) / (kL * kL);
+      if (I !== null && sigma < 0) {
+        const kL = k * a.lengths[e];
+        const sigmaE = (Math.PI * Math.PI * s.E[e] * I) / (kL * kL * a.areas[e]);
         if (-sigma / sigmaE > utilization) [utilization, governing] = [-sigma / sigmaE, `buckling:${lc}`];
       }
     });
