@@ -1,7 +1,7 @@
 // One section catalogue: who uploaded it, its sections, and (admins and engineers) retiring it.
 import { data, Form, Link, useNavigation } from "react-router";
 import { SectionsTable } from "~/components/catalogues/SectionsTable";
-import { fmtDateTime, shortHash } from "~/components/ui/format";
+import { formatDateTime, shortHash } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { ErrorNote, Stat } from "~/components/ui/States";
 import { requirePermission } from "~/lib/auth/authorize.server";
@@ -49,7 +49,7 @@ export default function CataloguePage({ loaderData, actionData }: Route.Componen
         {c.description && <p className="mt-2 max-w-3xl text-ink-soft">{c.description}</p>}
         {c.retiredAt && (
           <p className="mt-2 text-sm text-warn" data-testid="retired-note">
-            Retired {fmtDateTime(c.retiredAt)}
+            Retired {formatDateTime(c.retiredAt)}
             {c.retiredBy && <> by {c.retiredBy}</>}
             {c.retireReason && <>: {c.retireReason}</>}. It is no longer offered to new models; models that took its sections keep their copy.
           </p>
@@ -60,7 +60,7 @@ export default function CataloguePage({ loaderData, actionData }: Route.Componen
         <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-4">
           <Stat label="sections" value={c.sectionCount} />
           <Stat label="families" value={c.families.join(", ")} wrap />
-          <Stat label="uploaded" value={c.builtIn ? "generated" : fmtDateTime(c.createdAt)} hint={c.createdBy ?? undefined} />
+          <Stat label="uploaded" value={c.builtIn ? "generated" : formatDateTime(c.createdAt)} hint={c.createdBy ?? undefined} />
           {c.fileName && <Stat label="file" value={c.fileName} hint={c.sha256 ? `SHA-256 ${c.sha256}` : undefined} />}
         </dl>
         {c.sha256 && <p className="mt-3 font-mono text-2xs text-ink-muted">SHA-256 {shortHash(c.sha256, 64)}</p>}

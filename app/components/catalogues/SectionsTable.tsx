@@ -4,7 +4,7 @@ import { createColumnHelper } from "@tanstack/react-table";
 import { useMemo } from "react";
 import { DataTable } from "~/components/tables/DataTable";
 import { downloadText, fileSlug, toCsv } from "~/components/tables/csv";
-import { fmtNum } from "~/components/ui/format";
+import { formatNumber } from "~/lib/format";
 import type { CatalogueSection } from "~/lib/catalogues/types";
 
 export function SectionsTable({ name, sections, dimensionNames }: { name: string; sections: CatalogueSection[]; dimensionNames: string[] }) {
@@ -14,11 +14,11 @@ export function SectionsTable({ name, sections, dimensionNames }: { name: string
     () => [
       col.accessor("id", { header: "section" }),
       col.accessor("family", { header: "family" }),
-      col.accessor("area", { header: "area (mm²)", cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor("I", { header: "I (mm⁴)", cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      col.accessor((s) => Math.sqrt(s.I / s.area), { id: "r", header: "r = √(I/A) (mm)", cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } }),
-      ...dimensionNames.map((d) => col.accessor((s) => s.dimensions?.[d], { id: `dim-${d}`, header: `${d} (mm)`, cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } })),
-      ...(hasMass ? [col.accessor((s) => s.massPerLength, { id: "mass", header: "mass (kg/m)", cell: (c) => fmtNum(c.getValue()), meta: { numeric: true } })] : []),
+      col.accessor("area", { header: "area (mm²)", cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor("I", { header: "I (mm⁴)", cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor((s) => Math.sqrt(s.I / s.area), { id: "r", header: "r = √(I/A) (mm)", cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      ...dimensionNames.map((d) => col.accessor((s) => s.dimensions?.[d], { id: `dim-${d}`, header: `${d} (mm)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } })),
+      ...(hasMass ? [col.accessor((s) => s.massPerLength, { id: "mass", header: "mass (kg/m)", cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } })] : []),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [dimensionNames, hasMass],
