@@ -26,6 +26,8 @@ export default [
     route("health", "routes/api/health.ts"),
     route("auth/*", "routes/api/auth.$.ts"),
     route("projects", "routes/api/projects.ts"),
+    route("projects/:projectId/members", "routes/api/projects.$projectId.members.ts"),
+    route("projects/:projectId/members/:userId", "routes/api/projects.$projectId.members.$userId.ts"),
     route("jobs/:jobId/reviews", "routes/api/jobs.$jobId.reviews.ts"),
     route("jobs/:jobId/report", "routes/api/jobs.$jobId.report.ts"),
     route("models", "routes/api/models.ts"),

@@ -4,11 +4,11 @@
 // second start adds nothing twice.
 //   npm run seed            migrate and seed the database of the current configuration
 //   npm run seed -- --json  the same, printing the result as one JSON line (used by the tests)
-import { eq } from "drizzle-orm";
+import { eq, inArray } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { pathToFileURL } from "node:url";
 import type { Db } from "~/db/client.server";
-import { projects } from "~/db/schema";
+import { projectMembers, projects } from "~/db/schema";
 import { seedDemoAccounts } from "~/lib/auth/seed.server";
 import { seedDemoData } from "~/lib/demo-seed.server";
 
@@ -65,6 +65,16 @@ export async function seed(db: Db): Promise<SeedReport> {
         .onConflictDoNothing({ target: projects.code });
     }
     report.projects.push({ code: p.code, name: p.name, created: !existing });
+  }
+
+  // every demo account belongs to every demo project, so each role sees the scenario (issue 14)
+  const demoProjectRows = await db.select({ id: projects.id }).from(projects).where(inArray(projects.code, DEMO_PROJECTS.map((p) => p.code)));
+  for (const a of report.accounts) {
+    const userId = await userIdByEmail(db, a.email);
+    if (!userId) continue;
+    for (const p of demoProjectRows) {
+      await db.insert(projectMembers).values({ projectId: p.id, userId, addedBy: ownerId }).onConflictDoNothing();
+    }
   }
 
   // the demo models of demo/models/, one queued job each (the queue part's module)

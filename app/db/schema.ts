@@ -152,3 +152,4 @@ export const invitations = sqliteTable("invitations", {
 });
 export * from "./tables/catalogues";
 export * from "./tables/model-versions";
+export * from "./tables/project-members";

@@ -8,6 +8,7 @@ import { models, modelVersions, projects } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import type { SessionUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
+import { memberScope, type Caller } from "~/lib/project-scope.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { getText, putObject, s3 } from "~/lib/storage.server";
 import { modelFileKey } from "~/lib/jobs/keys";
@@ -120,11 +121,12 @@ export async function getModel(id: string, database: Db = defaultDb()): Promise<
   return rows[0] ? toModelView(rows[0]) : null;
 }
 
-export async function listModels(filter: { projectId?: string } = {}, database: Db = defaultDb()): Promise<ModelView[]> {
+/** Models newest first, of one project or all; `visibleTo` keeps the caller's projects only. */
+export async function listModels(filter: { projectId?: string; visibleTo?: Caller } = {}, database: Db = defaultDb()): Promise<ModelView[]> {
   const rows = await database
     .select()
     .from(models)
-    .where(filter.projectId ? eq(models.projectId, filter.projectId) : undefined)
+    .where(and(filter.projectId ? eq(models.projectId, filter.projectId) : undefined, filter.visibleTo && memberScope(filter.visibleTo, models.projectId)))
     .orderBy(desc(models.createdAt), desc(models.id));
   return rows.map(toModelView);
 }

@@ -9,6 +9,7 @@ import { config } from "~/lib/config.server";
 import { loadJobWithModel } from "~/lib/job-with-model.server";
 import { sendMail, type Mail } from "~/lib/mail.server";
 import { formatDateTime, formatNumber } from "~/lib/format";
+import { memberOfJobProject } from "~/lib/project-scope.server";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 
 interface JobFacts {
@@ -187,7 +188,8 @@ export async function notifyReviewWaiting(jobId: string): Promise<void> {
     const checkers = await db()
       .select({ email: user.email, name: user.name, banned: user.banned })
       .from(user)
-      .where(j.submitter ? and(eq(user.role, "checker"), ne(user.id, j.submitter.id)) : eq(user.role, "checker"));
+      // only checkers of the job's project hear of it (issue 14: nothing outside one's projects)
+      .where(and(eq(user.role, "checker"), memberOfJobProject(user.id, jobId), j.submitter ? ne(user.id, j.submitter.id) : undefined));
     const to = checkers.filter((c) => !c.banned).map((c) => c.email);
     if (to.length === 0) return console.warn(`[notify] no checker to tell about job ${jobId}`);
     const by = j.submitter ? j.submitter.name || j.submitter.email : "an engineer";

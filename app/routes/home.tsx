@@ -7,7 +7,7 @@ import { EmptyState } from "~/components/ui/States";
 import { db } from "~/db/client.server";
 import { reviews } from "~/db/schema";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
-import { getUser } from "~/lib/auth/authorize.server";
+import { getUser } from "~/lib/access.server";
 import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { listProjects } from "~/lib/auth/projects.server";
 import { listJobs } from "~/lib/jobs/queue.server";
@@ -26,9 +26,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const reviewer = can(user.role, "review:job");
   const engineer = can(user.role, "create:job");
   const [succeeded, recent, projects] = await Promise.all([
-    reviewer ? listJobs({ status: "succeeded", limit: 100 }) : Promise.resolve({ jobs: [], nextCursor: null }),
-    listJobs({ submittedBy: engineer && user.role !== "admin" ? user.id : undefined, limit: 8 }),
-    listProjects(),
+    reviewer ? listJobs({ status: "succeeded", limit: 100, visibleTo: user }) : Promise.resolve({ jobs: [], nextCursor: null }),
+    listJobs({ submittedBy: engineer && user.role !== "admin" ? user.id : undefined, limit: 8, visibleTo: user }),
+    listProjects({ visibleTo: user }),
   ]);
   // an infeasible run has no design to sign off (review-request.ts), so it waits for nobody
   let waiting = succeeded.jobs.filter((j) => j.submittedBy !== user.id && !OUTCOMES_WITHOUT_REVIEW.includes(j.outcome ?? ""));

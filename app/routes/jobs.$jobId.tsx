@@ -19,7 +19,7 @@ import { TrussViewer } from "~/components/viewer/TrussViewer";
 import { db } from "~/db/client.server";
 import { models, projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
-import { assertPermission, requirePermission, requireUser } from "~/lib/auth/authorize.server";
+import { assertPermission, requireJob } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
 import { createReview, listReviews } from "~/lib/auth/reviews.server";
 import type { TrussResult } from "~/engine/design/result-types";
@@ -61,7 +61,7 @@ function headOf(r: TrussResult) {
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requirePermission(request, "read:job");
+  const { user } = await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
 
@@ -118,7 +118,7 @@ async function errorOf(e: unknown): Promise<{ status: number; error: string; det
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireUser(request);
+  const { user } = await requireJob(request, params.jobId, "read:job");
   const form = await request.formData();
   const intent = form.get("intent");
   if (intent === "cancel") {

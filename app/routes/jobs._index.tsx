@@ -4,7 +4,7 @@ import { JobsList } from "~/components/job/JobsList";
 import { RouteError } from "~/components/ui/RouteError";
 import { EmptyState } from "~/components/ui/States";
 import { JOB_STATUSES, type JobStatus } from "~/db/schema";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { assertProjectVisible, requirePermission } from "~/lib/access.server";
 import { listProjects } from "~/lib/auth/projects.server";
 import { listJobs } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs._index";
@@ -18,15 +18,16 @@ const PAGE = 25;
 // Filters and the page cursor live in the address (server-side), so a filtered view can be
 // bookmarked and shared; sorting within the page happens in the browser.
 export async function loader({ request }: Route.LoaderArgs) {
-  await requirePermission(request, "read:job");
+  const user = await requirePermission(request, "read:job");
   const sp = new URL(request.url).searchParams;
   const status = sp.get("status") ?? "";
   const projectId = sp.get("projectId") ?? "";
   const cursor = sp.get("cursor") ?? "";
   const statusFilter = status === "active" ? (["queued", "running"] as JobStatus[]) : (JOB_STATUSES as readonly string[]).includes(status) ? (status as JobStatus) : undefined;
+  if (projectId) await assertProjectVisible(user, projectId);
   const [page, projects] = await Promise.all([
-    listJobs({ status: statusFilter, projectId: projectId || undefined, cursor: cursor || undefined, limit: PAGE }),
-    listProjects(),
+    listJobs({ status: statusFilter, projectId: projectId || undefined, cursor: cursor || undefined, limit: PAGE, visibleTo: user }),
+    listProjects({ visibleTo: user }),
   ]);
   const api = new URLSearchParams();
   // the live poll leaves the status filter out: a running row must still be found once it

@@ -12,7 +12,7 @@ import type { ModelLike } from "~/components/viewer/truss-view";
 import { db } from "~/db/client.server";
 import { projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireModel } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
 import { notFound } from "~/lib/http.server";
 import { enqueueJob, listJobs } from "~/lib/jobs/queue.server";
@@ -50,7 +50,7 @@ interface SummaryLike {
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requirePermission(request, "read:model");
+  const { user } = await requireModel(request, params.modelId, "read:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
   const [[project], [uploader], file, jobs] = await Promise.all([
@@ -122,7 +122,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requirePermission(request, "create:job");
+  const { user } = await requireModel(request, params.modelId, "create:job");
   const form = await request.formData();
   const parsed = parseQueueForm((n) => form.get(n));
   if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors }, { status: 400 });

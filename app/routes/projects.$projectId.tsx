@@ -10,7 +10,7 @@ import { ModelUploadWithSections } from "~/components/catalogues/ModelUploadWith
 import { listCatalogues, sectionsFromUploadForm } from "~/lib/catalogues/catalogues.server";
 import { db } from "~/db/client.server";
 import { projects, user as users } from "~/db/schema";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireProject } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
 import { config } from "~/lib/config.server";
 import { notFound } from "~/lib/http.server";
@@ -23,7 +23,7 @@ export function meta({ data }: Route.MetaArgs) {
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requirePermission(request, "read:project");
+  const { user } = await requireProject(request, params.projectId, "read:project");
   const [row] = await db()
     .select({ project: projects, createdByName: users.name })
     .from(projects)
@@ -47,7 +47,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const FRAMING_ALLOWANCE = 64 * 1024;
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requirePermission(request, "create:model");
+  const { user } = await requireProject(request, params.projectId, "create:model");
   const limit = config().UPLOAD_LIMIT_BYTES;
   const declared = Number(request.headers.get("content-length") ?? "0");
   if (declared > limit + FRAMING_ALLOWANCE) {

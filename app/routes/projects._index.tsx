@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Form, Link, data, useActionData, useNavigation, useSearchParams } from "react-router";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requirePermission } from "~/lib/access.server";
 import { fieldErrors, formObject, projectSchema, type FieldErrors } from "~/lib/auth/forms";
 import { can } from "~/lib/auth/permissions";
 import { createProject, listProjects } from "~/lib/auth/projects.server";
@@ -15,7 +15,7 @@ export function meta() {
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:project");
   const q = new URL(request.url).searchParams.get("q") ?? "";
-  const rows = await listProjects({ q });
+  const rows = await listProjects({ q, visibleTo: user });
   return {
     q,
     canCreate: can(user.role, "create:project"),

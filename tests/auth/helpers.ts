@@ -20,7 +20,8 @@ export async function makeUser(email: string, role: string, name = email.split("
   const { user } = await import("~/db/schema");
   const res = await callAuthEndpoint(new Request("http://localhost/"), "/sign-up/email", { email, password: PASSWORD, name });
   if (res.status !== 200) throw new Error(`sign-up of ${email} failed: ${res.status} ${JSON.stringify(res.data)}`);
-  await db().update(user).set({ role }).where(eq(user.email, email));
+  // the address is taken as proven here; tests of the verification link itself sign up on their own
+  await db().update(user).set({ role, emailVerified: true }).where(eq(user.email, email));
   const row = await db().query.user.findFirst({ where: eq(user.email, email) });
   return row!;
 }
@@ -40,22 +41,32 @@ export function randomIp(): string {
   return `10.${b()}.${b()}.${b()}`;
 }
 
+/**
+ * A request to the app. With a cookie and a state-changing method it carries the app's own
+ * Origin, as a browser on our pages sends it (the same-origin rule is tested on its own).
+ */
 export function req(path: string, init: RequestInit & { cookie?: string; key?: string } = {}): Request {
   const headers = new Headers(init.headers);
   if (init.cookie) headers.set("cookie", init.cookie);
+  if (init.cookie && init.method && !["GET", "HEAD"].includes(init.method.toUpperCase()) && !headers.has("origin")) headers.set("origin", "http://localhost:4310");
   if (init.key) headers.set("authorization", `Bearer ${init.key}`);
   return new Request(`http://localhost:4310${path}`, { ...init, headers });
 }
 
 /** A project, a model and a job row straight in the database (the queue is not needed here). */
-export async function makeJob(opts: { submittedBy: string; status?: "queued" | "running" | "succeeded" | "failed" | "cancelled"; code?: string; outcome?: "optimal" | "not-converged" | "infeasible" }) {
+export async function makeJob(opts: { submittedBy: string; status?: "queued" | "running" | "succeeded" | "failed" | "cancelled"; code?: string; outcome?: "optimal" | "not-converged" | "infeasible"; members?: string[] }) {
   const { db } = await import("~/db/client.server");
-  const { projects, models, jobs } = await import("~/db/schema");
+  const { projects, models, jobs, projectMembers } = await import("~/db/schema");
   const { randomUUID } = await import("node:crypto");
   const projectId = randomUUID();
   const modelId = randomUUID();
   const jobId = randomUUID();
   await db().insert(projects).values({ id: projectId, code: opts.code ?? `T-${projectId.slice(0, 6)}`, name: "Marsh Lane footbridge", createdBy: opts.submittedBy });
+  // members: the submitter and the accounts given; without a list, every account so far (the
+  // role tests act across roles inside one project; membership is tested with explicit lists)
+  const { user } = await import("~/db/schema");
+  const memberIds = opts.members ?? (await db().select({ id: user.id }).from(user)).map((u) => u.id);
+  for (const m of new Set([opts.submittedBy, ...memberIds])) await db().insert(projectMembers).values({ projectId, userId: m }).onConflictDoNothing();
   await db().insert(models).values({
     id: modelId,
     projectId,

@@ -139,8 +139,15 @@ describe("projects", () => {
     expect((await dup.json()).error).toContain("TK-3001");
   });
 
-  it("GET /api/projects lists { id, code, name }; the page filters by text", async () => {
+  it("GET /api/projects lists { id, code, name } of the caller's projects; the page filters by text", async () => {
     const { loader } = await import("~/routes/api/projects");
+    const none = (await loader({ request: req("/api/projects", { cookie: cookies.viewer }), params: {}, context: {} } as never)) as Response;
+    expect((await none.json()).projects).toEqual([]); // not a member yet
+    const mine = (await loader({ request: req("/api/projects", { cookie: cookies.engineer }), params: {}, context: {} } as never)) as Response;
+    const [p] = (await mine.json()).projects;
+    const members = await import("~/routes/api/projects.$projectId.members");
+    const added = (await members.action({ request: req(`/api/projects/${p.id}/members`, { method: "POST", cookie: cookies.engineer, body: JSON.stringify({ email: "viewer.pages@tarrowkeel-test.example" }) }), params: { projectId: p.id }, context: {} } as never)) as Response;
+    expect(added.status).toBe(201);
     const res = (await loader({ request: req("/api/projects", { cookie: cookies.viewer }), params: {}, context: {} } as never)) as Response;
     const body = await res.json();
     expect(body.projects).toEqual([expect.objectContaining({ id: expect.any(String), code: "TK-3001", name: "Ellerby Quay cold store" })]);
@@ -174,6 +181,7 @@ describe("admin: invitations and role changes", () => {
     const { callAuthEndpoint } = await import("~/lib/auth/auth.server");
     const signUp = await callAuthEndpoint(new Request("http://localhost/"), "/sign-up/email", { email: "new.engineer@tarrowkeel-test.example", password: PASSWORD, name: "New Engineer" });
     expect(signUp.status).toBe(200);
+    await ctx.db.update(user).set({ emailVerified: true }).where(eq(user.email, "new.engineer@tarrowkeel-test.example"));
     const u = (await ctx.db.query.user.findFirst({ where: eq(user.email, "new.engineer@tarrowkeel-test.example") }))!;
     expect(u.role).toBe("engineer");
     const cookie = await sessionCookie(u.email);

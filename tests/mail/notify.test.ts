@@ -35,6 +35,8 @@ beforeAll(async () => {
   await rows.insertJob({ jobId: "job-bad-002", submittedBy: "u-eng", status: "failed", error: "The structure is a mechanism: node D can move freely in y" });
   await rows.insertJob({ jobId: "job-self-003", submittedBy: "u-chk-self" });
   await rows.insertJob({ jobId: "job-infeas-004", submittedBy: "u-eng", outcome: "infeasible" });
+  // a project with only one of the three checkers in it
+  await rows.insertJob({ jobId: "job-members-005", submittedBy: "u-eng", members: ["u-chk2", "u-view"] });
 }, 60_000);
 afterAll(async () => svc?.stop());
 beforeEach(() => svc.mail.clear());
@@ -72,6 +74,12 @@ describe("notifyReviewWaiting", () => {
       expect(m.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
       expect(m.text).toContain("Ines Okafor");
     }
+  });
+
+  it("writes only to checkers who are members of the job's project", async () => {
+    await notify.notifyReviewWaiting("job-members-005");
+    const to = (await inbox()).flatMap((m) => m.to).sort();
+    expect(to).toEqual(["priya.v@brightspan.example"]);
   });
 
   it("leaves out a checker who submitted the job (four-eyes rule)", async () => {

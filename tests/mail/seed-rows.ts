@@ -1,7 +1,7 @@
 // Minimal rows for the notification and report tests: people, a project, a model and a job,
 // written straight into the test database (the queue and sign-in code are not needed here).
 import { db } from "~/db/client.server";
-import { jobs, models, projects, reviews, user } from "~/db/schema";
+import { jobs, models, projectMembers, projects, reviews, user } from "~/db/schema";
 
 export async function insertUser(id: string, name: string, email: string, role: string) {
   const now = new Date("2026-11-30T08:00:00Z");
@@ -19,10 +19,14 @@ export async function insertJob(opts: {
   modelName?: string;
   sha256?: string;
   summary?: unknown;
+  /** project members besides the submitter; default: every account inserted so far */
+  members?: string[];
 }) {
   const projectId = `p-${opts.jobId}`;
   const modelId = `m-${opts.jobId}`;
   await db().insert(projects).values({ id: projectId, code: `HX-${opts.jobId.slice(-3)}`, name: "Harrowgate Exchange canopy", client: "Lindqvist & Marr Developments" });
+  const memberIds = opts.members ?? (await db().select({ id: user.id }).from(user)).map((u) => u.id);
+  for (const m of new Set([opts.submittedBy, ...memberIds])) await db().insert(projectMembers).values({ projectId, userId: m }).onConflictDoNothing();
   await db().insert(models).values({
     id: modelId,
     projectId,

@@ -96,7 +96,7 @@ function prepareOwnerQuery(database: Db) {
     .select({
       keyId: apiKeys.id,
       lastUsedAt: apiKeys.lastUsedAt,
-      user: { id: user.id, email: user.email, name: user.name, role: user.role, banned: user.banned },
+      user: { id: user.id, email: user.email, name: user.name, role: user.role, banned: user.banned, emailVerified: user.emailVerified },
     })
     .from(apiKeys)
     .innerJoin(user, eq(user.id, apiKeys.userId))

@@ -1,6 +1,7 @@
 // The one place that decides who the caller is and what they may do. Every loader, action and
 // resource route calls requireUser / requirePermission; anything not granted is refused.
 import { redirect } from "react-router";
+import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
 import { auth } from "./auth.server";
 import { ownerOfApiKey } from "./api-keys.server";
@@ -25,19 +26,24 @@ function bearerToken(request: Request): string | null {
   return m ? m[1]! : ""; // "Bearer" with nothing usable: a key was meant, and it is not valid
 }
 
-type UserRow = { id: string; email: string; name: string; role?: string | null; banned?: boolean | null };
+type UserRow = { id: string; email: string; name: string; role?: string | null; banned?: boolean | null; emailVerified?: boolean | null };
 
-function toSessionUser(u: Pick<UserRow, "id" | "email" | "name" | "role" | "banned">, via: SessionUser["via"]): SessionUser | null {
+function toSessionUser(u: Pick<UserRow, "id" | "email" | "name" | "role" | "banned" | "emailVerified">, via: SessionUser["via"]): SessionUser | null {
   if (u.banned) return null;
+  // an address not yet proven by its link may do nothing (issue 14): not even read
+  if (!u.emailVerified) return null;
   // a role outside the known four gets nothing: deny by default
   if (!isRole(u.role)) return null;
   return { id: u.id, email: u.email, name: u.name, role: u.role, via };
 }
 
-/** The caller from a Bearer API key or the session cookie; null when neither is valid. */
+/** The caller from a Bearer API key (on /api/* only) or the session cookie; null when neither is valid. */
 export async function getUser(request: Request): Promise<SessionUser | null> {
   const token = bearerToken(request);
   if (token !== null) {
+    // keys are for scripts against the API; on pages (their loaders and actions: key
+    // management among them) a key is no credential at all, so a leaked key cannot mint more
+    if (!isApi(request)) return null;
     const owner = token ? await ownerOfApiKey(token) : null;
     return owner ? toSessionUser(owner, "api-key") : null;
   }
@@ -48,10 +54,36 @@ export async function getUser(request: Request): Promise<SessionUser | null> {
   return toSessionUser(session.user as UserRow, "session");
 }
 
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/**
+ * A state-changing request carried by the session cookie must come from our own pages: its
+ * Origin is the app's (APP_URL, or the very host the request reached), or the browser says
+ * Sec-Fetch-Site: same-origin. A page on another port of the same host is same-SITE, so the
+ * SameSite=Lax cookie alone does not stop it; this does. API keys are not sent by browsers on
+ * their own, so key-authenticated scripts need no Origin.
+ */
+export function sameOriginProblem(request: Request): string | null {
+  if (SAFE_METHODS.has(request.method.toUpperCase())) return null;
+  const origin = request.headers.get("origin");
+  const own = new Set([new URL(config().APP_URL).origin, new URL(request.url).origin]);
+  if (origin && origin !== "null" && own.has(origin)) return null;
+  if (!origin && request.headers.get("sec-fetch-site") === "same-origin") return null;
+  return origin
+    ? `Requests from ${origin} may not change anything here; use the app's own pages, or an API key for scripts`
+    : "This request does not say where it comes from (no Origin header); use the app's own pages, or an API key for scripts";
+}
+
 /** The signed-in caller; pages redirect to sign-in, /api/* answers 401 JSON. */
 export async function requireUser(request: Request): Promise<SessionUser> {
   const user = await getUser(request);
-  if (user) return user;
+  if (user) {
+    if (user.via === "session") {
+      const problem = sameOriginProblem(request);
+      if (problem) throw isApi(request) ? jsonError(403, problem) : forbidden(problem);
+    }
+    return user;
+  }
   if (isApi(request)) {
     const sentKey = bearerToken(request) !== null;
     throw jsonError(

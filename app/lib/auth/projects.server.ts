@@ -1,8 +1,9 @@
 // Projects group models and jobs: create (engineer or admin) and list with a text filter.
 import { randomUUID } from "node:crypto";
-import { desc, eq, like, or } from "drizzle-orm";
+import { and, desc, eq, like, or } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
-import { projects, user } from "~/db/schema";
+import { projectMembers, projects, user } from "~/db/schema";
+import { memberScope, type Caller } from "~/lib/project-scope.server";
 import { audit } from "./audit.server";
 import type { SessionUser } from "./authorize.server";
 import type { ProjectInput } from "./forms";
@@ -18,10 +19,15 @@ export async function createProject(
   const code = input.code.toUpperCase();
   const clash = await database.query.projects.findFirst({ where: eq(projects.code, code) });
   if (clash) return { ok: false, field: "code", message: `Code ${code} is taken by project "${clash.name}"` };
-  const [project] = await database
-    .insert(projects)
-    .values({ id: randomUUID(), code, name: input.name, client: input.client ?? null, description: input.description ?? null, createdBy: creator.id })
-    .returning();
+  // the creator is the project's first member (and may add others: access.server.ts)
+  const project = await database.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(projects)
+      .values({ id: randomUUID(), code, name: input.name, client: input.client ?? null, description: input.description ?? null, createdBy: creator.id })
+      .returning();
+    await tx.insert(projectMembers).values({ projectId: row!.id, userId: creator.id, addedBy: creator.id });
+    return row;
+  });
   await audit(
     { request: opts.request, actor: creator, action: "project.create", entityType: "project", entityId: project!.id, detail: { code } },
     database,
@@ -33,14 +39,18 @@ export interface ProjectListItem extends Project {
   createdByName: string | null;
 }
 
-/** All projects, newest first; `q` matches code, name or client (case-insensitive). */
-export async function listProjects(filter: { q?: string } = {}, database: Db = defaultDb()): Promise<ProjectListItem[]> {
+/**
+ * The projects the caller belongs to (admins: all), newest first; `q` matches code, name or
+ * client (case-insensitive).
+ */
+export async function listProjects(filter: { q?: string; visibleTo: Caller }, database: Db = defaultDb()): Promise<ProjectListItem[]> {
   const q = filter.q?.trim().replace(/[%_]/g, "");
+  const text = q ? or(like(projects.code, `%${q}%`), like(projects.name, `%${q}%`), like(projects.client, `%${q}%`)) : undefined;
   const rows = await database
     .select({ project: projects, createdByName: user.name })
     .from(projects)
     .leftJoin(user, eq(user.id, projects.createdBy))
-    .where(q ? or(like(projects.code, `%${q}%`), like(projects.name, `%${q}%`), like(projects.client, `%${q}%`)) : undefined)
+    .where(and(text, memberScope(filter.visibleTo, projects.id)))
     .orderBy(desc(projects.createdAt));
   return rows.map((r) => ({ ...r.project, createdByName: r.createdByName }));
 }

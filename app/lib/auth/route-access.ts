@@ -40,6 +40,8 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   // projects
   "/projects": { GET: ALL, POST: PRODUCERS },
   "/api/projects": { GET: ALL, POST: PRODUCERS },
+  "/api/projects/:id/members": { GET: ALL, POST: ALL }, // members and admins; POST: the creator or an admin
+  "/api/projects/:id/members/:userId": { DELETE: ALL }, // the creator or an admin
 
   // API of api.md (entries stand ready for routes other parts add)
   "/api/health": { GET: "public" },

@@ -9,6 +9,7 @@ import type { HistoryEntry, JobSummary, TrussResult } from "~/engine/design/resu
 import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
 import { getModelVersion } from "~/lib/models/versions.server";
+import { memberScope, seesEveryProject } from "~/lib/project-scope.server";
 import { getText } from "~/lib/storage.server";
 import { fromStatuses, isTerminal } from "./transitions";
 
@@ -174,6 +175,8 @@ export interface ListJobsFilter {
   projectId?: string;
   modelId?: string;
   submittedBy?: string;
+  /** only jobs of projects this caller belongs to (admins: all); routes always pass it */
+  visibleTo?: { id: string; role: string };
   limit?: number;
   cursor?: string | null;
 }
@@ -211,7 +214,8 @@ export function clearJobListCache(): void {
 }
 
 function listEntry(filter: ListJobsFilter, database: Db, fresh: boolean): ListEntry {
-  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, filter.limit, filter.cursor]);
+  const scope = filter.visibleTo && (seesEveryProject(filter.visibleTo) ? "all" : filter.visibleTo.id);
+  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, scope, filter.limit, filter.cursor]);
   const now = Date.now();
   const hit = listCache.get(key);
   if (!fresh && hit && hit.database === database && now - hit.at < LIST_CACHE_MS) return hit;
@@ -247,6 +251,8 @@ async function readJobPage(filter: ListJobsFilter, database: Db): Promise<JobPag
   if (filter.projectId) where.push(eq(jobs.projectId, filter.projectId));
   if (filter.modelId) where.push(eq(jobs.modelId, filter.modelId));
   if (filter.submittedBy) where.push(eq(jobs.submittedBy, filter.submittedBy));
+  const scope = filter.visibleTo && memberScope(filter.visibleTo, jobs.projectId);
+  if (scope) where.push(scope);
   if (filter.cursor) {
     const c = decodeCursor(filter.cursor);
     if (!c) throw jsonError(400, "The cursor is not one this server handed out", [{ path: "cursor", message: "unreadable cursor" }]);

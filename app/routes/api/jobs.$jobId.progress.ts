@@ -1,12 +1,12 @@
 // GET /api/jobs/:jobId/progress: status, latest figures and the iteration history of the
 // current attempt, for the live convergence plot (polled while the job runs).
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireJob } from "~/lib/access.server";
 import { notFound } from "~/lib/http.server";
 import { getJob, getJobHistory } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs.$jobId.progress";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:job");
+  await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
   const history = await getJobHistory(job.id);

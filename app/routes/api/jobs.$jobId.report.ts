@@ -1,12 +1,12 @@
 // GET /api/jobs/:jobId/report: the calculation record (PDF) of a succeeded job (api.md),
 // generated from the stored result and cached in the bucket per review state.
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireJob } from "~/lib/access.server";
 import { jsonError } from "~/lib/http.server";
 import { renderReportFile, ReportError } from "~/lib/report/render.server";
 import type { Route } from "./+types/jobs.$jobId.report";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:job");
+  await requireJob(request, params.jobId, "read:job");
   try {
     const report = await renderReportFile(params.jobId);
     return new Response(new Uint8Array(report.bytes), {

@@ -1,11 +1,11 @@
 // GET /api/jobs/:jobId/result: the result JSON of truss-format.md; 409 while there is none.
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireJob } from "~/lib/access.server";
 import { jsonError, notFound } from "~/lib/http.server";
 import { getJob, getJobResultText } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs.$jobId.result";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:job");
+  await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
   if (job.status === "queued" || job.status === "running") {

@@ -1,12 +1,12 @@
 // GET /api/jobs/:jobId: status, outcome, latest progress, summary and review decisions.
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireJob } from "~/lib/access.server";
 import { listReviews } from "~/lib/auth/reviews.server";
 import { notFound } from "~/lib/http.server";
 import { getJob } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs.$jobId";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:job");
+  await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
   const reviews = await listReviews(job.id);

@@ -2,7 +2,7 @@
 import { z } from "zod";
 import { JOB_STATUSES } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { assertModelVisible, assertProjectVisible, requirePermission } from "~/lib/access.server";
 import { jsonError, readJson, zodDetails } from "~/lib/http.server";
 import { enqueueJob, LIST_LIMIT_MAX, listJobsJson } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs";
@@ -27,11 +27,12 @@ const submitSchema = z.object({
 });
 
 export async function loader({ request }: Route.LoaderArgs) {
-  await requirePermission(request, "read:job");
+  const user = await requirePermission(request, "read:job");
   const params = Object.fromEntries([...new URL(request.url).searchParams].filter(([, v]) => v !== ""));
   const q = listQuerySchema.safeParse(params);
   if (!q.success) return jsonError(400, "The job list filter is not valid", zodDetails(q.error.issues));
-  const body = await listJobsJson(q.data);
+  if (q.data.projectId) await assertProjectVisible(user, q.data.projectId);
+  const body = await listJobsJson({ ...q.data, visibleTo: user });
   return new Response(body, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
 }
 
@@ -41,6 +42,7 @@ export async function action({ request }: Route.ActionArgs) {
   const body = submitSchema.safeParse(await readJson(request));
   if (!body.success) return jsonError(400, "The job request is not valid", zodDetails(body.error.issues));
   const { modelId, version, kind, options } = body.data;
+  await assertModelVisible(user, modelId);
   const job = await enqueueJob({ modelId, version, kind, options, user });
   await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, version: job.modelVersion, kind: job.kind, options: job.options } });
   return Response.json({ id: job.id, status: job.status }, { status: 202, headers: { Location: `/api/jobs/${job.id}` } });

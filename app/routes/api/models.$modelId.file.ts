@@ -1,12 +1,12 @@
 // GET /api/models/:modelId/file[?version=N]: one version's JSON exactly as it was stored
 // (the latest without a version).
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireModel } from "~/lib/access.server";
 import { badRequest, notFound } from "~/lib/http.server";
 import { getModelVersionFile } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.file";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:model");
+  await requireModel(request, params.modelId, "read:model");
   const raw = new URL(request.url).searchParams.get("version");
   let version: number | null = null;
   if (raw !== null && raw !== "") {

@@ -1,13 +1,13 @@
 // GET /api/models/:modelId: the model's metadata and the engine's summary of it, with the
 // latest version number and every version.
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireModel } from "~/lib/access.server";
 import { notFound } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
 import { listModelVersions } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:model");
+  await requireModel(request, params.modelId, "read:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
   const versions = await listModelVersions(model.id);

@@ -1,7 +1,7 @@
 // POST /api/models/:modelId/versions: a new immutable version (multipart: file, note?).
 // GET lists the versions.
 import { audit } from "~/lib/auth/audit.server";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requireModel } from "~/lib/access.server";
 import { jsonError, notFound } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
 import { readUploadForm } from "~/lib/models/upload-form.server";
@@ -9,7 +9,7 @@ import { createModelVersion, listModelVersions } from "~/lib/models/versions.ser
 import type { Route } from "./+types/models.$modelId.versions";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  await requirePermission(request, "read:model");
+  await requireModel(request, params.modelId, "read:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
   return Response.json({ versions: await listModelVersions(model.id) });
@@ -17,7 +17,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to add a version`);
-  const user = await requirePermission(request, "create:model");
+  const { user } = await requireModel(request, params.modelId, "create:model");
   const read = await readUploadForm(request, ["file"], "the new version with the fields 'file' and 'note'");
   if (read instanceof Response) return read;
   const file = read.files.get("file");

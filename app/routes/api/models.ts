@@ -1,6 +1,6 @@
 // POST /api/models: upload a truss model (multipart: file, projectId); GET ?projectId= lists them.
 import { MaxFileSizeExceededError, parseFormData, type FileUpload } from "@mjackson/form-data-parser";
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { assertProjectVisible, requirePermission } from "~/lib/access.server";
 import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
 import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
@@ -8,9 +8,10 @@ import { sectionsFromUploadForm } from "~/lib/catalogues/catalogues.server";
 import type { Route } from "./+types/models";
 
 export async function loader({ request }: Route.LoaderArgs) {
-  await requirePermission(request, "read:model");
+  const user = await requirePermission(request, "read:model");
   const projectId = new URL(request.url).searchParams.get("projectId") ?? undefined;
-  return Response.json({ models: await listModels({ projectId }) });
+  if (projectId) await assertProjectVisible(user, projectId);
+  return Response.json({ models: await listModels({ projectId, visibleTo: user }) });
 }
 
 // room for the form's other field and the multipart framing around the file
@@ -49,6 +50,7 @@ export async function action({ request }: Route.ActionArgs) {
   const withSections = await sectionsFromUploadForm(form, file.bytes);
   if (!withSections.ok) return jsonError(withSections.status, withSections.error, withSections.details);
 
+  await assertProjectVisible(user, (projectId as string).trim());
   const stored = await storeModel({ projectId: (projectId as string).trim(), fileName: file.name, bytes: withSections.bytes, user });
   if (!stored.ok) return jsonError(stored.status, stored.error, stored.details);
   const m = stored.model;

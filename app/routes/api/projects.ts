@@ -1,14 +1,14 @@
 // GET /api/projects, POST /api/projects (api.md).
-import { requirePermission } from "~/lib/auth/authorize.server";
+import { requirePermission } from "~/lib/access.server";
 import { projectSchema } from "~/lib/auth/forms";
 import { createProject, listProjects } from "~/lib/auth/projects.server";
 import { jsonError, readJson, zodDetails } from "~/lib/http.server";
 import type { Route } from "./+types/projects";
 
 export async function loader({ request }: Route.LoaderArgs) {
-  await requirePermission(request, "read:project");
+  const user = await requirePermission(request, "read:project");
   const q = new URL(request.url).searchParams.get("q") ?? undefined;
-  const rows = await listProjects({ q });
+  const rows = await listProjects({ q, visibleTo: user });
   return Response.json({
     projects: rows.map((p) => ({ id: p.id, code: p.code, name: p.name, client: p.client, description: p.description, createdAt: p.createdAt.toISOString() })),
   });

@@ -27,11 +27,14 @@ export async function makeAccount(role: "admin" | "engineer" | "checker" | "view
   return { id, email, name, role, key, sessionUser: { id, email, name, role, via: "api-key" as const } };
 }
 
-export async function makeProject(code = `Q-${randomUUID().slice(0, 6)}`) {
+/** A project whose members are the given accounts; without a list, every account so far. */
+export async function makeProject(code = `Q-${randomUUID().slice(0, 6)}`, members?: string[]) {
   const { db } = await import("~/db/client.server");
-  const { projects } = await import("~/db/schema");
+  const { projects, projectMembers, user } = await import("~/db/schema");
   const id = randomUUID();
   await db().insert(projects).values({ id, code, name: `Saltmarsh depot roof ${code}` });
+  const memberIds = members ?? (await db().select({ id: user.id }).from(user)).map((u) => u.id);
+  for (const userId of memberIds) await db().insert(projectMembers).values({ projectId: id, userId });
   return id;
 }
 
