@@ -34,6 +34,8 @@ export default [
     route("models/:modelId", "routes/api/models.$modelId.ts"),
     route("models/:modelId/file", "routes/api/models.$modelId.file.ts"),
     route("models/:modelId/versions", "routes/api/models.$modelId.versions.ts"),
+    route("generators", "routes/api/generators.ts"),
+    route("generators/:kind", "routes/api/generators.$kind.ts"),
     route("jobs", "routes/api/jobs.ts"),
     route("jobs/:jobId", "routes/api/jobs.$jobId.ts"),
     route("jobs/:jobId/cancel", "routes/api/jobs.$jobId.cancel.ts"),

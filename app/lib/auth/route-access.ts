@@ -49,6 +49,8 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/models/:id": { GET: ALL },
   "/api/models/:id/file": { GET: ALL },
   "/api/models/:id/versions": { GET: ALL, POST: PRODUCERS },
+  "/api/generators": { GET: ALL },
+  "/api/generators/:id": { POST: ALL }, // builds a model, stores nothing
   "/api/jobs": { GET: ALL, POST: PRODUCERS },
   "/api/jobs/:id": { GET: ALL },
   "/api/jobs/:id/cancel": { POST: PRODUCERS }, // and then only the submitter, unless admin
