@@ -35,6 +35,7 @@ export default [
     route("models/:modelId/file", "routes/api/models.$modelId.file.ts"),
     route("models/:modelId/versions", "routes/api/models.$modelId.versions.ts"),
     route("generators", "routes/api/generators.ts"),
+    route("schema/model.json", "routes/api/schema.model.ts"),
     route("generators/:kind", "routes/api/generators.$kind.ts"),
     route("jobs", "routes/api/jobs.ts"),
     route("jobs/:jobId", "routes/api/jobs.$jobId.ts"),

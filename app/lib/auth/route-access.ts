@@ -50,6 +50,7 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/models/:id/file": { GET: ALL },
   "/api/models/:id/versions": { GET: ALL, POST: PRODUCERS },
   "/api/generators": { GET: ALL },
+  "/api/schema/model.json": { GET: "public" }, // the file format is public documentation
   "/api/generators/:id": { POST: ALL }, // builds a model, stores nothing
   "/api/jobs": { GET: ALL, POST: PRODUCERS },
   "/api/jobs/:id": { GET: ALL },
