@@ -13,7 +13,8 @@ import { useJobFiles } from "~/components/job/useJobFiles";
 import { Cautions } from "~/components/ui/Cautions";
 import { formatDateTime, formatDuration, formatNumber, formatPercent, formatResidual } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
-import { OutcomeBadge, ReviewBadge, StatusBadge } from "~/components/ui/StatusBadge";
+import { JobStateBadge, ReviewBadge } from "~/components/ui/StatusBadge";
+import { countOf, viewerTitle } from "~/components/job/result-words";
 import { ErrorNote, LoadingNote, Stat } from "~/components/ui/States";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
 import { db } from "~/db/client.server";
@@ -36,6 +37,14 @@ function maxIterationsOf(text: string, options: { maxIterations?: number } | nul
   if (options?.maxIterations) return options.maxIterations;
   try {
     return (JSON.parse(text) as { design?: { solver?: { maxIterations?: number } } }).design?.solver?.maxIterations ?? 200;
+  } catch {
+    return null;
+  }
+}
+
+function unitsOf(text: string): { length: string; force: string; mass: string } | null {
+  try {
+    return (JSON.parse(text) as { units?: { length: string; force: string; mass: string } }).units ?? null;
   } catch {
     return null;
   }
@@ -94,9 +103,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       startedAt: job.startedAt,
       finishedAt: job.finishedAt,
       progress: job.progress,
+      hasResult: job.hasResult,
     },
     facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
     maxIterations: maxIterationsOf(text, job.options),
+    modelUnits: unitsOf(text),
     head: result ? headOf(result) : null,
     history: normalizeHistory(history),
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comment: r.comment, reviewerName: r.reviewerName || r.reviewerEmail, createdAt: r.createdAt })),
@@ -156,13 +167,17 @@ export function ErrorBoundary() {
 
 export default function JobPage({ loaderData }: Route.ComponentProps) {
   const { job, facts, head, history, reviews, may, maxIterations } = loaderData;
-  const files = useJobFiles(job.id, facts.modelId, job.status === "succeeded" && head !== null);
+  const files = useJobFiles(job.id, facts.modelId, job.hasResult && head !== null);
+  // only a run with a design to sign off is reviewed (review-request.ts): no review mark otherwise
+  const reviewable = job.status === "succeeded" && !OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "");
   const { topology, result } = files;
   const live = job.status === "queued" || job.status === "running";
   // the header follows the live poll between loader runs
   const [shownStatus, setShownStatus] = useState<string>(job.status);
   useEffect(() => setShownStatus(job.status), [job.status]);
-  const objectiveLabel = head?.objective.kind ?? (job.options.objective as string | undefined) ?? "objective";
+  const objectiveKind = head?.objective.kind ?? (job.options.objective as string | undefined) ?? "mass";
+  const plotUnits = head?.units ?? loaderData.modelUnits;
+  const objectiveLabel = plotUnits ? `${objectiveKind} (${objectiveKind === "mass" ? plotUnits.mass : `${plotUnits.force}·${plotUnits.length}`})` : objectiveKind;
   const current = latestDecision(reviews);
   const topo = useMemo<Topology>(
     () => ({
@@ -174,6 +189,9 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
   const elapsed = job.startedAt && job.finishedAt ? new Date(job.finishedAt).getTime() - new Date(job.startedAt).getTime() : null;
   const u = head?.units;
   const saving = head && head.objective.initial > 0 ? 1 - head.objective.final / head.objective.initial : null;
+  const objUnit = head?.units ? (head.objective.kind === "mass" ? head.units.mass : `${head.units.force}·${head.units.length}`) : "";
+  // a broken limit is never hidden behind a member utilization just under 100 %
+  const worstRatio = Math.max(head?.maxUtilization ?? 0, ...(head?.verification?.failures ?? []).map((f) => f.ratio));
 
   return (
     <div className="space-y-6">
@@ -189,9 +207,8 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         </p>
         <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-semibold sm:text-3xl">
           <span>Job {job.id.slice(0, 8)}</span>
-          <StatusBadge status={shownStatus} />
-          <OutcomeBadge outcome={job.outcome} />
-          {job.status === "succeeded" && <ReviewBadge decision={current?.decision} />}
+          <JobStateBadge status={shownStatus} outcome={shownStatus === job.status ? job.outcome : null} hasResult={job.hasResult} />
+          {reviewable && <ReviewBadge decision={current?.decision} />}
         </h1>
         <p className="mt-2 text-sm text-ink-muted">
           submitted by {facts.submitterName} · {formatDateTime(job.createdAt)}
@@ -254,7 +271,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       {files.error ? (
         <ErrorNote title="The 3D view and tables could not be loaded">{files.error}</ErrorNote>
       ) : topology && (result || !head) ? (
-        <TrussViewer key={result ? "result" : "initial"} model={topology} result={result} title={result ? "Optimized truss" : "Initial geometry"} />
+        <TrussViewer key={result ? "result" : "initial"} model={topology} result={result} title={viewerTitle(result ? (job.status === "cancelled" ? "cancelled" : (head?.status ?? job.outcome)) : null)} />
       ) : (
         <div className="card flex h-[26rem] items-center justify-center sm:h-[32rem]" data-testid="truss-viewer-loading">
           <LoadingNote>Loading the geometry{head ? ` and the result of ${head.memberCount} members` : ""}…</LoadingNote>
@@ -282,7 +299,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             <thead>
               <tr>
                 <th>variable</th>
-                <th className="num">value ({u?.length})</th>
+                <th className="num">offset from the start ({u?.length})</th>
               </tr>
             </thead>
             <tbody>

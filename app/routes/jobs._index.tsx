@@ -6,6 +6,7 @@ import { EmptyState } from "~/components/ui/States";
 import { JOB_STATUSES, type JobStatus } from "~/db/schema";
 import { assertProjectVisible, requirePermission } from "~/lib/access.server";
 import { listProjects } from "~/lib/auth/projects.server";
+import { REVIEW_FILTERS, type ReviewFilter } from "~/lib/job-state";
 import { listJobs } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs._index";
 
@@ -23,10 +24,12 @@ export async function loader({ request }: Route.LoaderArgs) {
   const status = sp.get("status") ?? "";
   const projectId = sp.get("projectId") ?? "";
   const cursor = sp.get("cursor") ?? "";
+  const review = sp.get("review") ?? "";
+  const reviewFilter = Object.hasOwn(REVIEW_FILTERS, review) ? (review as ReviewFilter) : undefined;
   const statusFilter = status === "active" ? (["queued", "running"] as JobStatus[]) : (JOB_STATUSES as readonly string[]).includes(status) ? (status as JobStatus) : undefined;
   if (projectId) await assertProjectVisible(user, projectId);
   const [page, projects] = await Promise.all([
-    listJobs({ status: statusFilter, projectId: projectId || undefined, cursor: cursor || undefined, limit: PAGE, visibleTo: user }),
+    listJobs({ status: statusFilter, review: reviewFilter, projectId: projectId || undefined, cursor: cursor || undefined, limit: PAGE, visibleTo: user }),
     listProjects({ visibleTo: user }),
   ]);
   const api = new URLSearchParams();
@@ -37,7 +40,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   return {
     rows: await toJobRows(page.jobs),
     nextCursor: page.nextCursor,
-    filters: { status, projectId, cursor },
+    filters: { status, projectId, cursor, review },
     projects: projects.map((p) => ({ id: p.id, code: p.code, name: p.name })),
     pollUrl: `/api/jobs?${api}`,
   };
@@ -76,6 +79,17 @@ export default function JobsIndex({ loaderData }: Route.ComponentProps) {
             ))}
           </select>
         </label>
+        <label className="block w-full sm:w-auto">
+          <span className="field-label">Review</span>
+          <select name="review" defaultValue={filters.review} className="field-input sm:w-auto" data-testid="review-filter">
+            <option value="">any</option>
+            {Object.entries(REVIEW_FILTERS).map(([k, words]) => (
+              <option key={k} value={k}>
+                {words}
+              </option>
+            ))}
+          </select>
+        </label>
         <label className="block w-full min-w-0 sm:w-auto sm:max-w-xs sm:flex-1">
           <span className="field-label">Project</span>
           <select name="projectId" defaultValue={filters.projectId} className="field-input">
@@ -90,7 +104,7 @@ export default function JobsIndex({ loaderData }: Route.ComponentProps) {
         <button type="submit" className="btn btn-primary">
           {nav.state === "loading" ? "Filtering…" : "Apply"}
         </button>
-        {(filters.status || filters.projectId) && (
+        {(filters.status || filters.projectId || filters.review) && (
           <Link to="/jobs" className="btn btn-secondary">
             Clear
           </Link>
@@ -102,8 +116,8 @@ export default function JobsIndex({ loaderData }: Route.ComponentProps) {
           pollUrl={pollUrl}
           pageSize={PAGE}
           empty={
-            <EmptyState title={filters.status || filters.projectId ? "No jobs match these filters" : "No jobs yet"}>
-              {filters.status || filters.projectId ? "Clear the filters to see every job." : "Upload a model on a project page and queue its first run."}
+            <EmptyState title={filters.status || filters.projectId || filters.review ? "No jobs match these filters" : "No jobs yet"}>
+              {filters.status || filters.projectId || filters.review ? "Clear the filters to see every job." : "Upload a model on a project page and queue its first run."}
             </EmptyState>
           }
         />

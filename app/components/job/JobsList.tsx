@@ -6,7 +6,7 @@ import { useEffect, useMemo, useRef, type ReactNode } from "react";
 import { Link, useFetcher } from "react-router";
 import { DataTable } from "~/components/tables/DataTable";
 import { formatDateTime, formatDuration, formatNumber } from "~/lib/format";
-import { OutcomeBadge, StatusBadge } from "~/components/ui/StatusBadge";
+import { JobStateBadge, ReviewBadge } from "~/components/ui/StatusBadge";
 
 export interface JobListRow {
   id: string;
@@ -21,7 +21,11 @@ export interface JobListRow {
   finishedAt: string | null;
   objective: { kind: string; final: number } | null;
   progress: { iteration: number | null } | null;
+  /** the review decision in force, null when none */
   review?: string | null;
+  hasResult?: boolean;
+  /** the model's units, for the objective's unit */
+  units?: { length: string; force: string; mass: string } | null;
 }
 
 interface ApiJob {
@@ -100,11 +104,20 @@ export function JobsList({
           const r = c.row.original;
           return (
             <span className="flex flex-wrap items-center gap-1.5" data-testid="job-status">
-              <StatusBadge status={r.status} />
-              {r.status === "succeeded" && r.outcome !== "optimal" && <OutcomeBadge outcome={r.outcome} />}
+              <JobStateBadge status={r.status} outcome={r.outcome} hasResult={r.hasResult} />
               {r.status === "running" && r.progress?.iteration != null && <span className="font-mono text-2xs text-ink-muted">it. {r.progress.iteration}</span>}
             </span>
           );
+        },
+      }),
+      col.accessor((r) => r.review ?? "", {
+        id: "review",
+        header: "review",
+        cell: (c) => {
+          const r = c.row.original;
+          if (r.review) return <ReviewBadge decision={r.review} />;
+          if (r.status === "succeeded" && r.outcome !== "infeasible" && r.outcome !== "failed") return <span className="text-xs text-ink-muted" data-review="waiting">waiting for review</span>;
+          return <span className="text-xs text-ink-muted" data-review="none">nothing to review</span>;
         },
       }),
       ...(showModel ? [col.accessor("modelName", { header: "model", cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue()}>{c.getValue()}</span> })] : []),
@@ -120,13 +133,15 @@ export function JobsList({
       }),
       col.accessor((r) => r.objective?.final ?? null, {
         id: "objective",
-        header: "objective",
+        header: "result",
         meta: { numeric: true },
         cell: (c) => {
           const o = c.row.original.objective;
+          const u = c.row.original.units;
+          const unit = u ? (o?.kind === "compliance" ? `${u.force}·${u.length}` : u.mass) : "";
           return o ? (
-            <span title={o.kind}>
-              {formatNumber(o.final)} <span className="text-2xs text-ink-muted">{o.kind}</span>
+            <span className="whitespace-nowrap">
+              {formatNumber(o.final)} <span className="text-xs text-ink-muted">{unit ? `${unit} ` : ""}{o.kind === "compliance" ? "compliance" : "mass"}</span>
             </span>
           ) : (
             "–"

@@ -6,7 +6,7 @@ import { useFetcher, useRevalidator } from "react-router";
 import { ConvergencePlot, type ConvergencePoint } from "~/components/charts/ConvergencePlot";
 import { formatNumber, formatResidual } from "~/lib/format";
 import { ProgressBar } from "~/components/ui/ProgressBar";
-import { StatusBadge } from "~/components/ui/StatusBadge";
+import { JobStateBadge } from "~/components/ui/StatusBadge";
 import { ErrorNote } from "~/components/ui/States";
 import type { LiveJob } from "./types";
 
@@ -80,7 +80,7 @@ export function LiveProgress({
     <section className="card space-y-4" aria-label="Progress" data-testid="live-progress">
       <div className="flex flex-wrap items-center gap-3">
         <h2 className="font-semibold">Progress</h2>
-        <StatusBadge status={live.status} />
+        <JobStateBadge status={live.status} outcome={live.outcome} />
         <span className="text-sm text-ink-muted" aria-live="polite" data-testid="live-status">
           {live.status === "queued"
             ? "waiting for a free worker…"
@@ -103,19 +103,19 @@ export function LiveProgress({
       <ProgressBar value={live.status === "running" ? iteration : null} max={maxIterations} label="Solver iterations" />
       <dl className="grid grid-cols-2 gap-4 sm:grid-cols-4">
         <div>
-          <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">iteration</dt>
+          <dt className="text-xs font-semibold text-ink-muted">iteration</dt>
           <dd className="num text-left text-lg">{iteration ?? "–"}</dd>
         </div>
         <div>
-          <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">{objectiveLabel}</dt>
+          <dt className="text-xs font-semibold text-ink-muted">{objectiveLabel}</dt>
           <dd className="num text-left text-lg">{formatNumber(p?.objective)}</dd>
         </div>
         <div>
-          <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">max violation</dt>
+          <dt className="text-xs font-semibold text-ink-muted">max violation</dt>
           <dd className="num text-left text-lg">{formatResidual(p?.maxViolation)}</dd>
         </div>
         <div>
-          <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">KKT residual</dt>
+          <dt className="text-xs font-semibold text-ink-muted">KKT residual</dt>
           <dd className="num text-left text-lg">{formatResidual(p?.kktResidual)}</dd>
         </div>
       </dl>

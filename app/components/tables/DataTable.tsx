@@ -97,7 +97,7 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
                           {h.isPlaceholder ? null : h.column.getCanSort() ? (
                             <button
                               type="button"
-                              className={`inline-flex items-center gap-1 uppercase ${numeric ? "flex-row-reverse" : ""} hover:text-ink`}
+                              className={`inline-flex items-center gap-1 ${numeric ? "flex-row-reverse" : ""} hover:text-ink`}
                               onClick={h.column.getToggleSortingHandler()}
                             >
                               {flexRender(h.column.columnDef.header, h.getContext())}

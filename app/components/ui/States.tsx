@@ -59,7 +59,7 @@ export function IssueList({ title, issues, tone = "bad" }: { title: string; issu
 export function Stat({ label, value, hint, wrap = false }: { label: string; value: ReactNode; hint?: string; wrap?: boolean }) {
   return (
     <div className={wrap ? "col-span-2 min-w-0" : "min-w-0"}>
-      <dt className="text-2xs font-semibold uppercase tracking-wide text-ink-muted">{label}</dt>
+      <dt className="text-xs font-semibold text-ink-muted">{label}</dt>
       <dd className={`num mt-0.5 text-left text-lg text-ink ${wrap ? "break-words" : "truncate"}`} title={hint}>
         {value}
       </dd>

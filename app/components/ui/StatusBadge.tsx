@@ -1,38 +1,31 @@
-// Job status and solver outcome as a small coloured label. The words are the API's own
-// status values, so what a script reads is what the page shows.
+// A job's state and outcome as one sentence with one tone (app/lib/job-state.ts), and a
+// review decision as its own badge. The tone has a mark as well as a colour, so it reads
+// without colour. The API keeps its status values; these are the words people read.
 import { reviewStateWords } from "~/components/job/review-words";
+import { jobState, type JobStateFacts, type StateTone } from "~/lib/job-state";
 
-const JOB_STYLE: Record<string, string> = {
-  queued: "bg-paper-sunk text-ink-soft",
-  running: "bg-info-wash text-info",
-  succeeded: "bg-ok-wash text-ok",
-  failed: "bg-bad-wash text-bad",
-  cancelled: "bg-paper-sunk text-ink-muted line-through decoration-ink-muted/40",
+export const TONE_STYLE: Record<StateTone, string> = {
+  good: "bg-ok-wash text-ok",
+  caution: "bg-warn-wash text-warn",
+  bad: "bg-bad-wash text-bad",
+  neutral: "bg-paper-sunk text-ink-soft",
+  active: "bg-info-wash text-info",
 };
 
-const OUTCOME_STYLE: Record<string, string> = {
-  optimal: "bg-ok-wash text-ok",
-  "not-converged": "bg-warn-wash text-warn",
-  infeasible: "bg-bad-wash text-bad",
-  failed: "bg-bad-wash text-bad",
-  analysed: "bg-info-wash text-info",
-};
-
-export function StatusBadge({ status }: { status: string }) {
+export function JobStateBadge(props: JobStateFacts) {
+  const s = jobState(props);
   return (
-    <span className={`badge ${JOB_STYLE[status] ?? "bg-paper-sunk text-ink-soft"}`} data-status={status}>
-      {status}
+    <span className={`badge ${TONE_STYLE[s.tone]}`} data-status={props.status} data-outcome={props.outcome ?? ""} data-tone={s.tone} data-testid="job-state">
+      <span aria-hidden className="mr-1">
+        {s.mark}
+      </span>
+      {s.sentence}
     </span>
   );
 }
 
-export function OutcomeBadge({ outcome }: { outcome: string | null | undefined }) {
-  if (!outcome) return null;
-  return <span className={`badge ${OUTCOME_STYLE[outcome] ?? "bg-paper-sunk text-ink-soft"}`}>{outcome}</span>;
-}
-
 export function ReviewBadge({ decision }: { decision: string | null | undefined }) {
-  const style = decision === "approved" ? "bg-ok-wash text-ok" : decision === "changes-requested" ? "bg-warn-wash text-warn" : "bg-paper-sunk text-ink-muted";
+  const style = decision === "approved" ? TONE_STYLE.good : decision === "changes-requested" ? TONE_STYLE.caution : "bg-paper-sunk text-ink-muted";
   return (
     <span className={`badge ${style}`} data-review={decision ?? "none"}>
       {reviewStateWords(decision)}

@@ -42,8 +42,9 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
   // software renderers and small GPUs; thin members hardly show aliasing at that density
   const heavy = view.members.length > 1200;
   return (
+    // one canvas for both projections: the cameras swap inside it (makeDefault). Re-keying
+    // the canvas destroyed its WebGL context, which read as a lost context (issue 16).
     <Canvas
-      key={ortho ? "ortho" : "persp"}
       frameloop="demand"
       // while the view moves, draw at a lower resolution (full again ~0.2 s after it stops)
       performance={{ min: heavy ? 0.4 : 0.6 }}
@@ -51,14 +52,18 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
       gl={{ antialias: !heavy, preserveDrawingBuffer: true, powerPreference: "high-performance" }}
       onCreated={({ gl }) => {
         gl.setClearColor(new THREE.Color(cssColor("--color-paper-raised", "#ffffff")));
-        gl.domElement.addEventListener("webglcontextlost", () => onContextLost?.());
+        // a canvas React removes loses its context on purpose; only a context lost while the
+        // canvas is still on the page is the browser reclaiming the GPU
+        gl.domElement.addEventListener("webglcontextlost", () => {
+          if (gl.domElement.isConnected) onContextLost?.();
+        });
       }}
       data-testid="truss-canvas"
     >
       {ortho ? (
-        <OrthographicCamera makeDefault near={-span * 10} far={span * 10} position={[0, 0, span]} up={[0, 1, 0]} />
+        <OrthographicCamera key="ortho" makeDefault near={-span * 10} far={span * 10} position={[0, 0, span]} up={[0, 1, 0]} />
       ) : (
-        <PerspectiveCamera makeDefault fov={40} near={span / 1000} far={span * 100} up={up === "z" ? [0, 0, 1] : [0, 1, 0]} />
+        <PerspectiveCamera key="persp" makeDefault fov={40} near={span / 1000} far={span * 100} up={up === "z" ? [0, 0, 1] : [0, 1, 0]} />
       )}
       <AdaptiveDpr pixelated />
       <ambientLight intensity={0.85} />

@@ -1,5 +1,7 @@
 // The queue as the routes and pages see it: submit, list, read, cancel, fetch the result.
 // The worker's side (claim, lease, finish) lives in claim.server.ts.
+import type { ReviewFilter } from "~/lib/job-state";
+import { reviewStateCondition } from "./review-state.server";
 import { randomUUID } from "node:crypto";
 import { and, asc, desc, eq, inArray, lt, or, type SQL } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
@@ -91,7 +93,8 @@ export function toJobView(r: JobRow, extra: { modelName?: string | null; project
             kktResidual: r.progressKktResidual,
             at: iso(r.progressAt),
           },
-    hasResult: r.status === "succeeded" && r.resultKey !== null,
+    // a run stopped on request keeps its best design so far (stored by the worker)
+    hasResult: (r.status === "succeeded" || r.status === "cancelled") && r.resultKey !== null,
   };
 }
 
@@ -177,6 +180,8 @@ export interface ListJobsFilter {
   submittedBy?: string;
   /** only jobs of projects this caller belongs to (admins: all); routes always pass it */
   visibleTo?: { id: string; role: string };
+  /** review state in force (app/lib/jobs/review-state.server.ts) */
+  review?: ReviewFilter;
   limit?: number;
   cursor?: string | null;
 }
@@ -215,7 +220,7 @@ export function clearJobListCache(): void {
 
 function listEntry(filter: ListJobsFilter, database: Db, fresh: boolean): ListEntry {
   const scope = filter.visibleTo && (seesEveryProject(filter.visibleTo) ? "all" : filter.visibleTo.id);
-  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, scope, filter.limit, filter.cursor]);
+  const key = JSON.stringify([filter.status, filter.projectId, filter.modelId, filter.submittedBy, scope, filter.review, filter.limit, filter.cursor]);
   const now = Date.now();
   const hit = listCache.get(key);
   if (!fresh && hit && hit.database === database && now - hit.at < LIST_CACHE_MS) return hit;
@@ -253,6 +258,7 @@ async function readJobPage(filter: ListJobsFilter, database: Db): Promise<JobPag
   if (filter.submittedBy) where.push(eq(jobs.submittedBy, filter.submittedBy));
   const scope = filter.visibleTo && memberScope(filter.visibleTo, jobs.projectId);
   if (scope) where.push(scope);
+  if (filter.review) where.push(reviewStateCondition(filter.review));
   if (filter.cursor) {
     const c = decodeCursor(filter.cursor);
     if (!c) throw jsonError(400, "The cursor is not one this server handed out", [{ path: "cursor", message: "unreadable cursor" }]);
@@ -307,7 +313,7 @@ export async function getJobResult(id: string, database: Db = defaultDb()): Prom
 /** The stored result as text, for downloads that pass it through unchanged. */
 export async function getJobResultText(id: string, database: Db = defaultDb()): Promise<string | null> {
   const [row] = await database.select({ status: jobs.status, resultKey: jobs.resultKey }).from(jobs).where(eq(jobs.id, id)).limit(1);
-  if (!row || row.status !== "succeeded" || !row.resultKey) return null;
+  if (!row || (row.status !== "succeeded" && row.status !== "cancelled") || !row.resultKey) return null;
   return getText(row.resultKey);
 }
 

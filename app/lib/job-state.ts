@@ -1,0 +1,64 @@
+// The one sentence and the one tone for a job's state and outcome, used by every list, the job
+// page, the PDF report and the mail (issue 16: a run never reads "succeeded" beside
+// "infeasible"). The queue's own status words stay in the API; people read these.
+export type StateTone = "good" | "caution" | "bad" | "neutral" | "active";
+
+export interface JobStateFacts {
+  status: string;
+  outcome?: string | null;
+  /** a cancelled run whose best design so far was kept (the worker stores it) */
+  hasResult?: boolean;
+}
+
+export interface JobState {
+  /** "finished — optimal" */
+  sentence: string;
+  tone: StateTone;
+  /** a short mark beside the colour, so the tone reads without colour too */
+  mark: string;
+}
+
+const MARKS: Record<StateTone, string> = { good: "✓", caution: "!", bad: "✕", neutral: "■", active: "▶" };
+
+function state(sentence: string, tone: StateTone): JobState {
+  return { sentence, tone, mark: MARKS[tone] };
+}
+
+export function jobState(j: JobStateFacts): JobState {
+  switch (j.status) {
+    case "queued":
+      return state("waiting in the queue", "neutral");
+    case "running":
+      return state("running", "active");
+    case "failed":
+      return state("failed — no result", "bad");
+    case "cancelled":
+      return j.hasResult ? state("stopped on request — best design so far kept", "caution") : state("stopped on request — nothing kept", "neutral");
+    case "succeeded":
+      switch (j.outcome) {
+        case "optimal":
+          return state("finished — optimal", "good");
+        case "analysed":
+          return state("finished — analysed as given", "good");
+        case "not-converged":
+          return state("finished — stopped before converging", "caution");
+        case "infeasible":
+          return state("finished — no design meets every limit", "bad");
+        case "failed":
+          return state("finished — the solver could not finish", "bad");
+        default:
+          return state("finished", "good");
+      }
+    default:
+      return state(j.status, "neutral");
+  }
+}
+
+/** The states a job list can be filtered by, in the words the lists show. */
+export const REVIEW_FILTERS = {
+  waiting: "waiting for review",
+  approved: "approved",
+  "changes-requested": "changes requested",
+  "no-review": "nothing to review",
+} as const;
+export type ReviewFilter = keyof typeof REVIEW_FILTERS;
