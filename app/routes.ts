@@ -14,6 +14,7 @@ export default [
     route("projects", "routes/projects._index.tsx"),
     route("admin/users", "routes/admin.users.tsx"),
     route("admin/audit", "routes/admin.audit.tsx"),
+    route("admin/mail", "routes/admin.mail.tsx"),
     route("projects/:projectId", "routes/projects.$projectId.tsx"),
     route("models/:modelId", "routes/models.$modelId.tsx"),
     route("jobs", "routes/jobs._index.tsx"),

@@ -11,17 +11,10 @@ import { models, modelVersions } from "~/db/schema";
 import { summarizeResult } from "~/engine/design";
 import type { JobOptions } from "~/engine/design/options";
 import type { JobSummary, TrussResult } from "~/engine/design/result-types";
-import {
-  checkJob,
-  claimNextJob,
-  completeJob,
-  failJob,
-  markCancelled,
-  renewLease,
-  requeueJob,
-  settleAbandonedJobs,
-  type Lease,
-} from "~/lib/jobs/claim.server";
+import { checkJob, claimNextJob, markCancelled, renewLease, requeueJob, type Lease } from "~/lib/jobs/claim.server";
+import { DependencyUnavailableError } from "~/lib/dependencies";
+import { recordFailure, recordSuccess, settleAbandoned } from "~/lib/jobs/outcome.server";
+import { backoffDelay } from "~/lib/mail/backoff";
 import { describeTaskError, solverFailureMessage, timeLimitMessage } from "~/lib/jobs/failure-messages";
 import { jobResultKey } from "~/lib/jobs/keys";
 import { ProgressRecorder, type ProgressPoint } from "~/lib/jobs/progress.server";
@@ -45,8 +38,12 @@ export interface RunnerOptions {
   cancelPollMs?: number;
   /** how long an idle worker waits before looking for work again */
   idlePollMs?: number;
-  /** e-mail the submitter / checkers (off in the benchmark) */
+  /** e-mail the submitter / checkers (off in the benchmark): mails are queued in the outbox */
   notify?: boolean;
+  /** the outbox sender of this process, told to look when a job's mails were queued */
+  mailSender?: { kick(): void };
+  /** how long a job waits in the queue after storage did not answer (with jitter) */
+  storageWaitMs?: number;
   log?: (line: string) => void;
 }
 
@@ -57,6 +54,8 @@ export interface RunnerStats {
   cancelled: number;
   requeued: number;
   lost: number;
+  /** handed back because storage did not answer (no attempt spent) */
+  waitedForStorage: number;
 }
 
 interface Active {
@@ -71,7 +70,7 @@ export function newWorkerId(): string {
 
 export class QueueRunner {
   readonly workerId: string;
-  readonly stats: RunnerStats = { claimed: 0, succeeded: 0, failed: 0, cancelled: 0, requeued: 0, lost: 0 };
+  readonly stats: RunnerStats = { claimed: 0, succeeded: 0, failed: 0, cancelled: 0, requeued: 0, lost: 0, waitedForStorage: 0 };
   private readonly active = new Map<string, Active>();
   private stopping = false;
   private wake: (() => void) | null = null;
@@ -142,11 +141,9 @@ export class QueueRunner {
     const now = Date.now();
     if (now - this.lastSettle < Math.min(5000, this.o.leaseMs / 2)) return;
     this.lastSettle = now;
-    const { cancelled, failed } = await settleAbandonedJobs(this.o.db, now);
-    for (const id of failed) {
-      this.log(`job ${id} failed: its workers stopped responding on every attempt`);
-      await this.notifyFinished(id);
-    }
+    const { cancelled, failed } = await settleAbandoned(this.o.db, this.mailChoice, now);
+    for (const id of failed) this.log(`job ${id} failed: its workers stopped responding on every attempt`);
+    if (failed.length > 0) this.o.mailSender?.kick();
     for (const id of cancelled) this.log(`job ${id} cancelled after its worker stopped`);
   }
 
@@ -219,7 +216,9 @@ export class QueueRunner {
         this.log(`job ${job.id}: result of an earlier attempt found in storage, recording it`);
       } else {
         const out = await this.solve(lease, recorder, signal);
-        await retrying(() => putObject(resultKey, out.resultJson, "application/json"));
+        // a computed result is worth waiting for: storage gets minutes, not seconds, to come
+        // back while the lease is renewed (the job is handed back only after that)
+        await retrying(() => putObject(resultKey, out.resultJson, "application/json"), 30, () => signal.aborted);
         summary = out.summary;
         message = solverFailureMessage(out.message, out.hint);
         resultText = out.resultJson;
@@ -227,17 +226,18 @@ export class QueueRunner {
       await recorder.close();
       if (summary.status === "failed") {
         // the solver broke down: no design to review, so the job fails with the solver's words
-        if (await retrying(() => failJob(db, lease, message))) {
+        if (await retrying(() => recordFailure(db, lease, message, this.mailChoice))) {
           this.stats.failed++;
           this.log(`job ${job.id} failed: ${message}`);
-          await this.notifyFinished(job.id);
+          this.o.mailSender?.kick();
         }
         return;
       }
-      if (await retrying(() => completeJob(db, lease, { resultKey, summary, outcome: summary.status }))) {
+      const reviewRequested = this.reviewRequested(job.id, resultText);
+      if (await retrying(() => recordSuccess(db, lease, { resultKey, summary, outcome: summary.status }, { ...this.mailChoice, reviewRequested }))) {
         this.stats.succeeded++;
         this.log(`job ${job.id} succeeded (${summary.status}, ${summary.iterations} iterations, ${Date.now() - started} ms)`);
-        await this.notifyFinished(job.id, resultText);
+        this.o.mailSender?.kick();
       } else {
         this.stats.lost++;
         this.log(`job ${job.id}: finished, but another worker holds it now; its record is left to that worker`);
@@ -254,12 +254,18 @@ export class QueueRunner {
       } else if (why === "shutdown") {
         if (await retrying(() => requeueJob(db, lease))) this.stats.requeued++;
         this.log(`job ${job.id} handed back to the queue (worker stopping)`);
+      } else if (e instanceof DependencyUnavailableError && e.dependency === "storage") {
+        // not the job's fault: back to the queue without spending an attempt; its page says
+        // it waits for storage, and it runs again once storage answers
+        const until = new Date(Date.now() + backoffDelay(2, { baseMs: this.o.storageWaitMs ?? 2000, capMs: 60_000 }));
+        if (await retrying(() => requeueJob(db, lease, { for: "storage", until }))) this.stats.waitedForStorage++;
+        this.log(`job ${job.id} waits for storage: ${e.reason}`);
       } else {
         const message = why === "time" ? timeLimitMessage(this.o.timeLimitMs) : describeTaskError(e, this.o.maxOldGenerationMb);
-        if (await retrying(() => failJob(db, lease, message))) {
+        if (await retrying(() => recordFailure(db, lease, message, this.mailChoice))) {
           this.stats.failed++;
           this.log(`job ${job.id} failed: ${message}`);
-          await this.notifyFinished(job.id);
+          this.o.mailSender?.kick();
         }
       }
     } finally {
@@ -279,7 +285,7 @@ export class QueueRunner {
             .where(and(eq(modelVersions.modelId, job.modelId), eq(modelVersions.version, job.modelVersion)))
             .limit(1);
     if (!model) throw new Error(`The model ${job.modelId}${job.modelVersion === null ? "" : ` version ${job.modelVersion}`} of this job no longer exists`);
-    const modelText = await retrying(() => getText(model.fileKey));
+    const modelText = await retrying(() => getText(model.fileKey), 3);
     if (modelText === null) throw new Error(`The file of model ${job.modelId} is missing from storage (${model.fileKey})`);
     signal.throwIfAborted();
 
@@ -304,41 +310,38 @@ export class QueueRunner {
     }
   }
 
+  private get mailChoice() {
+    return { notify: this.o.notify !== false };
+  }
+
   /**
-   * Mails about a job that ended: always to the submitter; to the checkers only for a
-   * succeeded run (its stored result text given) whose design is worth a review: an optimum,
-   * or a not-converged run whose best design meets every limit (review-request.ts).
+   * Whether the checkers are asked to review a succeeded run (its stored result text): an
+   * optimum, or a not-converged run whose best design meets every limit (review-request.ts).
    */
-  private async notifyFinished(jobId: string, resultText?: string): Promise<void> {
-    if (this.o.notify === false) return;
-    // imported on first use: the mail module reads the config, tests of the loop need no SMTP
-    const { notifyJobFinished, notifyReviewWaiting } = await import("~/lib/notify.server");
-    let review = false;
-    if (resultText !== undefined) {
-      try {
-        review = designWorthReview(JSON.parse(resultText) as TrussResult);
-      } catch (e) {
-        this.log(`job ${jobId}: result not readable, no review requested: ${(e as Error).message}`);
-      }
+  private reviewRequested(jobId: string, resultText: string): boolean {
+    try {
+      return designWorthReview(JSON.parse(resultText) as TrussResult);
+    } catch (e) {
+      this.log(`job ${jobId}: result not readable, no review requested: ${(e as Error).message}`);
+      return false;
     }
-    await notifyJobFinished(jobId, { reviewRequested: review }).catch((e) => this.log(`job ${jobId}: finish mail failed: ${(e as Error).message}`));
-    if (review) await notifyReviewWaiting(jobId).catch((e) => this.log(`job ${jobId}: review mail failed: ${(e as Error).message}`));
   }
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 /**
- * A storage or database call retried over a few seconds: a busy database or a brief network
- * fault must not turn a finished solve into a failed job. The last error propagates.
+ * A storage or database call retried with backoff and jitter (a busy database or a brief
+ * network fault must not turn a finished solve into a failed job); `tries` of them, the
+ * delays growing to 5 s, or until `giveUp` says so. The last error propagates.
  */
-async function retrying<T>(fn: () => Promise<T>, tries = 5): Promise<T> {
+async function retrying<T>(fn: () => Promise<T>, tries = 6, giveUp: () => boolean = () => false): Promise<T> {
   for (let i = 1; ; i++) {
     try {
       return await fn();
     } catch (e) {
-      if (i >= tries) throw e;
-      await sleep(200 * 2 ** (i - 1));
+      if (i >= tries || giveUp()) throw e;
+      await sleep(backoffDelay(i, { baseMs: 200, capMs: 5000 }));
     }
   }
 }

@@ -1,5 +1,6 @@
 // `npm run worker`: one queue worker process. It claims jobs from the shared database while
-// its piscina threads are free; any number of these may run, on one host or several.
+// its piscina threads are free, and delivers the mail outbox; any number of these may run,
+// on one host or several.
 // SIGTERM / SIGINT: stop claiming, let running jobs finish for a grace period, then hand the
 // rest back to the queue. A second signal hands them back at once.
 import { sql } from "drizzle-orm";
@@ -7,8 +8,9 @@ import { db } from "~/db/client.server";
 import { migrateDb } from "~/db/migrate.server";
 import { config } from "~/lib/config.server";
 import { ensureToolsBundle } from "../scripts/tools-bundle.mjs";
+import { MailSender } from "~/lib/mail/sender.server";
 import { createSolvePool } from "./pool";
-import { QueueRunner } from "./queue-runner";
+import { QueueRunner, newWorkerId } from "./queue-runner";
 
 const GRACE_MS = Number(process.env.WORKER_SHUTDOWN_GRACE_MS ?? 20_000);
 
@@ -32,14 +34,19 @@ async function main() {
   const bundled = await ensureToolsBundle().catch((e: Error) => `not bundled (${e.message}); the threads compile TypeScript`);
   if (bundled) console.log(`[worker] solver threads: ${bundled}`);
   const pool = createSolvePool();
+  const workerId = newWorkerId();
+  const mailSender = new MailSender({ db: db(), senderId: workerId });
   const runner = new QueueRunner({
     db: db(),
     pool,
+    workerId,
+    mailSender,
     leaseMs: c.JOB_LEASE_MS,
     timeLimitMs: c.JOB_TIME_LIMIT_MS,
     maxOldGenerationMb: c.WORKER_MAX_OLD_GENERATION_MB,
   });
   runner.start();
+  mailSender.start();
   console.log(`[worker ${runner.workerId}] serving the queue with ${pool.options.maxThreads} thread(s), lease ${c.JOB_LEASE_MS} ms`);
 
   let signals = 0;
@@ -48,10 +55,12 @@ async function main() {
     if (signals > 1) {
       console.log(`[worker ${runner.workerId}] ${sig} again: handing running jobs back now`);
       await runner.stop(0);
+      await mailSender.stop();
       return;
     }
     console.log(`[worker ${runner.workerId}] ${sig}: no new jobs; finishing the running ones`);
     await runner.stop(GRACE_MS);
+    await mailSender.stop();
     await pool.destroy();
     console.log(`[worker ${runner.workerId}] stopped (${JSON.stringify(runner.stats)})`);
     process.exit(0);

@@ -75,6 +75,10 @@ export const jobs = sqliteTable(
     progressMaxViolation: real("progress_max_violation"),
     progressKktResidual: real("progress_kkt_residual"),
     progressAt: integer("progress_at", { mode: "timestamp_ms" }),
+    // a job handed back because a service it needs did not answer ("storage"): the page says
+    // so, and no worker takes it again before available_at
+    waitingFor: text("waiting_for"),
+    availableAt: integer("available_at", { mode: "timestamp_ms" }),
   },
   (t) => [
     index("jobs_status_created_idx").on(t.status, t.createdAt),
@@ -153,3 +157,4 @@ export const invitations = sqliteTable("invitations", {
 export * from "./tables/catalogues";
 export * from "./tables/model-versions";
 export * from "./tables/project-members";
+export * from "./tables/mail-outbox";

@@ -1,7 +1,7 @@
 // One job with the model it ran, the project it belongs to and the account that submitted it:
 // the rows the notification mails and the calculation report both start from.
 import { eq } from "drizzle-orm";
-import { db } from "~/db/client.server";
+import { db, type DbExecutor } from "~/db/client.server";
 import { jobs, models, projects, user } from "~/db/schema";
 
 export interface JobWithModel {
@@ -13,8 +13,8 @@ export interface JobWithModel {
 }
 
 /** The job's rows, or null when there is no job of that id. */
-export async function loadJobWithModel(jobId: string): Promise<JobWithModel | null> {
-  const rows = await db()
+export async function loadJobWithModel(jobId: string, database: DbExecutor = db()): Promise<JobWithModel | null> {
+  const rows = await database
     .select({ job: jobs, model: models, project: projects, submitterId: user.id, submitterName: user.name, submitterEmail: user.email })
     .from(jobs)
     .innerJoin(models, eq(models.id, jobs.modelId))

@@ -1,4 +1,6 @@
 // Outgoing mail through nodemailer: the local catcher in development, any SMTP server otherwise.
+// Only the outbox sender (mail/sender.server.ts) calls sendMail; everything else queues mail
+// with enqueueMail (mail/outbox.server.ts) so that it is stored with the change it reports.
 import nodemailer, { type Transporter } from "nodemailer";
 import { config } from "./config.server";
 
@@ -12,6 +14,10 @@ export function mailer(): Transporter {
       secure: c.SMTP_SECURE,
       ignoreTLS: !c.SMTP_SECURE && c.SMTP_HOST === "127.0.0.1",
       auth: c.SMTP_USER ? { user: c.SMTP_USER, pass: c.SMTP_PASSWORD ?? "" } : undefined,
+      // an unreachable server must fail a try quickly; the outbox retries it later
+      connectionTimeout: 10_000,
+      greetingTimeout: 10_000,
+      socketTimeout: 30_000,
     });
   }
   return transport;
@@ -22,6 +28,8 @@ export interface Mail {
   subject: string;
   text: string;
   html?: string;
+  /** the same id on every delivery of one outbox row, so a repeated delivery can be dropped */
+  messageId?: string;
 }
 
 export async function sendMail(mail: Mail): Promise<void> {

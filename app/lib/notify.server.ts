@@ -1,23 +1,35 @@
 // E-mail notifications of the job workflow (product.md, step 6): the submitter hears when a
 // job ends and when a checker decides; checkers hear when a review is waiting. Each mail has
-// plain text and a simple HTML part, and a link to the job page. A mail failure never reaches
-// the caller (the queue and the review action go on); it is logged with the job it was for.
+// plain text and a simple HTML part, and a link to the job page. The *Mails functions compose
+// outbox rows (mail/outbox.server.ts) for a change about to be recorded, described by `end`;
+// the caller stores them in the same batch as the change (jobs/outcome.server.ts,
+// auth/reviews.server.ts): both are stored or neither. The outbox sender in the worker
+// delivers them (mail/sender.server.ts). The queue* functions do the same for a change
+// already recorded.
 import { and, eq, ne } from "drizzle-orm";
-import { db } from "~/db/client.server";
+import type { DbExecutor } from "~/db/client.server";
 import { reviews, user } from "~/db/schema";
 import { config } from "~/lib/config.server";
 import { loadJobWithModel } from "~/lib/job-with-model.server";
-import { sendMail, type Mail } from "~/lib/mail.server";
+import type { Mail } from "~/lib/mail.server";
+import { enqueueMail, type OutboxMail } from "~/lib/mail/outbox.server";
 import { formatDateTime, formatNumber } from "~/lib/format";
 import { memberOfJobProject } from "~/lib/project-scope.server";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
+
+/** How a job is about to end, when its mail is composed before the row says so. */
+export interface JobEnd {
+  status: "succeeded" | "failed" | "cancelled";
+  outcome?: string | null;
+  error?: string | null;
+  summary?: unknown;
+}
 
 interface JobFacts {
   id: string;
   status: string;
   outcome: string | null;
   error: string | null;
-  finishedAt: Date | null;
   modelName: string;
   projectCode: string;
   projectName: string;
@@ -25,20 +37,20 @@ interface JobFacts {
   summary: { objectiveKind?: string; objectiveInitial?: number; objectiveFinal?: number; iterations?: number } | null;
 }
 
-async function jobFacts(jobId: string): Promise<JobFacts | null> {
-  const r = await loadJobWithModel(jobId);
+async function jobFacts(database: DbExecutor, jobId: string, end?: JobEnd): Promise<JobFacts | null> {
+  const r = await loadJobWithModel(jobId, database);
   if (!r) return null;
+  const job = end ? { ...r.job, status: end.status, outcome: end.outcome ?? null, error: end.error ?? null, summary: end.summary ?? null } : r.job;
   return {
-    id: r.job.id,
-    status: r.job.status,
-    outcome: r.job.outcome,
-    error: r.job.error,
-    finishedAt: r.job.finishedAt,
+    id: job.id,
+    status: job.status,
+    outcome: job.outcome,
+    error: job.error,
     modelName: r.model.name,
     projectCode: r.project.code,
     projectName: r.project.name,
     submitter: r.submitter,
-    summary: (r.job.summary as JobFacts["summary"]) ?? null,
+    summary: (job.summary as JobFacts["summary"]) ?? null,
   };
 }
 
@@ -109,14 +121,18 @@ function jobFactRows(j: JobFacts): [string, string][] {
   ];
 }
 
-/** Runs one notification; logs instead of throwing, so the caller's work goes on. */
-async function guarded(what: string, fn: () => Promise<void>): Promise<void> {
-  try {
-    await fn();
-  } catch (e) {
-    const reason = e instanceof Error ? e.message : String(e);
-    console.error(`[notify] could not send the ${what} mail: ${reason}`);
-  }
+/** A composed mail as an outbox row about a job. */
+function outboxMail(kind: string, dedupeKey: string, mail: Mail & { to: string }, jobId: string): OutboxMail {
+  return { kind, dedupeKey, to: mail.to, subject: mail.subject, text: mail.text, html: mail.html, entity: { type: "job", id: jobId } };
+}
+
+async function enqueueAll(database: DbExecutor, mails: OutboxMail[]): Promise<void> {
+  for (const m of mails) await enqueueMail(database, m);
+}
+
+function warn(line: string): [] {
+  console.warn(line);
+  return [];
 }
 
 /** Why a finished run asks no checker for review, in the submitter's words. */
@@ -132,46 +148,46 @@ function noReviewReason(outcome: string): string {
  * from the result, see review-request.ts); without it, every outcome but infeasible or failed
  * counts as asked.
  */
-export async function notifyJobFinished(jobId: string, opts: { reviewRequested?: boolean } = {}): Promise<void> {
-  await guarded(`job-finished (job ${jobId})`, async () => {
-    const j = await jobFacts(jobId);
-    if (!j) throw new Error(`job ${jobId} does not exist`);
-    if (!j.submitter) return console.warn(`[notify] job ${jobId} has no submitter to tell`);
-    if (j.status !== "succeeded" && j.status !== "failed" && j.status !== "cancelled")
-      return console.warn(`[notify] job ${jobId} is still ${j.status}; no finished mail sent`);
-    const facts = jobFactRows(j);
-    let subject: string;
-    let paragraphs: string[];
-    if (j.status === "succeeded") {
-      const outcome = j.outcome ?? "optimal";
-      subject = `Job finished: ${j.modelName} (${outcome})${jobTag(j.id)}`;
-      paragraphs = [`Your optimization run of "${j.modelName}" has finished: ${OUTCOME_WORDS[outcome] ?? outcome}.`];
-      const s = j.summary;
-      if (s) {
-        facts.push([`Objective (${s.objectiveKind ?? "mass"})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
-        if (s.iterations !== undefined) facts.push(["Iterations", String(s.iterations)]);
-      }
-      const asked = (opts.reviewRequested ?? true) && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);
-      paragraphs.push(asked ? "A checker still has to review it before the report is approved." : noReviewReason(outcome));
-    } else if (j.status === "failed") {
-      subject = `Job failed: ${j.modelName}${jobTag(j.id)}`;
-      paragraphs = [`Your optimization run of "${j.modelName}" failed.`, j.error ? `Reason: ${j.error}` : "No reason was recorded."];
-    } else {
-      subject = `Job cancelled: ${j.modelName}${jobTag(j.id)}`;
-      paragraphs = [`Your optimization run of "${j.modelName}" was cancelled before it finished.`];
+export async function jobFinishedMails(database: DbExecutor, jobId: string, opts: { reviewRequested?: boolean; end?: JobEnd } = {}): Promise<OutboxMail[]> {
+  const j = await jobFacts(database, jobId, opts.end);
+  if (!j) throw new Error(`job ${jobId} does not exist`);
+  if (!j.submitter) return warn(`[notify] job ${jobId} has no submitter to tell`);
+  if (j.status !== "succeeded" && j.status !== "failed" && j.status !== "cancelled") return warn(`[notify] job ${jobId} is still ${j.status}; no finished mail sent`);
+  const facts = jobFactRows(j);
+  let subject: string;
+  let paragraphs: string[];
+  if (j.status === "succeeded") {
+    const outcome = j.outcome ?? "optimal";
+    subject = `Job finished: ${j.modelName} (${outcome})${jobTag(j.id)}`;
+    paragraphs = [`Your optimization run of "${j.modelName}" has finished: ${OUTCOME_WORDS[outcome] ?? outcome}.`];
+    const s = j.summary;
+    if (s) {
+      facts.push([`Objective (${s.objectiveKind ?? "mass"})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
+      if (s.iterations !== undefined) facts.push(["Iterations", String(s.iterations)]);
     }
-    await sendMail(
-      composeMail({
-        to: j.submitter.email,
-        subject,
-        greeting: `Hello ${j.submitter.name || j.submitter.email},`,
-        paragraphs,
-        facts,
-        link: jobLink(j.id),
-        linkLabel: "Open the job",
-      }),
-    );
+    const asked = (opts.reviewRequested ?? true) && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);
+    paragraphs.push(asked ? "A checker still has to review it before the report is approved." : noReviewReason(outcome));
+  } else if (j.status === "failed") {
+    subject = `Job failed: ${j.modelName}${jobTag(j.id)}`;
+    paragraphs = [`Your optimization run of "${j.modelName}" failed.`, j.error ? `Reason: ${j.error}` : "No reason was recorded."];
+  } else {
+    subject = `Job cancelled: ${j.modelName}${jobTag(j.id)}`;
+    paragraphs = [`Your optimization run of "${j.modelName}" was cancelled before it finished.`];
+  }
+  const mail = composeMail({
+    to: j.submitter.email,
+    subject,
+    greeting: `Hello ${j.submitter.name || j.submitter.email},`,
+    paragraphs,
+    facts,
+    link: jobLink(j.id),
+    linkLabel: "Open the job",
   });
+  return [outboxMail("job-finished", `job-finished:${j.id}`, { ...mail, to: j.submitter.email }, j.id)];
+}
+
+export async function queueJobFinishedMail(database: DbExecutor, jobId: string, opts: { reviewRequested?: boolean } = {}): Promise<void> {
+  await enqueueAll(database, await jobFinishedMails(database, jobId, opts));
 }
 
 /**
@@ -179,81 +195,84 @@ export async function notifyJobFinished(jobId: string, opts: { reviewRequested?:
  * The caller decides that the design is worth reviewing (review-request.ts); a job that did
  * not succeed, or whose outcome leaves nothing to sign off, is refused here all the same.
  */
-export async function notifyReviewWaiting(jobId: string): Promise<void> {
-  await guarded(`review-waiting (job ${jobId})`, async () => {
-    const j = await jobFacts(jobId);
-    if (!j) throw new Error(`job ${jobId} does not exist`);
-    if (j.status !== "succeeded" || OUTCOMES_WITHOUT_REVIEW.includes(j.outcome ?? ""))
-      return console.warn(`[notify] job ${jobId} is ${j.status}${j.outcome ? ` (${j.outcome})` : ""}: nothing for a checker to review, no review mail sent`);
-    const checkers = await db()
-      .select({ email: user.email, name: user.name, banned: user.banned })
-      .from(user)
-      // only checkers of the job's project hear of it (issue 14: nothing outside one's projects)
-      .where(and(eq(user.role, "checker"), memberOfJobProject(user.id, jobId), j.submitter ? ne(user.id, j.submitter.id) : undefined));
-    const to = checkers.filter((c) => !c.banned).map((c) => c.email);
-    if (to.length === 0) return console.warn(`[notify] no checker to tell about job ${jobId}`);
-    const by = j.submitter ? j.submitter.name || j.submitter.email : "an engineer";
-    // one mail per checker: nobody sees the other recipients, and one bad address does not
-    // hold back the rest
-    for (const email of to) {
-      await guarded(`review-waiting to ${email} (job ${jobId})`, () =>
-        sendMail(
-          composeMail({
-            to: email,
-            subject: `Review waiting: ${j.modelName}${jobTag(j.id)}`,
-            greeting: "Hello,",
-            paragraphs: [
-              `${by} has finished an optimization run of "${j.modelName}" and it is waiting for an independent check.`,
-              "Approve it, or return it with comments, from the job page.",
-            ],
-            facts: [...jobFactRows(j), ["Submitted by", by]],
-            link: jobLink(j.id),
-            linkLabel: "Review the job",
-          }),
-        ),
-      );
-    }
-  });
+export async function reviewWaitingMails(database: DbExecutor, jobId: string, end?: JobEnd): Promise<OutboxMail[]> {
+  const j = await jobFacts(database, jobId, end);
+  if (!j) throw new Error(`job ${jobId} does not exist`);
+  if (j.status !== "succeeded" || OUTCOMES_WITHOUT_REVIEW.includes(j.outcome ?? ""))
+    return warn(`[notify] job ${jobId} is ${j.status}${j.outcome ? ` (${j.outcome})` : ""}: nothing for a checker to review, no review mail sent`);
+  const checkers = await database
+    .select({ email: user.email, name: user.name, banned: user.banned })
+    .from(user)
+    // only checkers of the job's project hear of it (issue 14: nothing outside one's projects)
+    .where(and(eq(user.role, "checker"), memberOfJobProject(user.id, jobId), j.submitter ? ne(user.id, j.submitter.id) : undefined));
+  const to = checkers.filter((c) => !c.banned).map((c) => c.email);
+  if (to.length === 0) return warn(`[notify] no checker to tell about job ${jobId}`);
+  const by = j.submitter ? j.submitter.name || j.submitter.email : "an engineer";
+  // one mail per checker: nobody sees the other recipients, and one bad address does not
+  // hold back the rest
+  const mails: OutboxMail[] = [];
+  for (const email of to) {
+    const mail = composeMail({
+      to: email,
+      subject: `Review waiting: ${j.modelName}${jobTag(j.id)}`,
+      greeting: "Hello,",
+      paragraphs: [
+        `${by} has finished an optimization run of "${j.modelName}" and it is waiting for an independent check.`,
+        "Approve it, or return it with comments, from the job page.",
+      ],
+      facts: [...jobFactRows(j), ["Submitted by", by]],
+      link: jobLink(j.id),
+      linkLabel: "Review the job",
+    });
+    mails.push(outboxMail("review-waiting", `review-waiting:${j.id}:${email.toLowerCase()}`, { ...mail, to: email }, j.id));
+  }
+  return mails;
 }
 
-/** To the submitter: a checker approved the job or asked for changes. */
-export async function notifyDecision(reviewId: string): Promise<void> {
-  await guarded(`decision (review ${reviewId})`, async () => {
-    const rows = await db()
-      .select({
-        jobId: reviews.jobId,
-        decision: reviews.decision,
-        comment: reviews.comment,
-        createdAt: reviews.createdAt,
-        reviewerName: user.name,
-        reviewerEmail: user.email,
-      })
-      .from(reviews)
-      .innerJoin(user, eq(user.id, reviews.reviewerId))
-      .where(eq(reviews.id, reviewId))
-      .limit(1);
-    const r = rows[0];
-    if (!r) throw new Error(`review ${reviewId} does not exist`);
-    const j = await jobFacts(r.jobId);
-    if (!j) throw new Error(`job ${r.jobId} of review ${reviewId} does not exist`);
-    if (!j.submitter) return console.warn(`[notify] job ${j.id} has no submitter to tell`);
-    const reviewer = r.reviewerName || r.reviewerEmail;
-    const approved = r.decision === "approved";
-    await sendMail(
-      composeMail({
-        to: j.submitter.email,
-        subject: `${approved ? "Approved" : "Changes requested"}: ${j.modelName}${jobTag(j.id)}`,
-        greeting: `Hello ${j.submitter.name || j.submitter.email},`,
-        paragraphs: [
-          approved
-            ? `${reviewer} has checked and approved your optimization run of "${j.modelName}". The report now carries the approval.`
-            : `${reviewer} has checked your optimization run of "${j.modelName}" and requests changes.`,
-          `Comment: ${r.comment || "(none)"}`,
-        ],
-        facts: [...jobFactRows(j), ["Checked by", reviewer], ["Decided", formatDateTime(r.createdAt)]],
-        link: jobLink(j.id),
-        linkLabel: "Open the job",
-      }),
-    );
+export async function queueReviewWaitingMails(database: DbExecutor, jobId: string): Promise<void> {
+  await enqueueAll(database, await reviewWaitingMails(database, jobId));
+}
+
+export interface DecisionFacts {
+  id: string;
+  jobId: string;
+  reviewerId: string;
+  decision: "approved" | "changes-requested";
+  comment: string;
+  createdAt: Date;
+}
+
+/** To the submitter: a checker approved the job or asked for changes (the review as it is recorded). */
+export async function decisionMails(database: DbExecutor, review: DecisionFacts): Promise<OutboxMail[]> {
+  const [who] = await database.select({ name: user.name, email: user.email }).from(user).where(eq(user.id, review.reviewerId)).limit(1);
+  if (!who) throw new Error(`reviewer ${review.reviewerId} of review ${review.id} does not exist`);
+  const r = { ...review, reviewerName: who.name, reviewerEmail: who.email };
+  const reviewId = review.id;
+  const j = await jobFacts(database, r.jobId);
+  if (!j) throw new Error(`job ${r.jobId} of review ${reviewId} does not exist`);
+  if (!j.submitter) return warn(`[notify] job ${j.id} has no submitter to tell`);
+  const reviewer = r.reviewerName || r.reviewerEmail;
+  const approved = r.decision === "approved";
+  const mail = composeMail({
+    to: j.submitter.email,
+    subject: `${approved ? "Approved" : "Changes requested"}: ${j.modelName}${jobTag(j.id)}`,
+    greeting: `Hello ${j.submitter.name || j.submitter.email},`,
+    paragraphs: [
+      approved
+        ? `${reviewer} has checked and approved your optimization run of "${j.modelName}". The report now carries the approval.`
+        : `${reviewer} has checked your optimization run of "${j.modelName}" and requests changes.`,
+      `Comment: ${r.comment || "(none)"}`,
+    ],
+    facts: [...jobFactRows(j), ["Checked by", reviewer], ["Decided", formatDateTime(r.createdAt)]],
+    link: jobLink(j.id),
+    linkLabel: "Open the job",
   });
+  return [outboxMail("decision", `decision:${reviewId}`, { ...mail, to: j.submitter.email }, j.id)];
+}
+
+/** decisionMails of a recorded review, queued. */
+export async function queueDecisionMail(database: DbExecutor, reviewId: string): Promise<void> {
+  const [r] = await database.select().from(reviews).where(eq(reviews.id, reviewId)).limit(1);
+  if (!r) throw new Error(`review ${reviewId} does not exist`);
+  await enqueueAll(database, await decisionMails(database, r));
 }

@@ -8,6 +8,7 @@ import {
   NoSuchKey,
 } from "@aws-sdk/client-s3";
 import { config } from "./config.server";
+import { describeError, DependencyUnavailableError, isNetworkError } from "./dependencies";
 
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= "true";
 
@@ -37,8 +38,19 @@ export async function ensureBucket(): Promise<void> {
   }
 }
 
+/** A store that does not answer, or answers 5xx, is unavailable; anything else is a real error. */
+function storageError(e: unknown): unknown {
+  const status = (e as { $metadata?: { httpStatusCode?: number } }).$metadata?.httpStatusCode;
+  if (isNetworkError(e) || (status !== undefined && status >= 500)) return new DependencyUnavailableError("storage", describeError(e));
+  return e;
+}
+
 export async function putObject(key: string, body: string | Uint8Array, contentType: string): Promise<void> {
-  await s3().send(new PutObjectCommand({ Bucket: config().S3_BUCKET, Key: key, Body: body, ContentType: contentType }));
+  try {
+    await s3().send(new PutObjectCommand({ Bucket: config().S3_BUCKET, Key: key, Body: body, ContentType: contentType }));
+  } catch (e) {
+    throw storageError(e);
+  }
 }
 
 /** The object's bytes, or null when there is no such key. */
@@ -48,7 +60,7 @@ export async function getObject(key: string): Promise<Uint8Array | null> {
     return out.Body ? await out.Body.transformToByteArray() : new Uint8Array();
   } catch (e) {
     if (e instanceof NoSuchKey || (e as { name?: string }).name === "NoSuchKey") return null;
-    throw e;
+    throw storageError(e);
   }
 }
 

@@ -3,6 +3,9 @@
 // when NODE_ENV is "development", where the mail is all test traffic of the demo accounts.
 import { forbidden, requireUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
+import { db } from "~/db/client.server";
+import { listUndeliveredMail } from "~/lib/mail/outbox.server";
+import { UndeliveredMail } from "~/components/mail/UndeliveredMail";
 import type { CaughtMail } from "../../local-services/mail-catcher";
 import type { Route } from "./+types/dev.inbox";
 import { RouteError } from "~/components/ui/RouteError";
@@ -16,7 +19,12 @@ export async function loader({ request }: Route.LoaderArgs) {
   const c = config();
   if (c.NODE_ENV !== "development" && user.role !== "admin")
     throw forbidden(`The development inbox is for admins outside development; your role is ${user.role}`);
-  const base = c.MAIL_CATCHER_URL?.replace(/\/+$/, "");
+  const undelivered = await listUndeliveredMail(db());
+  return { ...(await caughtMail(c.MAIL_CATCHER_URL)), undelivered };
+}
+
+async function caughtMail(url: string | undefined) {
+  const base = url?.replace(/\/+$/, "");
   if (!base) return { catcher: null, messages: [] as CaughtMail[], problem: "No mail catcher is configured (MAIL_CATCHER_URL is empty)." };
   try {
     const res = await fetch(`${base}/messages`, { signal: AbortSignal.timeout(3000) });
@@ -48,13 +56,19 @@ function Linked({ text }: { text: string }) {
 }
 
 export default function DevInbox({ loaderData }: Route.ComponentProps) {
-  const { catcher, messages, problem } = loaderData;
+  const { catcher, messages, problem, undelivered } = loaderData;
   return (
     <section>
       <h1 className="text-3xl font-semibold tracking-tight">Development inbox</h1>
       <p className="mt-1 text-ink-soft">
         Mail the desk sent, as the local mail catcher received it{catcher ? ` (${catcher})` : ""}. Newest first; nothing here leaves this machine.
       </p>
+      {undelivered.length > 0 ? (
+        <div className="card mt-6 p-0" data-testid="undelivered-mail">
+          <h2 className="px-5 pt-4 text-lg font-semibold">Not delivered yet ({undelivered.length})</h2>
+          <UndeliveredMail rows={undelivered} />
+        </div>
+      ) : null}
       {problem ? (
         <p className="caution mt-6" role="status">
           {problem}

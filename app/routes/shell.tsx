@@ -43,6 +43,9 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
           <NavLink to="/admin/audit" className={link} onClick={() => setOpen(false)} data-testid="nav-admin-audit">
             Audit
           </NavLink>
+          <NavLink to="/admin/mail" className={link} onClick={() => setOpen(false)} data-testid="nav-admin-mail">
+            Mail
+          </NavLink>
         </>
       )}
     </>

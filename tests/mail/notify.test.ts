@@ -1,5 +1,6 @@
-// Notifications end to end: nodemailer → the SMTP mail catcher (local-services), read back
-// through the catcher's HTTP API like the development inbox does. The mail parser of the
+// Notifications end to end: queued in the outbox in a transaction, delivered by the outbox
+// sender through nodemailer → the SMTP mail catcher (local-services), read back through the
+// catcher's HTTP API like the development inbox does. The mail parser of the
 // catcher (mailparser) is the outside reader: recipients, subject and link as a client sees them.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { startTestServices, type TestServices } from "../support/services";
@@ -7,6 +8,14 @@ import { startTestServices, type TestServices } from "../support/services";
 let svc: TestServices;
 let notify: typeof import("~/lib/notify.server");
 let rows: typeof import("./seed-rows");
+let sender: import("~/lib/mail/sender.server").MailSender;
+let inTx: (fn: (tx: import("~/db/client.server").DbExecutor) => Promise<void>) => Promise<void>;
+
+/** Queue the mails of a recorded change, then let the sender deliver what is due. */
+async function send(fn: (tx: import("~/db/client.server").DbExecutor) => Promise<void>): Promise<void> {
+  await inTx(fn);
+  await sender.deliverDue();
+}
 
 interface Caught { to: string[]; subject: string; text: string; html?: string }
 async function inbox(): Promise<Caught[]> {
@@ -21,6 +30,9 @@ beforeAll(async () => {
   const { migrateDb } = await import("~/db/migrate.server");
   await migrateDb(db());
   notify = await import("~/lib/notify.server");
+  const { MailSender } = await import("~/lib/mail/sender.server");
+  sender = new MailSender({ db: db(), senderId: "test-sender", log: () => undefined, backoff: { baseMs: 1, capMs: 1 } });
+  inTx = (fn) => fn(db());
   rows = await import("./seed-rows");
   await rows.insertUser("u-eng", "Ines Okafor", "ines.okafor@brightspan.example", "engineer");
   await rows.insertUser("u-chk1", "Tomasz Réveillon", "tomasz.reveillon@brightspan.example", "checker");
@@ -43,7 +55,7 @@ beforeEach(() => svc.mail.clear());
 
 describe("notifyJobFinished", () => {
   it("tells the submitter that the job finished, with its figures and a link to the job", async () => {
-    await notify.notifyJobFinished("job-ok-001");
+    await send((tx) => notify.queueJobFinishedMail(tx, "job-ok-001"));
     const mails = await inbox();
     expect(mails).toHaveLength(1);
     expect(mails[0]!.to).toEqual(["ines.okafor@brightspan.example"]);
@@ -54,7 +66,7 @@ describe("notifyJobFinished", () => {
   });
 
   it("tells the submitter that the job failed and why", async () => {
-    await notify.notifyJobFinished("job-bad-002");
+    await send((tx) => notify.queueJobFinishedMail(tx, "job-bad-002"));
     const [mail] = await inbox();
     expect(mail!.to).toEqual(["ines.okafor@brightspan.example"]);
     expect(mail!.subject).toBe("Job failed: Canopy truss, option C · job job-bad-");
@@ -65,7 +77,7 @@ describe("notifyJobFinished", () => {
 
 describe("notifyReviewWaiting", () => {
   it("writes to every checker, one mail each, and to nobody else", async () => {
-    await notify.notifyReviewWaiting("job-ok-001");
+    await send((tx) => notify.queueReviewWaitingMails(tx, "job-ok-001"));
     const mails = await inbox();
     const to = mails.flatMap((m) => m.to).sort();
     expect(to).toEqual(["mara.e@brightspan.example", "priya.v@brightspan.example", "tomasz.reveillon@brightspan.example"]);
@@ -83,7 +95,7 @@ describe("notifyReviewWaiting", () => {
   });
 
   it("leaves out a checker who submitted the job (four-eyes rule)", async () => {
-    await notify.notifyReviewWaiting("job-self-003");
+    await send((tx) => notify.queueReviewWaitingMails(tx, "job-self-003"));
     const to = (await inbox()).flatMap((m) => m.to).sort();
     expect(to).toEqual(["priya.v@brightspan.example", "tomasz.reveillon@brightspan.example"]);
   });
@@ -91,7 +103,7 @@ describe("notifyReviewWaiting", () => {
 
 describe("runs with nothing to review", () => {
   it("tells the submitter an infeasible run ended, and that no checker was asked", async () => {
-    await notify.notifyJobFinished("job-infeas-004", { reviewRequested: false });
+    await send((tx) => notify.queueJobFinishedMail(tx, "job-infeas-004", { reviewRequested: false }));
     const mails = await inbox();
     expect(mails.map((m) => m.to)).toEqual([["ines.okafor@brightspan.example"]]);
     expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (infeasible) · job job-infe");
@@ -104,7 +116,7 @@ describe("runs with nothing to review", () => {
     const orig = console.warn;
     console.warn = (...a: unknown[]) => void warned.push(a.join(" "));
     try {
-      await notify.notifyReviewWaiting("job-infeas-004");
+      await send((tx) => notify.queueReviewWaitingMails(tx, "job-infeas-004"));
     } finally {
       console.warn = orig;
     }
@@ -116,7 +128,7 @@ describe("runs with nothing to review", () => {
 describe("notifyDecision", () => {
   it("tells the submitter about an approval with the checker's name and comment", async () => {
     await rows.insertReview("rev-a", "job-ok-001", "u-chk1", "approved", "Chord groups checked by hand; fine.", new Date("2026-11-30T14:30:00Z"));
-    await notify.notifyDecision("rev-a");
+    await send((tx) => notify.queueDecisionMail(tx, "rev-a"));
     const [mail] = await inbox();
     expect(mail!.to).toEqual(["ines.okafor@brightspan.example"]);
     expect(mail!.subject).toBe("Approved: Canopy truss, option C · job job-ok-0");
@@ -127,7 +139,7 @@ describe("notifyDecision", () => {
 
   it("tells the submitter about changes requested", async () => {
     await rows.insertReview("rev-b", "job-ok-001", "u-chk2", "changes-requested", "Add the snow drift case <LC3>.", new Date("2026-11-30T15:00:00Z"));
-    await notify.notifyDecision("rev-b");
+    await send((tx) => notify.queueDecisionMail(tx, "rev-b"));
     const [mail] = await inbox();
     expect(mail!.subject).toBe("Changes requested: Canopy truss, option C · job job-ok-0");
     expect(mail!.text).toContain("Add the snow drift case <LC3>.");
@@ -135,38 +147,53 @@ describe("notifyDecision", () => {
   });
 });
 
-describe("failures stay inside", () => {
-  it("does not throw for an unknown job or review, and logs what went wrong", async () => {
-    const logged: string[] = [];
-    const orig = console.error;
-    console.error = (...a: unknown[]) => void logged.push(a.join(" "));
-    try {
-      await expect(notify.notifyJobFinished("no-such-job")).resolves.toBeUndefined();
-      await expect(notify.notifyDecision("no-such-review")).resolves.toBeUndefined();
-    } finally {
-      console.error = orig;
-    }
-    expect(logged.join("\n")).toContain("job no-such-job does not exist");
-    expect(logged.join("\n")).toContain("review no-such-review does not exist");
+describe("the outbox", () => {
+  it("refuses to queue mail about an unknown job or review, so the batch that asked is not stored", async () => {
+    await expect(inTx((tx) => notify.queueJobFinishedMail(tx, "no-such-job"))).rejects.toThrow("job no-such-job does not exist");
+    await expect(inTx((tx) => notify.queueDecisionMail(tx, "no-such-review"))).rejects.toThrow("review no-such-review does not exist");
+    await sender.deliverDue();
     expect(await inbox()).toHaveLength(0);
   });
 
-  it("does not throw when the mail server is down", async () => {
+  it("queues one notification once, however often its event is recorded", async () => {
+    await rows.insertJob({ jobId: "job-twice-005", submittedBy: "u-eng", status: "failed", error: "Member 7 has no area" });
+    await inTx((tx) => notify.queueJobFinishedMail(tx, "job-twice-005"));
+    await inTx((tx) => notify.queueJobFinishedMail(tx, "job-twice-005"));
+    await sender.deliverDue();
+    await sender.deliverDue();
+    const mails = await inbox();
+    expect(mails.map((m) => m.subject)).toEqual(["Job failed: Canopy truss, option C · job job-twic"]);
+  });
+
+  it("keeps a mail while the mail server is down, says why, and delivers it once when it is back", async () => {
     const { mailer } = await import("~/lib/mail.server");
+    const { listUndeliveredMail } = await import("~/lib/mail/outbox.server");
+    const { db } = await import("~/db/client.server");
     const t = mailer();
     const orig = t.sendMail.bind(t);
     (t as { sendMail: unknown }).sendMail = async () => {
-      throw new Error("connect ECONNREFUSED 127.0.0.1:1");
+      throw Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:1"), { code: "ECONNECTION" });
     };
-    const logged: string[] = [];
-    const origErr = console.error;
-    console.error = (...a: unknown[]) => void logged.push(a.join(" "));
     try {
-      await expect(notify.notifyJobFinished("job-ok-001")).resolves.toBeUndefined();
+      await rows.insertJob({ jobId: "job-down-006", submittedBy: "u-chk-self" });
+      await send((tx) => notify.queueReviewWaitingMails(tx, "job-down-006"));
+      await sender.deliverDue();
     } finally {
-      console.error = origErr;
       (t as { sendMail: unknown }).sendMail = orig;
     }
-    expect(logged.join("\n")).toContain("ECONNREFUSED");
+    expect(await inbox()).toHaveLength(0);
+    const waiting = (await listUndeliveredMail(db())).filter((m) => m.entity?.id === "job-down-006");
+    expect(waiting).toHaveLength(2);
+    for (const m of waiting) {
+      expect(m.state).toBe("pending");
+      expect(m.attempts).toBe(2);
+      expect(m.lastError).toContain("The mail server could not be reached");
+    }
+    await new Promise((r) => setTimeout(r, 5));
+    await sender.deliverDue();
+    await sender.deliverDue();
+    const to = (await inbox()).flatMap((m) => m.to).sort();
+    expect(to).toEqual(["priya.v@brightspan.example", "tomasz.reveillon@brightspan.example"]);
+    expect((await listUndeliveredMail(db())).filter((m) => m.entity?.id === "job-down-006")).toHaveLength(0);
   });
 });

@@ -6,6 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "~/db/client.server";
 import type { TrussResult } from "~/engine/design/result-types";
+import { listMailAbout } from "~/lib/mail/outbox.server";
 import { designWorthReview } from "~/lib/review-request";
 import type { TestServices } from "../support/services";
 import { TWO_BAR_FULLY_STRESSED_AREA, twoBarModel, type ModelJson } from "./support/models";
@@ -39,24 +40,28 @@ async function runWithMail(model: ModelJson) {
   const { enqueueJob, getJob, getJobResult } = await import("~/lib/jobs/queue.server");
   const { createSolvePool } = await import("../../workers/pool");
   const { QueueRunner } = await import("../../workers/queue-runner");
+  const { MailSender } = await import("~/lib/mail/sender.server");
   const stored = await uploadModel(projectId, model, engineer.id);
   services.mail.clear();
   const queued = await enqueueJob({ modelId: stored.id, options: {}, user: engineer }, database);
   const pool = createSolvePool({ threads: 1, maxOldGenerationMb: 512 });
-  const r = new QueueRunner({ db: database, pool, leaseMs: 5000, timeLimitMs: 60_000, maxOldGenerationMb: 512, idlePollMs: 50, log: () => undefined });
+  const mailSender = new MailSender({ db: database, senderId: "review-mail-test", pollMs: 100, log: () => undefined });
+  const r = new QueueRunner({ db: database, pool, leaseMs: 5000, timeLimitMs: 60_000, maxOldGenerationMb: 512, idlePollMs: 50, mailSender, log: () => undefined });
   r.start();
+  mailSender.start();
   try {
     const done = await waitFor("the job to succeed", async () => {
       const j = (await getJob(queued.id, database))!;
       return j.status === "succeeded" ? j : null;
     });
-    await waitFor("the finish mail", async () => services.mail.messages().some((m) => m.subject.startsWith("Job finished")));
-    // stop() waits for the job's run to end, and that run ends with its mails sent
+    // the job's mails were queued with its result; the sender's pass delivers all of them
     await r.stop(0);
+    await waitFor("the job's mails", async () => (await listMailAbout(database, { type: "job", id: queued.id })).every((m) => m.state === "sent"));
     const result = (await getJobResult(queued.id, database)) as TrussResult;
     return { job: done, result, mails: services.mail.messages() };
   } finally {
     await r.stop(0);
+    await mailSender.stop();
     await pool.destroy();
   }
 }

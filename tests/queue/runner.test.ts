@@ -23,9 +23,13 @@ afterAll(async () => services?.stop());
 async function runner(opts: { timeLimitMs?: number; threads?: number; maxOldGenerationMb?: number } = {}) {
   const { createSolvePool } = await import("../../workers/pool");
   const { QueueRunner } = await import("../../workers/queue-runner");
+  const { MailSender } = await import("~/lib/mail/sender.server");
   const heapMb = opts.maxOldGenerationMb ?? 512;
   const pool = createSolvePool({ threads: opts.threads ?? 1, maxOldGenerationMb: heapMb });
+  const mailSender = new MailSender({ db: database, senderId: "runner-test", pollMs: 100, log: () => undefined });
+  mailSender.start();
   const r = new QueueRunner({
+    mailSender,
     db: database,
     pool,
     leaseMs: 5000,
@@ -38,6 +42,7 @@ async function runner(opts: { timeLimitMs?: number; threads?: number; maxOldGene
     r,
     async close() {
       await r.stop(0);
+      await mailSender.stop();
       await pool.destroy();
     },
   };

@@ -2,7 +2,7 @@
 // uploaded, submitted, cancelled, reviewed, changed a role, made or revoked a key). Rows are
 // never updated or deleted; database triggers (drizzle/*_audit_append_only.sql) refuse it.
 import { and, desc, eq, gte, like, lt, or, type SQL } from "drizzle-orm";
-import { db as defaultDb, type Db } from "~/db/client.server";
+import { db as defaultDb, type Db, type DbExecutor } from "~/db/client.server";
 import { auditLog } from "~/db/schema";
 
 export interface AuditActor {
@@ -30,7 +30,12 @@ export function clientIp(request: Request | undefined): string | null {
  * taken. A database failure propagates: an action that cannot be recorded should not pass
  * as done.
  */
-export async function audit(entry: AuditEntry, database: Db = defaultDb()): Promise<void> {
+export async function audit(entry: AuditEntry, database: DbExecutor = defaultDb()): Promise<void> {
+  await database.insert(auditLog).values(await auditValues(entry));
+}
+
+/** The row audit() appends, for a caller that stores it in one batch with its change. */
+export async function auditValues(entry: AuditEntry): Promise<typeof auditLog.$inferInsert> {
   let actor = entry.actor ?? null;
   if (!actor && entry.request) {
     // imported lazily: authorize.server imports this module's neighbours
@@ -41,7 +46,7 @@ export async function audit(entry: AuditEntry, database: Db = defaultDb()): Prom
   const detail = { ...(entry.detail ?? {}) };
   const via = entry.request?.headers.get("authorization")?.startsWith("Bearer ") ? "api-key" : undefined;
   if (via && !("via" in detail)) detail.via = via;
-  await database.insert(auditLog).values({
+  return {
     actorId: actor?.id ?? null,
     actorEmail: actor?.email ?? null,
     action: entry.action,
@@ -49,7 +54,7 @@ export async function audit(entry: AuditEntry, database: Db = defaultDb()): Prom
     entityId: entry.entityId ?? null,
     detail: Object.keys(detail).length ? detail : null,
     ip: entry.ip ?? clientIp(entry.request),
-  });
+  };
 }
 
 export interface AuditFilter {

@@ -10,7 +10,7 @@ import { eq } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
 import * as schema from "~/db/schema";
 import { config } from "~/lib/config.server";
-import { sendMail } from "~/lib/mail.server";
+import { enqueueMail } from "~/lib/mail/outbox.server";
 import { audit } from "./audit.server";
 
 /**
@@ -81,8 +81,12 @@ function createAuth(database: Db) {
       autoSignIn: true,
       revokeSessionsOnPasswordReset: true,
       resetPasswordTokenExpiresIn: 60 * 60,
-      sendResetPassword: async ({ user, url }) => {
-        await sendMail({
+      // queued in the outbox like every mail; the queue worker's sender delivers it
+      sendResetPassword: async ({ user, url, token }) => {
+        await enqueueMail(database, {
+          kind: "password-reset",
+          dedupeKey: `password-reset:${user.id}:${token}`,
+          entity: { type: "user", id: user.id },
           to: user.email,
           subject: "Strutwise: choose a new password",
           text:

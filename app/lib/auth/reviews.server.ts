@@ -6,11 +6,12 @@ import { randomUUID } from "node:crypto";
 import { asc, eq, sql } from "drizzle-orm";
 import { z } from "zod";
 import { db as defaultDb, type Db } from "~/db/client.server";
-import { jobs, reviews, user } from "~/db/schema";
+import { auditLog, jobs, reviews, user } from "~/db/schema";
 import { jsonError } from "~/lib/http.server";
-import { notifyDecision } from "~/lib/notify.server";
+import { mailInsert } from "~/lib/mail/outbox.server";
+import { decisionMails } from "~/lib/notify.server";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
-import { audit } from "./audit.server";
+import { auditValues } from "./audit.server";
 import { forbidden, type SessionUser } from "./authorize.server";
 import { can } from "./permissions";
 
@@ -69,25 +70,19 @@ export async function createReview(
     throw jsonError(409, `Job ${job.id} ended ${job.outcome}: it has no design to approve; return it with comments instead`);
   }
   const id = randomUUID();
-  await database.insert(reviews).values({
-    id,
-    jobId: job.id,
-    reviewerId: reviewer.id,
-    decision: parsed.data.decision,
-    comment: parsed.data.comment,
+  const decision = { id, jobId: job.id, reviewerId: reviewer.id, decision: parsed.data.decision, comment: parsed.data.comment, createdAt: new Date() };
+  const audited = await auditValues({
+    request: input.request,
+    actor: reviewer,
+    action: `review.${parsed.data.decision}`,
+    entityType: "job",
+    entityId: job.id,
+    detail: { reviewId: id, comment: parsed.data.comment || undefined },
   });
-  await audit(
-    {
-      request: input.request,
-      actor: reviewer,
-      action: `review.${parsed.data.decision}`,
-      entityType: "job",
-      entityId: job.id,
-      detail: { reviewId: id, comment: parsed.data.comment || undefined },
-    },
-    database,
-  );
-  await notifyDecision(id); // never throws: a mail failure is logged there
+  const mails = await decisionMails(database, decision);
+  // the decision, its audit row and the submitter's mail are stored in one batch (one
+  // transaction): all of them or none
+  await database.batch([database.insert(reviews).values(decision), database.insert(auditLog).values(audited), ...mails.map((m) => mailInsert(database, m))]);
   const all = await listReviews(job.id, database);
   return all.find((r) => r.id === id)!;
 }

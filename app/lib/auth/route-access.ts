@@ -36,6 +36,7 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   // administration
   "/admin/users": { GET: ADMIN, POST: ADMIN },
   "/admin/audit": { GET: ADMIN },
+  "/admin/mail": { GET: ADMIN },
 
   // projects
   "/projects": { GET: ALL, POST: PRODUCERS },

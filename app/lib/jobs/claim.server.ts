@@ -1,7 +1,7 @@
 // The worker's side of the queue. Every write is one guarded statement: a claim is a single
 // UPDATE … WHERE id = (SELECT … LIMIT 1) RETURNING, and every later write names the worker
 // and the attempt it holds, so a worker whose lease was taken over can no longer write.
-import { and, asc, eq, inArray, lt, or, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { jobs, type JobStatus } from "~/db/schema";
 import type { JobSummary } from "~/engine/design/result-types";
@@ -29,7 +29,7 @@ function held(lease: Lease) {
 export async function claimNextJob(database: Db, workerId: string, leaseMs: number, now = Date.now()): Promise<Lease | null> {
   const nowDate = new Date(now);
   const claimable = or(
-    eq(jobs.status, "queued"),
+    and(eq(jobs.status, "queued"), or(isNull(jobs.availableAt), lte(jobs.availableAt, nowDate))),
     and(
       eq(jobs.status, "running"),
       lt(jobs.leaseExpiresAt, nowDate),
@@ -47,6 +47,8 @@ export async function claimNextJob(database: Db, workerId: string, leaseMs: numb
       leaseExpiresAt: new Date(now + leaseMs),
       startedAt: nowDate,
       error: null,
+      waitingFor: null,
+      availableAt: null,
       progressIteration: null,
       progressObjective: null,
       progressMaxViolation: null,
@@ -59,29 +61,39 @@ export async function claimNextJob(database: Db, workerId: string, leaseMs: numb
   return job ? { job, workerId, attempt: job.attempts } : null;
 }
 
-/**
- * Settle jobs whose worker vanished and that must not run again: cancel those with a pending
- * cancel request, fail those that used every attempt. Returns the ids touched, for mail.
- */
-export async function settleAbandonedJobs(database: Db, now = Date.now()): Promise<{ cancelled: string[]; failed: string[] }> {
+const expiredAt = (nowDate: Date) => and(eq(jobs.status, "running"), lt(jobs.leaseExpiresAt, nowDate));
+
+/** Cancel the jobs whose worker vanished while a cancel request was pending. Returns their ids. */
+export async function cancelAbandonedJobs(database: Db, now = Date.now()): Promise<string[]> {
   const nowDate = new Date(now);
-  const expired = and(eq(jobs.status, "running"), lt(jobs.leaseExpiresAt, nowDate));
-  const cancelled = await database
+  const rows = await database
     .update(jobs)
     .set({ status: "cancelled", finishedAt: nowDate, leaseExpiresAt: null, error: "Cancelled on request (its worker had stopped)" })
-    .where(and(expired, eq(jobs.cancelRequested, true)))
+    .where(and(expiredAt(nowDate), eq(jobs.cancelRequested, true)))
     .returning({ id: jobs.id });
-  const failed = await database
+  return rows.map((r) => r.id);
+}
+
+/** Jobs whose worker vanished on their last attempt: they must not run again. */
+export async function exhaustedJobs(database: Db, now = Date.now()): Promise<{ id: string; attempts: number; workerId: string | null }[]> {
+  return database
+    .select({ id: jobs.id, attempts: jobs.attempts, workerId: jobs.workerId })
+    .from(jobs)
+    .where(and(expiredAt(new Date(now)), eq(jobs.cancelRequested, false), sql`${jobs.attempts} >= ${jobs.maxAttempts}`));
+}
+
+export function exhaustedMessage(j: { attempts: number; workerId: string | null }): string {
+  return `The worker running this job stopped responding on each of ${j.attempts} attempts (last: ${j.workerId ?? "unknown worker"}); it was given up. A run that keeps taking its worker down usually ran out of memory: try a smaller model or fewer iterations.`;
+}
+
+/** The statement that fails one exhausted job (still expired and unclaimed when it runs). */
+export function failExhaustedStatement(database: Db, j: { id: string; attempts: number; workerId: string | null }, now = Date.now()) {
+  const nowDate = new Date(now);
+  return database
     .update(jobs)
-    .set({
-      status: "failed",
-      finishedAt: nowDate,
-      leaseExpiresAt: null,
-      error: sql`'The worker running this job stopped responding on each of ' || ${jobs.attempts} || ' attempts (last: ' || coalesce(${jobs.workerId}, 'unknown worker') || '); it was given up. A run that keeps taking its worker down usually ran out of memory: try a smaller model or fewer iterations.'`,
-    })
-    .where(and(expired, eq(jobs.cancelRequested, false), sql`${jobs.attempts} >= ${jobs.maxAttempts}`))
+    .set({ status: "failed", finishedAt: nowDate, leaseExpiresAt: null, error: exhaustedMessage(j) })
+    .where(and(eq(jobs.id, j.id), expiredAt(nowDate), eq(jobs.cancelRequested, false), eq(jobs.attempts, j.attempts), sql`${jobs.attempts} >= ${jobs.maxAttempts}`))
     .returning({ id: jobs.id });
-  return { cancelled: cancelled.map((r) => r.id), failed: failed.map((r) => r.id) };
 }
 
 /** Extend the lease; false when the worker no longer holds the job (taken over or settled). */
@@ -108,13 +120,9 @@ export async function checkJob(database: Db, lease: Lease): Promise<{ held: bool
   };
 }
 
-export async function completeJob(
-  database: Db,
-  lease: Lease,
-  done: { resultKey: string; summary: JobSummary; outcome: JobSummary["status"] },
-  now = Date.now(),
-): Promise<boolean> {
-  const rows = await database
+/** The statement that records a held job's success (returns its id when it applied). */
+export function completeJobStatement(database: Db, lease: Lease, done: { resultKey: string; summary: JobSummary; outcome: JobSummary["status"] }, now = Date.now()) {
+  return database
     .update(jobs)
     .set({
       status: "succeeded",
@@ -127,16 +135,23 @@ export async function completeJob(
     })
     .where(and(held(lease), guard("succeed")))
     .returning({ id: jobs.id });
-  return rows.length === 1;
 }
 
-export async function failJob(database: Db, lease: Lease, message: string, now = Date.now()): Promise<boolean> {
-  const rows = await database
+/** The statement that records a held job's failure (returns its id when it applied). */
+export function failJobStatement(database: Db, lease: Lease, message: string, now = Date.now()) {
+  return database
     .update(jobs)
     .set({ status: "failed", error: message, finishedAt: new Date(now), leaseExpiresAt: null })
     .where(and(held(lease), guard("fail")))
     .returning({ id: jobs.id });
-  return rows.length === 1;
+}
+
+/**
+ * An SQL condition true once the job's row shows the end this worker recorded at `now`:
+ * the mails of that end are written only if the guarded write before them applied.
+ */
+export function recordedBy(lease: Lease, status: "succeeded" | "failed", now: number) {
+  return sql`exists (select 1 from ${jobs} where ${jobs.id} = ${lease.job.id} and ${jobs.status} = ${status} and ${jobs.workerId} = ${lease.workerId} and ${jobs.attempts} = ${lease.attempt} and ${jobs.finishedAt} = ${now})`;
 }
 
 export async function markCancelled(database: Db, lease: Lease, message: string, now = Date.now()): Promise<boolean> {
@@ -148,8 +163,11 @@ export async function markCancelled(database: Db, lease: Lease, message: string,
   return rows.length === 1;
 }
 
-/** Hand a job back on shutdown without spending one of its attempts. */
-export async function requeueJob(database: Db, lease: Lease): Promise<boolean> {
+/**
+ * Hand a job back without spending one of its attempts: on shutdown, or (with `waiting`) when
+ * a service it needs did not answer; then no worker takes it again before `until`.
+ */
+export async function requeueJob(database: Db, lease: Lease, waiting?: { for: "storage"; until: Date }): Promise<boolean> {
   const rows = await database
     .update(jobs)
     .set({
@@ -158,6 +176,8 @@ export async function requeueJob(database: Db, lease: Lease): Promise<boolean> {
       workerId: null,
       leaseExpiresAt: null,
       startedAt: null,
+      waitingFor: waiting?.for ?? null,
+      availableAt: waiting?.until ?? null,
     })
     .where(and(held(lease), guard("requeue")))
     .returning({ id: jobs.id });
