@@ -89,7 +89,7 @@ describe("notifyReviewWaiting", () => {
   });
 
   it("writes only to checkers who are members of the job's project", async () => {
-    await notify.notifyReviewWaiting("job-members-005");
+    await send((tx) => notify.queueReviewWaitingMails(tx, "job-members-005"));
     const to = (await inbox()).flatMap((m) => m.to).sort();
     expect(to).toEqual(["priya.v@brightspan.example"]);
   });
@@ -156,9 +156,9 @@ describe("the outbox", () => {
   });
 
   it("queues one notification once, however often its event is recorded", async () => {
-    await rows.insertJob({ jobId: "job-twice-005", submittedBy: "u-eng", status: "failed", error: "Member 7 has no area" });
-    await inTx((tx) => notify.queueJobFinishedMail(tx, "job-twice-005"));
-    await inTx((tx) => notify.queueJobFinishedMail(tx, "job-twice-005"));
+    await rows.insertJob({ jobId: "job-twice-007", submittedBy: "u-eng", status: "failed", error: "Member 7 has no area" });
+    await inTx((tx) => notify.queueJobFinishedMail(tx, "job-twice-007"));
+    await inTx((tx) => notify.queueJobFinishedMail(tx, "job-twice-007"));
     await sender.deliverDue();
     await sender.deliverDue();
     const mails = await inbox();
@@ -175,14 +175,14 @@ describe("the outbox", () => {
       throw Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:1"), { code: "ECONNECTION" });
     };
     try {
-      await rows.insertJob({ jobId: "job-down-006", submittedBy: "u-chk-self" });
-      await send((tx) => notify.queueReviewWaitingMails(tx, "job-down-006"));
+      await rows.insertJob({ jobId: "job-down-008", submittedBy: "u-chk-self" });
+      await send((tx) => notify.queueReviewWaitingMails(tx, "job-down-008"));
       await sender.deliverDue();
     } finally {
       (t as { sendMail: unknown }).sendMail = orig;
     }
     expect(await inbox()).toHaveLength(0);
-    const waiting = (await listUndeliveredMail(db())).filter((m) => m.entity?.id === "job-down-006");
+    const waiting = (await listUndeliveredMail(db())).filter((m) => m.entity?.id === "job-down-008");
     expect(waiting).toHaveLength(2);
     for (const m of waiting) {
       expect(m.state).toBe("pending");
@@ -194,6 +194,6 @@ describe("the outbox", () => {
     await sender.deliverDue();
     const to = (await inbox()).flatMap((m) => m.to).sort();
     expect(to).toEqual(["priya.v@brightspan.example", "tomasz.reveillon@brightspan.example"]);
-    expect((await listUndeliveredMail(db())).filter((m) => m.entity?.id === "job-down-006")).toHaveLength(0);
+    expect((await listUndeliveredMail(db())).filter((m) => m.entity?.id === "job-down-008")).toHaveLength(0);
   });
 });
