@@ -32,6 +32,8 @@ export default [
     route("jobs/:jobId/reviews", "routes/api/jobs.$jobId.reviews.ts"),
     route("jobs/:jobId/report", "routes/api/jobs.$jobId.report.ts"),
     route("models", "routes/api/models.ts"),
+    route("models/import", "routes/api/models.import.ts"),
+    route("models/templates/:file", "routes/api/models.templates.$file.ts"),
     route("models/:modelId", "routes/api/models.$modelId.ts"),
     route("models/:modelId/file", "routes/api/models.$modelId.file.ts"),
     route("models/:modelId/versions", "routes/api/models.$modelId.versions.ts"),

@@ -159,3 +159,30 @@ describe("jobs on versions, and analysis-only runs", () => {
     }
   }, 60_000);
 });
+
+describe("POST /api/models/import", () => {
+  it("files a model from CSV files (201), and refuses a broken one with file, row and column, storing nothing", async () => {
+    const { modelToCsvFiles } = await import("~/lib/models/spreadsheet");
+    const { models } = await import("~/db/schema");
+    const route = await import("~/routes/api/models.import");
+    const csv = modelToCsvFiles(twoBarModel("Imported canopy frame"));
+    const send = (members: string) => {
+      const f = form({ projectId });
+      f.set("nodes", new Blob([csv.nodes], { type: "text/csv" }), "nodes.csv");
+      f.set("members", new Blob([members], { type: "text/csv" }), "members.csv");
+      f.set("loads", new Blob([csv.loads], { type: "text/csv" }), "loads.csv");
+      f.set("settings", new Blob([csv.settings], { type: "application/json" }), "settings.json");
+      return call(route.action, new Request(url("/api/models/import"), { method: "POST", body: f, headers: auth(engineer.key) }));
+    };
+    const before = (await database.select().from(models)).length;
+    const bad = await send(csv.members.replace(",A,C,", ",A,Z,"));
+    expect(bad.status).toBe(400);
+    const body = (await bad.json()) as { details: { path: string }[] };
+    expect(body.details[0]!.path).toBe("members.csv row 2 end");
+    expect((await database.select().from(models)).length).toBe(before);
+    const ok = await send(csv.members);
+    expect(ok.status).toBe(201);
+    const { id } = (await ok.json()) as { id: string };
+    expect(JSON.parse(await (await fileOf(id, 1)).text())).toEqual(twoBarModel("Imported canopy frame"));
+  });
+});

@@ -50,6 +50,8 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/models/:id": { GET: ALL },
   "/api/models/:id/file": { GET: ALL },
   "/api/models/:id/versions": { GET: ALL, POST: PRODUCERS },
+  "/api/models/import": { POST: PRODUCERS },
+  "/api/models/templates/:id": { GET: ALL },
   "/api/generators": { GET: ALL },
   "/api/schema/model.json": { GET: "public" }, // the file format is public documentation
   "/api/generators/:id": { POST: ALL }, // builds a model, stores nothing
