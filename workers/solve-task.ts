@@ -7,6 +7,7 @@ import { analyseModel, optimizeModel, summarizeResult } from "~/engine/design";
 import type { JobOptions } from "~/engine/design/options";
 import type { JobSummary } from "~/engine/design/result-types";
 import { parseModel } from "~/engine/truss";
+import { attachLowerBound, loadHighsSolver } from "~/engine/lp";
 
 export interface SolveTaskInput {
   jobId: string;
@@ -35,7 +36,7 @@ export class ModelRejectedError extends Error {
 
 type Progress = { iteration: number; objective?: number; f?: number; maxViolation: number; kktResidual: number };
 
-export default function solveTask(input: SolveTaskInput): SolveTaskOutput {
+export default async function solveTask(input: SolveTaskInput): Promise<SolveTaskOutput> {
   const started = performance.now();
   const parsed = parseModel(JSON.parse(input.modelText));
   if (!parsed.ok) {
@@ -54,7 +55,9 @@ export default function solveTask(input: SolveTaskInput): SolveTaskOutput {
     }
   }
   try {
-    const result = optimizeModel(parsed.model, {
+    // the LP solver loads once per thread (the first run waits for it, later runs reuse it)
+    const lpSolver = await loadHighsSolver();
+    const optimized = optimizeModel(parsed.model, {
       ...input.options,
       onProgress: port
         ? (p: Progress) =>
@@ -66,6 +69,8 @@ export default function solveTask(input: SolveTaskInput): SolveTaskOutput {
             })
         : undefined,
     });
+    // beside every result, the least-mass certificate (or the reason there is none)
+    const result = attachLowerBound(parsed.model, optimized, input.options, lpSolver);
     return {
       resultJson: JSON.stringify(result),
       summary: summarizeResult(result),

@@ -24,6 +24,7 @@ export interface ResultMember {
   governingCase?: string;
   /** effective-length factor k of the buckling check */
   bucklingFactor?: number;
+  plasticArea?: number; // the member's area in the least-mass LP design (lowerBound), model units
 }
 
 /** Support reactions of one supported node: x, y, z per load case and combination (0 on free axes). */
@@ -154,6 +155,18 @@ export interface TrussResult {
   verification?: Verification;
   history: HistoryEntry[];
   solver?: { name: string; version: string; elapsedMs?: number };
+  /** truss-format.md Additions: a proven lower bound on the objective (app/engine/lp) */
+  lowerBound?: LowerBound;
+  /** why a result carries no lowerBound, in words (compliance without a volume limit, no stress checks, ...) */
+  lowerBoundWithheld?: string;
+}
+
+export interface LowerBound {
+  value: number; // model mass units (compliance: force x length)
+  gap: number; // objective / value - 1
+  basis: string; // what the bound assumes, in words
+  /** "final": taken at the final node positions of a shape run, valid for that geometry only */
+  geometry?: "model" | "final";
 }
 
 export interface JobSummary {
@@ -163,4 +176,6 @@ export interface JobSummary {
   iterations: number;
   maxUtilization: number;
   status: SolverStatus;
+  /** lowerBound.gap of the result (objective / bound - 1), when it has one */
+  lowerBoundGap?: number;
 }

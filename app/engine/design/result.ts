@@ -198,5 +198,6 @@ export function summarizeResult(result: TrussResult): JobSummary {
     iterations: result.iterations,
     maxUtilization: result.verification?.maxUtilization ?? Math.max(0, ...result.members.map((m) => m.utilization)),
     status: result.status,
+    ...(result.lowerBound ? { lowerBoundGap: result.lowerBound.gap } : {}),
   };
 }
