@@ -42,6 +42,7 @@ async function main() {
   // without it (the precompiled bundle keeps it in a chunk of its own)
   const { parseModel } = await import("../app/engine/truss");
   const { optimizeModel, DesignSetupError } = await import("../app/engine/design");
+  const { attachLowerBound, loadHighsSolver } = await import("../app/engine/lp");
   let text: string;
   try {
     text = fs.readFileSync(args.file!, "utf8");
@@ -77,6 +78,8 @@ async function main() {
     const err = e as Error;
     fail(1, [`optimization could not run: ${err.message}`]);
   }
+  // beside the result, the least-mass certificate (or the reason there is none)
+  result = attachLowerBound(parsed.model, result, { formulation: args.formulation, maxIterations: args.maxIterations }, await loadHighsSolver());
   const json2 = JSON.stringify(result, null, 2);
   if (args.out) fs.writeFileSync(args.out, json2 + "\n");
   else process.stdout.write(json2 + "\n");
@@ -84,6 +87,9 @@ async function main() {
     `${result.status}: ${result.message}\n` +
       `objective ${result.objective.initial.toPrecision(6)} -> ${result.objective.final.toPrecision(6)} ${objUnit} in ${result.iterations} iterations, ${result.analyses} analyses; ` +
       `re-analysis: max utilization ${result.verification?.maxUtilization.toFixed(3)}, ${result.verification?.allLimitsMet ? "all limits met" : `${result.verification?.failures.length} limit(s) not met`}\n` +
+      (result.lowerBound
+        ? `lower bound ${result.lowerBound.value.toPrecision(6)} ${objUnit}${result.lowerBound.geometry === "final" ? " (at the final geometry)" : ""}: the design is ${(100 * result.lowerBound.gap).toFixed(2)} % above it\n`
+        : `no lower bound: ${result.lowerBoundWithheld}\n`) +
       (result.status !== "optimal" && result.hint ? `hint: ${result.hint}\n` : ""),
   );
   process.exitCode = EXIT[result.status] ?? 1;

@@ -73,6 +73,9 @@ describe("queue runner", () => {
       for (const m of result.members) expect(m.area).toBeCloseTo(TWO_BAR_FULLY_STRESSED_AREA, 2);
       expect(done.summary!.iterations).toBe(result.iterations);
       expect(done.summary!.objectiveFinal).toBeCloseTo(result.objective.final, 12);
+      // the least-mass bound, solved by HiGHS inside the piscina thread: determinate, so no gap
+      expect(Math.abs(result.lowerBound!.gap)).toBeLessThan(1e-5);
+      expect(done.summary!.lowerBoundGap).toBeCloseTo(result.lowerBound!.gap, 12);
       const history = await getJobHistory(queued.id, database);
       expect(history.length).toBeGreaterThan(1);
       expect(history.map((h) => h.iteration)).toEqual([...history.map((h) => h.iteration)].sort((a, b) => a - b));

@@ -23,7 +23,7 @@ export function complianceLowerBound(model: TrussModel, result: TrussResult, opt
   if (volumeMax === undefined) {
     return { kind: "withheld", reason: "A compliance bound needs a volume limit, and this run has none." };
   }
-  if (model.loadCases.some((lc) => ((lc as { selfWeight?: number }).selfWeight ?? 0) !== 0)) {
+  if (model.loadCases.some((lc) => (lc.selfWeight ?? 0) !== 0)) {
     return { kind: "withheld", reason: "Own weight makes the loads depend on the areas; the compliance bound does not cover that, so none is shown." };
   }
   const final = (model.design?.shape?.length ?? 0) > 0;

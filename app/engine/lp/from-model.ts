@@ -1,24 +1,12 @@
 // The plastic-design LP's input read from a validated model (truss-format.md): area variables
-// from groups, the checked cases from load cases or strength combinations, own weight in model
-// units. Combinations and `selfWeight` are optional additions to the format; they are read when
-// a model carries them.
+// from groups, the checked cases from load cases or strength combinations (format additions),
+// own weight in model units.
 import { buildStructure, type TrussModel } from "../truss";
 import { FORCE_IN_N, MASS_IN_KG } from "../truss/units";
 import type { PlasticCase, PlasticDesignInput } from "./plastic-input";
 
 /** Standard gravity in m/s^2 (exact by definition, NIST SP 811). */
 const STANDARD_GRAVITY = 9.80665;
-
-/** The optional format additions read here, typed loosely so models without them fit. */
-interface LoadCaseExtras {
-  id: string;
-  selfWeight?: number;
-}
-interface Combination {
-  id: string;
-  use?: string;
-  factors?: Record<string, number>;
-}
 
 export interface CheckedCases {
   cases: PlasticCase[];
@@ -38,8 +26,8 @@ export function weightPerMass(units: { force: string; mass: string }): number {
  * combinations (their loads and own-weight factors summed), else every load case.
  */
 export function checkedCases(model: TrussModel, loads: Float64Array[]): CheckedCases {
-  const loadCases = model.loadCases as readonly LoadCaseExtras[];
-  const combinations = ((model as { combinations?: readonly Combination[] }).combinations ?? []) as readonly Combination[];
+  const loadCases = model.loadCases;
+  const combinations = model.combinations ?? [];
   if (combinations.length === 0) {
     return { kind: "load cases", cases: loadCases.map((lc, l) => ({ id: lc.id, loads: loads[l], selfWeight: lc.selfWeight ?? 0 })) };
   }
@@ -49,7 +37,7 @@ export function checkedCases(model: TrussModel, loads: Float64Array[]): CheckedC
     .map((c) => {
       const f = new Float64Array(loads[0].length);
       let selfWeight = 0;
-      for (const [id, factor] of Object.entries(c.factors ?? {})) {
+      for (const [id, factor] of Object.entries(c.factors)) {
         const l = index.get(id);
         if (l === undefined) continue; // validation names unknown ids; nothing to add here
         for (let d = 0; d < f.length; d++) f[d] += factor * loads[l][d];

@@ -53,7 +53,7 @@ export function lowerBoundForResult(model: TrussModel, result: TrussResult, opti
 
 function massBasis(model: TrussModel, kind: string, nCases: number, final: boolean, solver: string): string {
   const cases = nCases === 1 ? `its ${kind === "load cases" ? "load case" : "strength combination"}` : `all ${nCases} ${kind}`;
-  const own = model.loadCases.some((lc) => ((lc as { selfWeight?: number }).selfWeight ?? 0) !== 0) ? " Own weight follows the areas." : "";
+  const own = model.loadCases.some((lc) => (lc.selfWeight ?? 0) !== 0) ? " Own weight follows the areas." : "";
   const where = final
     ? ` It is taken at the final node positions of this run: another geometry could be lighter, so it bounds the sizing at this shape only.`
     : "";

@@ -65,7 +65,7 @@ describe("results that get no bound, with the reason", () => {
   });
 
   it("combinations without a strength one", () => {
-    const m = { ...model(), combinations: [{ id: "SLS", use: "service", factors: { down: 1 } }] };
+    const m = { ...model(), combinations: [{ id: "SLS", use: "service" as const, factors: { down: 1 } }] };
     const out = lowerBoundForResult(m, optimizeModel(model()), {}, solver);
     expect(out).toEqual({ kind: "withheld", reason: expect.stringMatching(/none for strength/) });
   });

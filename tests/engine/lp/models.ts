@@ -42,12 +42,8 @@ export function tripod(R: number, H: number, P: number): TrussModel {
   });
 }
 
-/**
- * A hanging bar of length L from a support, tip load P, with own weight in the load cases; the
- * format additions (selfWeight, combinations) are set on the object directly, as a model that
- * carries them would arrive.
- */
-export function hangingBar(L: number, P: number, extras: { selfWeight?: number; combinations?: unknown[] }): TrussModel {
+/** A hanging bar of length L from a support, tip load P, own weight in load case G. */
+export function hangingBar(L: number, P: number, extras: { selfWeight?: number; combinations?: TrussModelInput["combinations"] }): TrussModel {
   const m = trussModelSchema.parse({
     ...steelModelHeader("Test hanging bar", 2, { tension: 235, compression: 235 }),
     nodes: [
@@ -56,12 +52,11 @@ export function hangingBar(L: number, P: number, extras: { selfWeight?: number; 
     ],
     members: [{ id: "bar", start: "top", end: "tip", material: "steel", area: 100 }],
     loadCases: [
-      { id: "G", loads: [] },
+      { id: "G", loads: [], selfWeight: extras.selfWeight ?? 1 },
       { id: "Q", loads: [{ node: "tip", fy: -P }] },
     ],
+    ...(extras.combinations ? { combinations: extras.combinations } : {}),
     design: { objective: "mass", constraints: { stress: true } },
   });
-  (m.loadCases[0] as { selfWeight?: number }).selfWeight = extras.selfWeight ?? 1;
-  if (extras.combinations) (m as { combinations?: unknown[] }).combinations = extras.combinations;
   return m;
 }
