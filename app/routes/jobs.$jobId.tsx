@@ -16,7 +16,10 @@ import { RouteError } from "~/components/ui/RouteError";
 import { JobStateBadge, ReviewBadge } from "~/components/ui/StatusBadge";
 import { countOf, viewerTitle } from "~/components/job/result-words";
 import { ErrorNote, LoadingNote, Stat } from "~/components/ui/States";
-import { TrussViewer } from "~/components/viewer/TrussViewer";
+import { CatalogueDesignPanel } from "~/components/job/CatalogueDesignPanel";
+import { ReactionsPanel } from "~/components/job/ReactionsPanel";
+import { ResultCasePicker, ResultCaseProvider } from "~/components/job/ResultCase";
+import { ResultTrussViewer } from "~/components/job/ResultTrussViewer";
 import { db } from "~/db/client.server";
 import { models, projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
@@ -194,6 +197,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
   const worstRatio = Math.max(head?.maxUtilization ?? 0, ...(head?.verification?.failures ?? []).map((f) => f.ratio));
 
   return (
+    <ResultCaseProvider result={result}>
     <div className="space-y-6">
       <header>
         <p className="text-sm text-ink-muted">
@@ -271,12 +275,17 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       {files.error ? (
         <ErrorNote title="The 3D view and tables could not be loaded">{files.error}</ErrorNote>
       ) : topology && (result || !head) ? (
-        <TrussViewer key={result ? "result" : "initial"} model={topology} result={result} title={viewerTitle(result ? (job.status === "cancelled" ? "cancelled" : (head?.status ?? job.outcome)) : null)} />
+        <>
+          {result && <ResultCasePicker />}
+          <ResultTrussViewer key={result ? "result" : "initial"} model={topology} result={result} title={viewerTitle(result ? (job.status === "cancelled" ? "cancelled" : (head?.status ?? job.outcome)) : null)} />
+        </>
       ) : (
         <div className="card flex h-[26rem] items-center justify-center sm:h-[32rem]" data-testid="truss-viewer-loading">
           <LoadingNote>Loading the geometry{head ? ` and the result of ${head.memberCount} members` : ""}…</LoadingNote>
         </div>
       )}
+
+      {head?.catalogue && <CatalogueDesignPanel result={head} />}
 
       {head && (
         <div className="grid gap-6 lg:grid-cols-2">
@@ -329,6 +338,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             <h2 className="mb-3 font-semibold">Nodes</h2>
             <NodeTable result={result} topology={topo} fileName={facts.modelName} />
           </section>
+          <ReactionsPanel result={result} fileName={facts.modelName} />
         </>
       )}
 
@@ -379,5 +389,6 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         </section>
       </div>
     </div>
+    </ResultCaseProvider>
   );
 }

@@ -1,40 +1,26 @@
 // Member and node tables of a result: sortable, filterable, paged, with a CSV download of
 // every row and every load case (full precision).
 import { createColumnHelper, type ColumnDef, type SortingState } from "@tanstack/react-table";
-import { useMemo, useState } from "react";
+import { useMemo } from "react";
 import type { ResultMember, ResultNode, TrussResult } from "~/engine/design/result-types";
 import { formatNumber, formatPercent } from "~/lib/format";
 import { DataTable } from "~/components/tables/DataTable";
 import { downloadText, fileSlug, toCsv } from "~/components/tables/csv";
 import { forceSense, UTIL_BANDS, utilBandIndex } from "~/components/viewer/palette";
+import { governingCaseOf } from "~/lib/results/cases";
+import { membersCsv, nodesCsv } from "~/lib/results/result-csv";
+import { CaseSelect, useResultCase } from "./ResultCase";
 
 interface Topology {
   members: Map<string, { start: string; end: string; group?: string }>;
   nodes: Map<string, { x: number; y: number; z: number; fixed: string[] }>;
 }
 
-export function LoadCasePicker({ ids, names, value, onChange }: { ids: string[]; names: Map<string, string>; value: string; onChange: (v: string) => void }) {
-  if (ids.length <= 1) return null;
-  return (
-    <label className="flex items-center gap-2 text-sm">
-      <span className="text-ink-muted">Load case</span>
-      <select className="field-input w-auto py-1" value={value} onChange={(e) => onChange(e.target.value)}>
-        {ids.map((id) => (
-          <option key={id} value={id}>
-            {names.get(id) ? `${id} — ${names.get(id)}` : id}
-          </option>
-        ))}
-      </select>
-    </label>
-  );
-}
-
-/** The load case a result table's columns show, with the ids and names to pick from. */
+/** The load case or combination a result table's columns show: the page's choice, or the table's own. */
 function useLoadCases(result: TrussResult) {
-  const ids = loadCaseIds(result);
-  const names = new Map((result.loadCases ?? []).map((l) => [l.id, l.name ?? ""]));
-  const [current, setCurrent] = useState(ids[0] ?? "");
-  return { ids, names, current, setCurrent };
+  const state = useResultCase(result);
+  const ids = useMemo(() => state.cases.map((c) => c.id), [state.cases]);
+  return { ...state, ids };
 }
 
 /** Either result table: 25 rows a page, a quick filter, the load-case picker and the CSV of every row. */
@@ -60,7 +46,7 @@ function ResultTable<T extends { id: string }>(props: {
       rowTestId={props.rowTestId}
       toolbar={
         <>
-          <LoadCasePicker ids={props.cases.ids} names={props.cases.names} value={props.cases.current} onChange={props.cases.setCurrent} />
+          {!props.cases.shared && <CaseSelect state={props.cases} />}
           <button type="button" className="btn btn-secondary px-3 py-1" onClick={props.onCsv} data-testid={`${what}-csv`}>
             {`${props.label} CSV`}
           </button>
@@ -70,20 +56,18 @@ function ResultTable<T extends { id: string }>(props: {
   );
 }
 
-function loadCaseIds(result: TrussResult): string[] {
-  if (result.loadCases?.length) return result.loadCases.map((l) => l.id);
-  return Object.keys(result.members[0]?.force ?? result.nodes[0]?.displacement ?? {});
-}
-
 export function MemberTable({ result, topology, fileName }: { result: TrussResult; topology: Topology; fileName: string }) {
   const cases = useLoadCases(result);
   const { ids: lcs, current: lc } = cases;
   const u = result.units;
   const maxAbs = useMemo(() => result.members.reduce((m, r) => Math.max(m, Math.abs(r.force[lc] ?? 0)), 0), [result, lc]);
   const col = createColumnHelper<ResultMember>();
+  const withSection = result.members.some((m) => m.section !== undefined);
+  const withK = result.members.some((m) => m.bucklingFactor !== undefined);
   const columns = useMemo(
     () => [
       col.accessor("id", { header: "member" }),
+      ...(withSection ? [col.accessor((m) => m.section ?? "", { id: "section", header: "section" })] : []),
       col.accessor("utilization", {
         header: "utilization",
         meta: { numeric: true },
@@ -99,20 +83,18 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
       col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${u.force}/${u.length}²)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
       col.accessor("length", { header: `length (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      ...(withK ? [col.accessor((m) => m.bucklingFactor ?? null, { id: "k", header: "buckling factor k", cell: (c) => formatNumber(c.getValue(), { sig: 3 }), meta: { numeric: true } })] : []),
       col.accessor((m) => `${m.start ?? topology.members.get(m.id)?.start ?? "?"}–${m.end ?? topology.members.get(m.id)?.end ?? "?"}`, { id: "nodes", header: "nodes" }),
       col.accessor((m) => m.group ?? topology.members.get(m.id)?.group ?? "", { id: "group", header: "group" }),
       col.accessor((m) => m.governing ?? "", { id: "governing", header: "governed by" }),
+      ...(lcs.length > 1 ? [col.accessor((m) => governingCaseOf(m, lcs) ?? "", { id: "governingCase", header: "governing case" })] : []),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [lc, maxAbs, topology, u],
+    [lc, lcs, maxAbs, topology, u, withSection, withK],
   );
   const csv = () => {
-    const header = ["member", "start", "end", "group", `area_${u.length}2`, `length_${u.length}`, ...lcs.flatMap((l) => [`force_${l}_${u.force}`, `stress_${l}`]), "utilization", "governing"];
-    const rows = result.members.map((m) => {
-      const t = topology.members.get(m.id);
-      return [m.id, m.start ?? t?.start, m.end ?? t?.end, m.group ?? t?.group, m.area, m.length, ...lcs.flatMap((l) => [m.force[l], m.stress[l]]), m.utilization, m.governing];
-    });
-    downloadText(`${fileSlug(fileName)}-members.csv`, toCsv(header, rows));
+    const t = membersCsv(result, topology);
+    downloadText(`${fileSlug(fileName)}-members.csv`, toCsv(t.header, t.rows));
   };
   return (
     <ResultTable label="Members" data={result.members} columns={columns} cases={cases} onCsv={csv} initialSort={[{ id: "utilization", desc: true }]} rowTestId="member-row" />
@@ -146,9 +128,8 @@ export function NodeTable({ result, topology, fileName }: { result: TrussResult;
     [lc, anyMoved, topology, u],
   );
   const csv = () => {
-    const header = ["node", `x_${u.length}`, `y_${u.length}`, `z_${u.length}`, "restrained", ...lcs.flatMap((l) => [`ux_${l}`, `uy_${l}`, `uz_${l}`])];
-    const rows = result.nodes.map((n) => [n.id, n.x, n.y, n.z, (n.fixed ?? topology.nodes.get(n.id)?.fixed ?? []).join(" "), ...lcs.flatMap((l) => n.displacement[l] ?? [null, null, null])]);
-    downloadText(`${fileSlug(fileName)}-nodes.csv`, toCsv(header, rows));
+    const t = nodesCsv(result, topology);
+    downloadText(`${fileSlug(fileName)}-nodes.csv`, toCsv(t.header, t.rows));
   };
   return (
     <ResultTable label="Nodes" data={result.nodes} columns={columns} cases={cases} onCsv={csv} />

@@ -1,7 +1,17 @@
 // Key to the viewer's colours: utilization bands or force sense, and the overlay lines.
 import { SENSE_TOKENS, UTIL_BANDS } from "./palette";
 
-export function Legend({ mode, showInitial, showDeformed }: { mode: "utilization" | "force" | "plain"; showInitial: boolean; showDeformed: boolean }) {
+export function Legend({
+  mode,
+  showInitial,
+  showDeformed,
+  showReactions = false,
+}: {
+  mode: "utilization" | "force" | "plain";
+  showInitial: boolean;
+  showDeformed: boolean;
+  showReactions?: boolean;
+}) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft" aria-label="Legend" data-testid="viewer-legend">
       {mode === "utilization" &&
@@ -39,6 +49,12 @@ export function Legend({ mode, showInitial, showDeformed }: { mode: "utilization
         <span className="inline-block w-5 border-t-2 border-ink" aria-hidden />
         load
       </li>
+      {showReactions && (
+        <li className="flex items-center gap-1.5">
+          <span className="inline-block w-5 border-t-2 border-ok" aria-hidden />
+          support reaction
+        </li>
+      )}
     </ul>
   );
 }

@@ -10,7 +10,7 @@ import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import { cssColor, forceSense, SENSE_TOKENS, UTIL_BANDS, utilBandIndex } from "./palette";
 import { placeCone, placeCylinder } from "./instancing";
-import { drawnBox, fitOrthographic, fitPerspective, jointRadius, loadArrows, supportSize, type Box } from "./framing";
+import { drawnBox, fitOrthographic, fitPerspective, jointRadius, loadArrows, reactionArrows, supportSize, type Box } from "./framing";
 import { deformedPositions, upAxis, visualRadii, type TrussView, type Vec3 } from "./truss-view";
 
 export type ColourMode = "utilization" | "force" | "plain";
@@ -22,6 +22,7 @@ export interface SceneSettings {
   showDeformed: boolean;
   deformationScale: number;
   showLoads: boolean;
+  showReactions?: boolean;
   showSupports: boolean;
   projection2d: boolean;
   fitNonce: number; // bump to re-frame the camera
@@ -75,6 +76,7 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
       {settings.showDeformed && view.hasResult && <DeformedOverlay view={view} settings={settings} />}
       {settings.showSupports && <Supports view={view} />}
       {settings.showLoads && <Loads view={view} loadCase={settings.loadCase} />}
+      {settings.showReactions && <Loads view={view} loadCase={settings.loadCase} reactions />}
       <Framing view={view} box={drawnBox(view, settings)} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
     </Canvas>
   );
@@ -277,14 +279,19 @@ function Supports({ view }: { view: TrussView }) {
 }
 
 /**
- * Load arrows of one load case, heads on the node, length by magnitude: all shafts in one
- * line set and all heads in one instanced cone mesh (two draw calls for any number of loads).
+ * Load arrows of one load case (or, with `reactions`, its support reactions, in the supports'
+ * green), heads on the node, length by magnitude: all shafts in one line set and all heads in
+ * one instanced cone mesh (two draw calls for any number of arrows).
  */
-function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
+function Loads({ view, loadCase, reactions = false }: { view: TrussView; loadCase: number; reactions?: boolean }) {
   const invalidate = useThree((s) => s.invalidate);
-  const arrows = useMemo(() => loadArrows(view, loadCase).map((a) => ({ ...a, dir: new THREE.Vector3(...a.dir) })), [view, loadCase]);
+  const arrows = useMemo(
+    () => (reactions ? reactionArrows : loadArrows)(view, loadCase).map((a) => ({ ...a, dir: new THREE.Vector3(...a.dir) })),
+    [view, loadCase, reactions],
+  );
   const objects = useMemo(() => {
-    const colour = new THREE.Color(cssColor("--color-ink", "#16202c")); // not blue: tension members are
+    // loads in ink, not blue (tension members are); reactions in the supports' colour
+    const colour = new THREE.Color(reactions ? cssColor("--color-ok", "#2f7d5b") : cssColor("--color-ink", "#16202c"));
     const shaft = new Float32Array(arrows.length * 6);
     arrows.forEach((a, i) => {
       const tip = new THREE.Vector3(...a.tip);
@@ -300,6 +307,7 @@ function Loads({ view, loadCase }: { view: TrussView; loadCase: number }) {
     const heads = new THREE.InstancedMesh(cone, new THREE.MeshLambertMaterial({ color: colour }), Math.max(1, arrows.length));
     heads.count = arrows.length;
     return { lines, heads };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [arrows]);
   useLayoutEffect(() => {
     const mat = new THREE.Matrix4();

@@ -36,17 +36,22 @@ interface Props {
   result?: ResultLike | null;
   title?: string;
   height?: string;
+  /** the page's chosen load case or combination; without it the viewer offers its own choice */
+  caseId?: string;
 }
 
 const SCALE_STEPS = 40; // slider positions, on a log scale around the default magnification
 
-export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]" }: Props) {
+export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId }: Props) {
   const view = useMemo(() => buildTrussView(model, result), [model, result]);
+  const hasReactions = view.loadCases.some((c) => c.reactions.length > 0);
   const [mounted, setMounted] = useState(false);
   const [gl, setGl] = useState<boolean | null>(null);
   const [lost, setLost] = useState(false);
   const [selected, setSelected] = useState<number | null>(null);
-  const [loadCase, setLoadCase] = useState(0);
+  const [ownCase, setLoadCase] = useState(0);
+  const pickedIndex = caseId === undefined ? -1 : view.loadCases.findIndex((c) => c.id === caseId);
+  const loadCase = pickedIndex >= 0 ? pickedIndex : ownCase;
   const baseScale = useMemo(() => defaultDeformationScale(view, loadCase), [view, loadCase]);
   const [scaleStep, setScaleStep] = useState(SCALE_STEPS / 2);
   const [settings, setSettings] = useState<Omit<SceneSettings, "loadCase" | "deformationScale">>({
@@ -54,6 +59,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
     showInitial: view.hasResult,
     showDeformed: false,
     showLoads: true,
+    showReactions: hasReactions,
     showSupports: true,
     projection2d: view.planar,
     fitNonce: 0,
@@ -97,13 +103,14 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
             </select>
           </label>
         )}
-        {view.loadCases.length > 1 && (
+        {view.loadCases.length > 1 && caseId === undefined && (
           <label className="flex items-center gap-2">
             <span className="text-ink-muted">Load case</span>
             <select className="field-input w-auto py-1" value={loadCase} onChange={(e) => setLoadCase(Number(e.target.value))}>
               {view.loadCases.map((c, i) => (
                 <option key={c.id} value={i}>
                   {c.name ? `${c.id} — ${c.name}` : c.id}
+                  {c.combination ? " (combination)" : ""}
                 </option>
               ))}
             </select>
@@ -126,6 +133,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
         {view.hasResult && <Toggle label="deformed shape" checked={settings.showDeformed} onChange={(v) => set("showDeformed", v)} />}
         <Toggle label="loads" checked={settings.showLoads} onChange={(v) => set("showLoads", v)} />
         <Toggle label="supports" checked={settings.showSupports} onChange={(v) => set("showSupports", v)} />
+        {hasReactions && <Toggle label="reactions" checked={!!settings.showReactions} onChange={(v) => set("showReactions", v)} />}
         {view.hasResult && settings.showDeformed && (
           <label className="flex min-w-56 flex-1 items-center gap-2">
             <span className="whitespace-nowrap text-ink-muted">Magnify ×{formatNumber(deformationScale, { sig: 2 })}</span>
@@ -180,7 +188,12 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
       </div>
 
       <div className="flex flex-col gap-3 border-t border-rule px-4 py-3 text-sm sm:flex-row sm:items-start sm:justify-between">
-        <Legend mode={view.hasResult ? settings.colourMode : "plain"} showInitial={settings.showInitial && view.hasResult} showDeformed={settings.showDeformed && view.hasResult} />
+        <Legend
+          mode={view.hasResult ? settings.colourMode : "plain"}
+          showInitial={settings.showInitial && view.hasResult}
+          showDeformed={settings.showDeformed && view.hasResult}
+          showReactions={!!settings.showReactions && hasReactions}
+        />
         <p className="text-ink-muted sm:text-right" aria-live="polite" data-testid="selected-member">
           {sel ? (
             <>

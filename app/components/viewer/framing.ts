@@ -35,13 +35,12 @@ export interface LoadArrow {
   len: number;
 }
 
-/** The arrows of one load case: heads on the nodes, length by magnitude (at least a quarter of the longest). */
-export function loadArrows(view: TrussView, loadCase: number): LoadArrow[] {
-  const lc = view.loadCases[loadCase];
-  const maxF = lc ? lc.loads.reduce((m, l) => Math.max(m, Math.hypot(...l.f)), 0) : 0;
-  if (!lc || !(maxF > 0)) return [];
+/** Arrows for nodal forces: heads on the nodes, length by magnitude (at least a quarter of the longest). */
+function forceArrows(view: TrussView, forces: { node: number; f: Vec3 }[]): LoadArrow[] {
+  const maxF = forces.reduce((m, l) => Math.max(m, Math.hypot(...l.f)), 0);
+  if (!(maxF > 0)) return [];
   const longest = loadArrowLength(view);
-  return lc.loads
+  return forces
     .filter((l) => Math.hypot(...l.f) > 0)
     .map((l) => {
       const mag = Math.hypot(...l.f);
@@ -49,9 +48,23 @@ export function loadArrows(view: TrussView, loadCase: number): LoadArrow[] {
     });
 }
 
+/** The arrows of one load case (or combination): the nodal loads as given. */
+export function loadArrows(view: TrussView, loadCase: number): LoadArrow[] {
+  return forceArrows(view, view.loadCases[loadCase]?.loads ?? []);
+}
+
+/**
+ * The support reactions of one load case or combination, drawn like loads (head on the node,
+ * along the force the support exerts on the truss), scaled among themselves.
+ */
+export function reactionArrows(view: TrussView, loadCase: number): LoadArrow[] {
+  return forceArrows(view, view.loadCases[loadCase]?.reactions ?? []);
+}
+
 export interface DrawnParts {
   loadCase: number;
   showLoads: boolean;
+  showReactions?: boolean;
   showSupports: boolean;
   showDeformed: boolean;
   deformationScale: number;
@@ -76,8 +89,9 @@ export function drawnBox(view: TrussView, parts: DrawnParts): Box {
     const s = supportSize(view);
     for (const n of view.nodes) if (n.fixed.length) add(n.position, s);
   }
-  if (parts.showLoads)
-    for (const a of loadArrows(view, parts.loadCase)) {
+  const arrows = [...(parts.showLoads ? loadArrows(view, parts.loadCase) : []), ...(parts.showReactions ? reactionArrows(view, parts.loadCase) : [])];
+  if (arrows.length)
+    for (const a of arrows) {
       const head = a.len * 0.14; // the cone's half-width
       add([a.tip[0] - a.dir[0] * a.len, a.tip[1] - a.dir[1] * a.len, a.tip[2] - a.dir[2] * a.len], head);
       add(a.tip, head);

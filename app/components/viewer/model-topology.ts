@@ -11,5 +11,6 @@ export function topologyOf(file: unknown): ModelLike | null {
     nodes: m.nodes.map((n) => ({ id: n.id, x: n.x, y: n.y, z: n.z, fixed: n.fixed })),
     members: m.members.map((x) => ({ id: x.id, start: x.start, end: x.end, area: x.area, group: x.group })),
     loadCases: m.loadCases.map((lc) => ({ id: lc.id, name: lc.name, loads: lc.loads })),
+    ...(Array.isArray(m.combinations) ? { combinations: m.combinations.map((c) => ({ id: c.id, name: c.name, factors: c.factors ?? {} })) } : {}),
   };
 }

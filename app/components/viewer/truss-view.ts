@@ -12,11 +12,15 @@ export interface ModelLike {
   nodes: { id: string; x: number; y: number; z?: number; fixed?: AxisName[] }[];
   members: { id: string; start: string; end: string; area: number; group?: string; material?: string }[];
   loadCases: { id: string; name?: string; loads: { node: string; fx?: number; fy?: number; fz?: number }[] }[];
+  /** factored sums of load cases (truss-format.md, "Additions") */
+  combinations?: { id: string; name?: string; factors: Record<string, number> }[];
 }
 
 export interface ResultLike {
   members: { id: string; area: number; utilization: number; force: Record<string, number> }[];
   nodes: { id: string; x: number; y: number; z: number; displacement: Record<string, [number, number, number]> }[];
+  /** support reactions per load case and combination */
+  reactions?: { node: string; values: Record<string, [number, number, number]> }[];
 }
 
 export interface ViewNode {
@@ -39,7 +43,9 @@ export interface ViewMember {
 export interface ViewLoadCase {
   id: string;
   name?: string;
-  loads: { node: number; f: Vec3 }[];
+  combination?: boolean;
+  loads: { node: number; f: Vec3 }[]; // nodal loads as given (a combination: factored sum); own weight not included
+  reactions: { node: number; f: Vec3 }[]; // support reactions of the result, none without one
   displacement: Vec3[] | null; // per node, null without a result
   maxDisplacement: number;
   maxAbsForce: number;
@@ -100,10 +106,27 @@ export function buildTrussView(model: ModelLike, result?: ResultLike | null): Tr
     });
   }
 
-  const loadCases: ViewLoadCase[] = model.loadCases.map((lc) => {
-    const loads = lc.loads
-      .filter((l) => index.has(l.node))
-      .map((l) => ({ node: index.get(l.node)!, f: [l.fx ?? 0, l.fy ?? 0, l.fz ?? 0] as Vec3 }));
+  const caseLoads = (lc: ModelLike["loadCases"][number]) =>
+    lc.loads.filter((l) => index.has(l.node)).map((l) => ({ node: index.get(l.node)!, f: [l.fx ?? 0, l.fy ?? 0, l.fz ?? 0] as Vec3 }));
+  const byCase = new Map(model.loadCases.map((lc) => [lc.id, caseLoads(lc)]));
+  const combinationLoads = (factors: Record<string, number>) => {
+    const sum = new Map<number, Vec3>();
+    for (const [id, k] of Object.entries(factors))
+      for (const l of byCase.get(id) ?? []) {
+        const f = sum.get(l.node) ?? zero();
+        sum.set(l.node, [f[0] + k * l.f[0], f[1] + k * l.f[1], f[2] + k * l.f[2]]);
+      }
+    return [...sum].map(([node, f]) => ({ node, f }));
+  };
+  const reactionsOf = (id: string) =>
+    (result?.reactions ?? []).filter((r) => index.has(r.node) && r.values[id]).map((r) => ({ node: index.get(r.node)!, f: [...r.values[id]!] as Vec3 }));
+  const sources = [
+    ...model.loadCases.map((lc) => ({ id: lc.id, name: lc.name, combination: false, loads: byCase.get(lc.id)! })),
+    ...(model.combinations ?? []).map((c) => ({ id: c.id, name: c.name, combination: true, loads: combinationLoads(c.factors) })),
+  ];
+
+  const loadCases: ViewLoadCase[] = sources.map((lc) => {
+    const loads = lc.loads;
     let displacement: Vec3[] | null = null;
     let maxDisplacement = 0;
     if (result) {
@@ -116,7 +139,7 @@ export function buildTrussView(model: ModelLike, result?: ResultLike | null): Tr
     }
     let maxAbsForce = 0;
     for (const m of members) maxAbsForce = Math.max(maxAbsForce, Math.abs(m.force?.[lc.id] ?? 0));
-    return { id: lc.id, name: lc.name, loads, displacement, maxDisplacement, maxAbsForce };
+    return { id: lc.id, name: lc.name, ...(lc.combination ? { combination: true } : {}), loads, reactions: reactionsOf(lc.id), displacement, maxDisplacement, maxAbsForce };
   });
 
   const positions = nodes.flatMap((n) => [n.position, n.initial]);

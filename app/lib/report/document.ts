@@ -9,6 +9,8 @@ import { modelSection } from "./model-section";
 import { drawPageMarks } from "./page-marks";
 import { reviewState, type ReportData } from "./report-data";
 import { resultsSection } from "./results-section";
+import { catalogueSection } from "./catalogue-section";
+import { reactionsSection } from "./reactions-section";
 
 export function buildReportPdf(data: ReportData): Promise<Uint8Array> {
   const doc = createDocument({
@@ -29,6 +31,8 @@ export function buildReportPdf(data: ReportData): Promise<Uint8Array> {
     modelSection(w, data);
     designSection(w, data);
     resultsSection(w, data);
+    reactionsSection(w, data);
+    catalogueSection(w, data);
     constraintsSection(w, data);
     drawPageMarks(w, {
       left: `Strutwise calculation record · ${data.project.code}`,

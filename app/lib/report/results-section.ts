@@ -9,9 +9,10 @@ import type { ReportData } from "./report-data";
 import { chunks, table } from "./tables";
 import { drawingInput, trussDrawing } from "./truss-drawing";
 import { objectiveUnit, unitLabels } from "./units";
+import { resultCases } from "~/lib/results/cases";
 
 export function loadCaseIds(data: ReportData): { id: string; name?: string }[] {
-  if (data.result.loadCases?.length) return data.result.loadCases;
+  if (data.result.loadCases?.length) return resultCases(data.result); // load cases, then combinations
   if (data.model.file?.loadCases?.length) return data.model.file.loadCases.map((l) => ({ id: l.id, name: l.name }));
   const ids = new Set<string>();
   for (const m of data.result.members) for (const k of Object.keys(m.force)) ids.add(k);
@@ -48,23 +49,44 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
   const utilColor = (x: number) => UTIL_BANDS[utilBand(x)]!.color;
   w.newPage();
   w.heading("Members", 2);
-  w.paragraph("Utilization is the worst ratio of a member's checks (stress, buckling) over all load cases; 100 % is at the limit.", { size: 8.5, color: INK_MUTED });
+  w.paragraph(
+    r.combinations?.length
+      ? "Utilization is the worst ratio of a member's checks (stress, buckling) over the strength combinations; 100 % is at the limit. \"Governed by\" names the check and the combination."
+      : "Utilization is the worst ratio of a member's checks (stress, buckling) over all load cases; 100 % is at the limit.",
+    { size: 8.5, color: INK_MUTED },
+  );
+  // catalogue sections and per-member buckling factors get columns only when the result has them
+  const withSection = r.members.some((m) => m.section !== undefined);
+  const withK = r.members.some((m) => m.bucklingFactor !== undefined);
+  const utilColumn = 5 + (withSection ? 1 : 0) + (withK ? 1 : 0);
   table(
     w,
     [
       { header: "Member", weight: 2.6 },
       { header: "Nodes", weight: 3 },
       { header: "Group", weight: 2.4 },
+      ...(withSection ? [{ header: "Section", weight: 3 }] : []),
       { header: `Area (${u.area})`, weight: 2.2, align: "right" },
       { header: `Length (${u.length})`, weight: 2.2, align: "right" },
+      ...(withK ? [{ header: "k", weight: 1, align: "right" as const }] : []),
       { header: "Utilization", weight: 2, align: "right" },
       { header: "Governed by", weight: 3 },
     ],
-    r.members.map((m) => [m.id, m.start && m.end ? `${m.start}–${m.end}` : "", m.group ?? "", formatNumber(m.area), formatNumber(m.length, { sig: 5 }), formatPercent(m.utilization), m.governing ?? ""]),
+    r.members.map((m) => [
+      m.id,
+      m.start && m.end ? `${m.start}–${m.end}` : "",
+      m.group ?? "",
+      ...(withSection ? [m.section ?? ""] : []),
+      formatNumber(m.area),
+      formatNumber(m.length, { sig: 5 }),
+      ...(withK ? [formatNumber(m.bucklingFactor, { sig: 3 })] : []),
+      formatPercent(m.utilization),
+      m.governing ?? "",
+    ]),
     {
       title: `${r.members.length} members`,
       marker: (i) => utilColor(r.members[i]!.utilization),
-      cellColor: (i, c) => (c === 5 && utilBand(r.members[i]!.utilization) === UTIL_BANDS.length - 1 ? BAD : undefined),
+      cellColor: (i, c) => (c === utilColumn && utilBand(r.members[i]!.utilization) === UTIL_BANDS.length - 1 ? BAD : undefined),
     },
   );
 
