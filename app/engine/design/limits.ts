@@ -3,6 +3,7 @@
 // the nested one adds the adjoint term for u = u(A, x), the simultaneous one keeps the u part
 // as Jacobian entries on the displacement variables.
 import type { DesignProblem, Limit } from "./problem";
+import { bucklingCoefficient } from "./buckling";
 
 /** Sparse partials of one limit: by member area, by coordinate dof, by displacement dof. */
 export class Partials {
@@ -44,7 +45,9 @@ export interface LimitState {
   coords: Float64Array;
   lengths: Float64Array;
   volume: number;
-  displacements: ArrayLike<number>[]; // per load case, nNodes*3
+  displacements: ArrayLike<number>[]; // per response (load cases, then combinations), nNodes*3
+  /** applied loads per load case (own weight included), nNodes*3 */
+  loads: ArrayLike<number>[];
 }
 
 const d = new Float64Array(3);
@@ -72,11 +75,10 @@ export function limitValue(p: DesignProblem, lim: Limit, st: LimitState): number
       return (lim.sign * sigma) / lim.limit - 1;
     }
     case "buckling": {
-      // -sigma / sigma_E - 1 = -k^2 (d.du) / (pi^2 r A) - 1   (E and L^2 cancel)
+      // -sigma / sigma_E - 1 = -c (d.du) - 1, c = k^2 A / (pi^2 I)   (E and L^2 cancel)
       memberVectors(p, st, lim.member, st.displacements[lim.loadCase]);
-      const b = p.buckling!;
       const e = d[0] * du[0] + d[1] * du[1] + d[2] * du[2];
-      return (-b.k * b.k * e) / (Math.PI * Math.PI * b.sectionRatio * st.areas[lim.member]) - 1;
+      return -bucklingCoefficient(p.buckling!, lim.member, st.areas[lim.member]).c * e - 1;
     }
     case "displacement":
       return (lim.sign * st.displacements[lim.loadCase][lim.dof]) / lim.limit - 1;
@@ -108,12 +110,10 @@ export function limitPartials(p: DesignProblem, lim: Limit, st: LimitState, out:
     }
     case "buckling": {
       memberVectors(p, st, e, st.displacements[lim.loadCase]);
-      const b = p.buckling!;
-      const A = st.areas[e];
-      const c = (b.k * b.k) / (Math.PI * Math.PI * b.sectionRatio * A);
+      const { c, dcdA } = bucklingCoefficient(p.buckling!, e, st.areas[e]);
       const ed = d[0] * du[0] + d[1] * du[1] + d[2] * du[2];
       out.aIdx.push(e);
-      out.aVal.push((c * ed) / A);
+      out.aVal.push(-dcdA * ed);
       out.addMemberVector(p, e, du, -c);
       out.addMemberRelative(p, e, d, -c);
       return;
@@ -156,7 +156,7 @@ export function objectiveValue(p: DesignProblem, st: LimitState): number {
   }
   let c = 0;
   for (let l = 0; l < s.loads.length; l++) {
-    const f = s.loads[l], u = st.displacements[l];
+    const f = st.loads[l], u = st.displacements[l];
     for (let q = 0; q < f.length; q++) if (f[q] !== 0) c += f[q] * u[q];
   }
   return c;

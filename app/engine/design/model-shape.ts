@@ -16,11 +16,21 @@ export interface DesignModelMember {
   material: string;
   area: number;
   group?: string;
+  bucklingFactor?: number;
+  section?: string;
+}
+
+export interface DesignSection {
+  id: string;
+  area: number;
+  I: number;
+  family?: string;
 }
 
 export interface DesignBlock {
   objective?: "mass" | "compliance";
   formulation?: "nested" | "simultaneous";
+  sizing?: "continuous" | "catalogue";
   areaBounds?: { min: number; max: number };
   groups?: readonly { id: string; min?: number; max?: number }[];
   shape?: readonly {
@@ -45,6 +55,8 @@ export interface DesignModel {
   nodes: readonly DesignModelNode[];
   members: readonly DesignModelMember[];
   materials: readonly { id: string }[];
-  loadCases: readonly { id: string; name?: string }[];
+  loadCases: readonly { id: string; name?: string; selfWeight?: number }[];
+  sections?: readonly DesignSection[];
+  combinations?: readonly { id: string; name?: string; use: "strength" | "service"; factors: Readonly<Record<string, number>> }[];
   design?: DesignBlock;
 }

@@ -1,15 +1,21 @@
 // Nested formulation: the optimizer sees only the design variables; every evaluation runs one
 // stiffness analysis (one factorization shared by all load cases) and the displacements are
 // eliminated. Gradients by the adjoint method: for a limit g(A, x, u) with K lambda = dg/du,
-//   dg/dp = dg/dp|_u - lambda^T d(K u)/dp        (loads do not depend on the design)
-// so each requested (screened) limit costs one extra solve with the same factorization;
+//   dg/dp = dg/dp|_u + lambda^T (df/dp - d(K u)/dp)
+// where df/dp is the own weight's share (own-weight.ts; zero without own weight), so each requested (screened) limit costs one extra solve with the same factorization;
 // limits that share a response (tension/compression/buckling of one member, +-u of one dof)
-// share that solve. Compliance is self-adjoint (lambda = u) and costs no solve at all.
+// share that solve. Compliance is self-adjoint (lambda = u) and costs no solve at all:
+// dC/dp = sum_l 2 u_l^T df_l/dp - u_l^T dK/dp u_l. A limit on a combination uses the
+// combination's u (the factored sum, from the same factorization); since K u is linear in u
+// and the combination's load is the factored sum, the same adjoint formula holds with the
+// combination's own-weight factor.
 import { analyze, type Analysis } from "../truss";
 import type { SqpProblem } from "../sqp";
 import { adjointProduct, memberLengths } from "./element";
 import { Partials, limitPartials, limitValue, massPartials, objectiveValue, toDesign, type LimitState } from "./limits";
 import { designState, type DesignProblem } from "./problem";
+import { addOwnWeightGradient } from "./own-weight";
+import { responseSelfWeight } from "../truss";
 
 export interface Counters {
   analyses: number; // stiffness factorizations: one per evaluation (nested), one per iterate (simultaneous)
@@ -46,7 +52,7 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
     const lengths = memberLengths(s, coords);
     let volume = 0;
     for (let e = 0; e < m; e++) volume += areas[e] * lengths[e];
-    cache = { areas, coords, lengths, volume, displacements: analysis.displacements, analysis };
+    cache = { areas, coords, lengths, volume, displacements: analysis.displacements, loads: analysis.loads, analysis };
     cacheKey = Float64Array.from(z.subarray(0, p.nDesign));
     return cache;
   }
@@ -58,6 +64,7 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
   const dv = new Float64Array(3), dU = new Float64Array(3), dL = new Float64Array(3), gd = new Float64Array(3);
   const isShapeMember = new Uint8Array(m);
   for (const e of p.shapeMembers) isShapeMember[e] = 1;
+  const selfWeightOf = responseSelfWeight(s.selfWeight, s.combinations);
 
   /** out -= factor * d(lambda^T K u)/d(design) for one load case's u and a lambda. */
   function subtractAdjoint(st: NestedState, u: ArrayLike<number>, lambda: ArrayLike<number>, factor: number, out: Float64Array) {
@@ -103,7 +110,10 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
         massPartials(p, st, part);
         toDesign(p, part, grad);
       } else {
-        for (let l = 0; l < s.loads.length; l++) subtractAdjoint(st, st.displacements[l], st.displacements[l], 1, grad);
+        for (let l = 0; l < s.loads.length; l++) {
+          subtractAdjoint(st, st.displacements[l], st.displacements[l], 1, grad);
+          if (selfWeightOf[l] !== 0) addOwnWeightGradient(p, st.areas, st.coords, st.lengths, st.displacements[l], 2 * selfWeightOf[l], grad, isShapeMember);
+        }
       }
       for (let k = 0; k < grad.length; k++) grad[k] /= objectiveScale;
 
@@ -125,7 +135,10 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
             counters.solves++;
             lambdaCache.set(key, entry);
           }
-          subtractAdjoint(st, st.displacements[lim.loadCase], entry.lambda, part.uVal[0] / entry.ref, row);
+          const factor = part.uVal[0] / entry.ref;
+          subtractAdjoint(st, st.displacements[lim.loadCase], entry.lambda, factor, row);
+          const sw = selfWeightOf[lim.loadCase];
+          if (sw !== 0) addOwnWeightGradient(p, st.areas, st.coords, st.lengths, entry.lambda, factor * sw, row, isShapeMember);
         }
         ineq.push(row);
       }

@@ -8,15 +8,21 @@
 // - objective F = f / f_0, f_0 = the objective at the starting design;
 // - every limit as a ratio that is 0 on the limit and -1 far away from it:
 //     stress       sigma/sigma_t - 1,  -sigma/sigma_c - 1
-//     buckling     -sigma/sigma_E - 1, sigma_E = pi^2 E r A / (k L)^2 (Euler, I = r A^2)
+//     buckling     -sigma/sigma_E - 1, sigma_E = pi^2 E I / ((k L)^2 A) (Euler; I see buckling.ts)
 //     displacement +-u/limit - 1
 //     volume       V/V_max - 1
 //     length       1 - L/L_min (shape only: L_min = 0.2 L_0 keeps members from collapsing or
 //                  passing through zero length, the way a member would invert)
+// Limits are checked per response (loadCase holds a response index: load cases first, then
+// combinations, as Structure.responseIds): with combinations, stress and buckling on every
+// strength combination and displacements on every service combination; without, every limit
+// on every load case.
 import type { Structure } from "../truss";
 import type { JobOptions } from "./options";
 import type { DesignModel } from "./model-shape";
 import { memberLengths } from "./element";
+import { fitSecondMoment } from "../sections/fit";
+import type { BucklingModel } from "./buckling";
 
 export type Objective = "mass" | "compliance";
 export type Formulation = "nested" | "simultaneous";
@@ -46,7 +52,7 @@ export interface Limit {
   member: number; // -1 when not a member limit
   dof: number; // displacement limits: node*3 + axis; else -1
   sign: 1 | -1; // displacement: which side of |u| <= limit
-  loadCase: number; // -1 for volume and length
+  loadCase: number; // response index (load case, then combination); -1 for volume and length
   limit: number; // in model units (stress, length, volume)
 }
 
@@ -68,7 +74,10 @@ export interface DesignProblem {
   /** members whose length can change with the shape variables */
   shapeMembers: Int32Array;
   limits: Limit[];
-  buckling: { sectionRatio: number; k: number } | null;
+  buckling: BucklingModel | null;
+  /** responses checked for stress and buckling, and for displacements */
+  strengthResponses: number[];
+  serviceResponses: number[];
   coords0: Float64Array;
   lengths0: Float64Array;
   nDesign: number; // areaVars.length + shapeVars.length
@@ -159,11 +168,12 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
   const nLc = s.loadCaseIds.length;
   const useStress = options.stress ?? c.stress ?? false;
   const useBuckling = options.buckling ?? Boolean(c.buckling);
-  const buckling = useBuckling
-    ? { sectionRatio: c.buckling?.sectionRatio ?? DEFAULT_SECTION_RATIO, k: c.buckling?.effectiveLengthFactor ?? 1 }
-    : null;
-  for (let l = 0; l < nLc; l++) {
-    const lc = s.loadCaseIds[l];
+  const buckling = useBuckling ? bucklingModel(model, c.buckling) : null;
+  const strengthResponses = responsesFor(s, "strength");
+  const serviceResponses = responsesFor(s, "service");
+  void nLc;
+  for (const l of strengthResponses) {
+    const lc = s.responseIds[l];
     for (let e = 0; e < m; e++) {
       const id = s.memberIds[e];
       if (useStress && Number.isFinite(s.allowTension[e])) {
@@ -197,9 +207,9 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
     }
   }
   const dispDofs = [...dispLimit.keys()].sort((a, b) => a - b);
-  for (let l = 0; l < nLc; l++) {
+  for (const l of serviceResponses) {
     for (const dof of dispDofs) {
-      const id = `displacement:${s.nodeIds[Math.floor(dof / 3)]}:${AXIS_NAMES[dof % 3]}:${s.loadCaseIds[l]}`;
+      const id = `displacement:${s.nodeIds[Math.floor(dof / 3)]}:${AXIS_NAMES[dof % 3]}:${s.responseIds[l]}`;
       const limit = dispLimit.get(dof)!;
       limits.push({ kind: "displacement", id, member: -1, dof, sign: 1, loadCase: l, limit });
       limits.push({ kind: "displacement", id, member: -1, dof, sign: -1, loadCase: l, limit });
@@ -238,13 +248,38 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
 
   return {
     model, structure: s, objective, formulation, areaVars, shapeVars, memberVar, dofShape,
-    shapeMembers: Int32Array.from(shapeMemberList), limits, buckling, coords0, lengths0, nDesign,
+    shapeMembers: Int32Array.from(shapeMemberList), limits, buckling, strengthResponses, serviceResponses, coords0, lengths0, nDesign,
     x0, lower, upper,
     // the active bound set of a ground structure settles a few members per iteration, so the
     // default budget grows with the design variable count
     maxIterations: options.maxIterations ?? design.solver?.maxIterations ?? Math.min(20000, Math.max(200, 4 * nDesign)),
     tolerance: options.tolerance ?? design.solver?.tolerance ?? 1e-6,
   };
+}
+
+/** Responses a limit use applies to: the combinations of that use, else every load case. */
+export function responsesFor(s: Structure, use: "strength" | "service"): number[] {
+  const nLc = s.loadCaseIds.length;
+  if (s.combinations.length === 0) return s.loadCaseIds.map((_, l) => l);
+  const out: number[] = [];
+  s.combinations.forEach((c, k) => {
+    if (c.use === use) out.push(nLc + k);
+  });
+  return out;
+}
+
+/**
+ * The buckling model of a design: I from the model's sections (least-squares fit I = a A^b),
+ * else I = sectionRatio A^2; k per member from members[].bucklingFactor, else the design's.
+ */
+export function bucklingModel(model: DesignModel, spec: { sectionRatio?: number; effectiveLengthFactor?: number } | undefined): BucklingModel {
+  const kDefault = spec?.effectiveLengthFactor ?? 1;
+  const k = Float64Array.from(model.members.map((mm) => mm.bucklingFactor ?? kDefault));
+  if (model.sections && model.sections.length > 0) {
+    const fit = fitSecondMoment(model.sections);
+    return { a: fit.a, b: fit.b, k, memberI: null, source: "fit", fit };
+  }
+  return { a: spec?.sectionRatio ?? DEFAULT_SECTION_RATIO, b: 2, k, memberI: null, source: "sectionRatio" };
 }
 
 /** Areas and node coordinates of the scaled design vector z (first nDesign entries). */

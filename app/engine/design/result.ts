@@ -12,6 +12,7 @@ import { nestedFormulation } from "./nested";
 import { simultaneousFormulation } from "./simultaneous";
 import { reanalyze, VERIFY_TOLERANCE } from "./verify";
 import { activeConstraints, priceConstraints, shadowPrices } from "./shadow-prices";
+import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, reactions, resultCombinations } from "./responses";
 
 const DESIGN_HINTS: Partial<Record<SolverStatus, string>> = {
   "not-converged":
@@ -130,25 +131,17 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
 
   const priced = priceConstraints(p, r, run.objectiveScale);
   const members: ResultMember[] = s.memberIds.map((id, e) => {
-    const force: Record<string, number> = {};
-    const stress: Record<string, number> = {};
-    s.loadCaseIds.forEach((lc, l) => {
-      force[lc] = a.forces[l][e];
-      stress[lc] = a.stresses[l][e];
-    });
     const mm = p.model.members[e];
     return {
       id, start: mm.start, end: mm.end, ...(mm.group ? { group: mm.group } : {}),
-      area: areas[e], length: a.lengths[e], force, stress,
+      area: areas[e], length: a.lengths[e], force: memberForceMap(s, a, e), stress: memberStressMap(s, a, e),
       utilization: re.members[e].utilization, governing: re.members[e].governing,
+      ...(re.members[e].governingCase ? { governingCase: re.members[e].governingCase } : {}),
+      ...(p.buckling ? { bucklingFactor: p.buckling.k[e] } : {}),
     };
   });
   const nodes: ResultNode[] = s.nodeIds.map((id, i) => {
-    const displacement: Record<string, [number, number, number]> = {};
-    s.loadCaseIds.forEach((lc, l) => {
-      const u = a.displacements[l];
-      displacement[lc] = [u[3 * i], u[3 * i + 1], u[3 * i + 2]];
-    });
+    const displacement = nodeDisplacementMap(s, a, i);
     const fixed = (p.model.nodes[i].fixed ?? []).slice();
     return {
       id, x: coords[3 * i], y: coords[3 * i + 1], z: coords[3 * i + 2],
@@ -175,7 +168,10 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
     mass: a.mass,
     members,
     nodes,
-    loadCases: p.model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}) })),
+    loadCases: p.model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}), ...(lc.selfWeight ? { selfWeight: lc.selfWeight } : {}) })),
+    ...(s.combinations.length ? { combinations: resultCombinations(s) } : {}),
+    reactions: reactions(s, a),
+    reactionBalance: reactionBalance(s, a),
     variables: shapeValues(p, z),
     activeConstraints: activeConstraints(priced),
     shadowPrices: shadowPrices(p, priced, objectiveFinal, run.objectiveScale),

@@ -7,6 +7,7 @@
 // Area and shape bounds in scaled variables z = A / A_ref: price = f0 mu / A_ref.
 // The dimensionless mu itself is the relative change of F per relative relaxation (times
 // f0 / f*), which is what ranks the limits by how much they cost.
+import { eulerStress } from "./buckling";
 import type { SqpResult } from "../sqp";
 import type { ActiveConstraint, ShadowPrice } from "./result-types";
 import type { DesignProblem, Limit } from "./problem";
@@ -29,7 +30,7 @@ function limitWords(p: DesignProblem, lim: Limit): { what: string; relaxUnit: st
   const s = p.structure;
   const u = p.model.units;
   const stress = `${u.force}/${u.length}²`;
-  const lc = lim.loadCase >= 0 ? s.loadCaseIds[lim.loadCase] : "";
+  const lc = lim.loadCase >= 0 ? s.responseIds[lim.loadCase] : "";
   switch (lim.kind) {
     case "stress-tension":
       return { what: `tension stress allowance of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
@@ -76,8 +77,7 @@ export function priceConstraints(p: DesignProblem, r: SqpResult, objectiveScale:
       // the limit is the Euler stress of the final member: price per unit of it
       const A = p.areaVars[p.memberVar[lim.member]].scale * r.x[p.memberVar[lim.member]];
       const L = memberLengthAt(p, r.x, lim.member);
-      const b = p.buckling!;
-      scaleLimit = (Math.PI * Math.PI * p.structure.E[lim.member] * b.sectionRatio * A) / (b.k * b.k * L * L);
+      scaleLimit = eulerStress(p.buckling!, lim.member, p.structure.E[lim.member], A, L);
     }
     const price = mu > MULTIPLIER_FLOOR ? (objectiveScale * mu * (1 + g)) / scaleLimit : 0;
     add(lim.id, mu > MULTIPLIER_FLOOR ? mu : 0, price, words.what, words.relaxUnit);

@@ -21,9 +21,15 @@
 //   and the quasi-Newton matrix only over the design variables, where the curvature is unknown.
 //   The displacements stay optimization variables: equilibrium holds only to first order along
 //   the way and exactly at the end. Nothing in this module stores a dense matrix.
+// Own weight: the load of case l is P_l + s_l W(A, x) (own-weight.ts), so the equilibrium rows
+//   depend on the areas (and the shape) through the load as well as through K: the rows of the
+//   gravity dofs at a member's ends get +s_l/2 g rho L (per unit area) and its length
+//   derivative. Combinations are not variables: a limit on a combination reads the factored
+//   sum of the cases' displacement variables.
 // Start: the displacements of one stiffness analysis at the starting design, so the first
 //   iterate is in equilibrium and the limit values start exactly as in the nested formulation.
-import { analyze, factorStiffness } from "../truss";
+import { analyze, caseLoads, combineVectors, factorStiffness, responseFactors } from "../truss";
+import { addOwnWeightGradient } from "./own-weight";
 import type { SparseRow, SqpProblem } from "../sqp";
 import { internalForceByGeometry, memberLengths } from "./element";
 import { Partials, limitPartials, limitValue, massPartials, objectiveValue, type LimitState } from "./limits";
@@ -58,7 +64,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     let um = 0, fm = 0;
     for (const q of freeDofs) {
       um = Math.max(um, Math.abs(a0.displacements[l][q]));
-      fm = Math.max(fm, Math.abs(s.loads[l][q]));
+      fm = Math.max(fm, Math.abs(a0.loads[l][q]));
     }
     uRef[l] = um > 0 ? um : 1;
     fRef[l] = fm > 0 ? fm : 1;
@@ -130,8 +136,12 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
       for (let k = 0; k < nFree; k++) u[freeDofs[k]] = u0[freeDofs[k]] + uRef[l] * (z[off + k] - 1);
       displacements.push(u);
     }
-    return { areas, coords, lengths, volume, displacements };
+    if (s.combinations.length > 0) displacements.push(...combineVectors(s.combinations, displacements));
+    return { areas, coords, lengths, volume, displacements, loads: caseLoads(s, areas, lengths) };
   }
+  const weightPerLength = new Float64Array(m); // g rho / 2: a member end's own weight per unit A L
+  for (let e = 0; e < m; e++) weightPerLength[e] = 0.5 * s.weightPerMass * s.density[e];
+  const gAxis = s.gravityAxis;
 
   const f0 = objectiveValue(p, stateAt(x0));
   const objectiveScale = f0 > 0 ? f0 : 1;
@@ -169,6 +179,32 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     }
   }
 
+  /**
+   * The own-weight part of the equilibrium rows r = (K u - f) / fRef of one case for member e:
+   * -s dW/dA_e = +s g rho L / 2 at both ends' gravity dofs, and the length derivative
+   * -s dW/dd = +s g rho A / 2 d / L through the shape variables. Expects dv = d (memberForce).
+   */
+  function ownWeightRows(st: LimitState, e: number, sw: number, fr: number, vals: Float64Array[]) {
+    const dofs = dofsOf(e);
+    const vA = p.areaVars[p.memberVar[e]].scale;
+    const L = st.lengths[e];
+    const perArea = (sw * weightPerLength[e] * L * vA) / fr;
+    for (const a of [gAxis, 3 + gAxis]) {
+      const r = freeIndex[dofs[a]];
+      if (r < 0) continue;
+      vals[r][posA[e * 6 + a]] += perArea;
+      if (!isShapeMember[e]) continue;
+      const perLength = (sw * weightPerLength[e] * st.areas[e]) / (L * fr); // d/dL, times dL/dd_b = d_b / L below
+      for (let b = 0; b < 6; b++) {
+        const list = p.dofShape.get(dofs[b]);
+        if (!list) continue;
+        const sb = b < 3 ? -1 : 1;
+        const g = sb * perLength * dv[b % 3];
+        for (const t of list) vals[r][rowPos[r].get(t.v)!] += g * t.c;
+      }
+    }
+  }
+
   const problem: SqpProblem = {
     n,
     x0,
@@ -181,7 +217,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
       const eq = new Float64Array(nLc * nFree);
       for (let l = 0; l < nLc; l++) {
         const u = st.displacements[l] as Float64Array;
-        const f = s.loads[l];
+        const f = st.loads[l];
         const off = l * nFree;
         for (let k = 0; k < nFree; k++) eq[off + k] = -f[freeDofs[k]];
         for (let e = 0; e < m; e++) {
@@ -209,10 +245,14 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
         designColumns(part, map);
         for (const [c, v] of map) grad[c] = v / objectiveScale;
       } else {
+        const gDesign = new Float64Array(nD);
         for (let l = 0; l < nLc; l++) {
           const off = nD + l * nFree;
-          for (let k = 0; k < nFree; k++) grad[off + k] = (s.loads[l][freeDofs[k]] * uRef[l]) / objectiveScale;
+          for (let k = 0; k < nFree; k++) grad[off + k] = (st.loads[l][freeDofs[k]] * uRef[l]) / objectiveScale;
+          // C = sum f_l(A).u_l: the own-weight load's share u_l^T dW/dp
+          if (s.selfWeight[l] !== 0) addOwnWeightGradient(p, st.areas, st.coords, st.lengths, st.displacements[l], s.selfWeight[l], gDesign, isShapeMember);
         }
+        for (let k = 0; k < nD; k++) grad[k] += gDesign[k] / objectiveScale;
       }
 
       // Equilibrium rows.
@@ -221,8 +261,10 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
         const u = st.displacements[l] as Float64Array;
         const vals = patternIndex.map((ix) => new Float64Array(ix.length));
         const wScale = uRef[l] / fRef[l];
+        const sw = s.selfWeight[l];
         for (let e = 0; e < m; e++) {
           const c = memberForce(st, e, u);
+          if (sw !== 0) ownWeightRows(st, e, sw, fRef[l], vals);
           const L = st.lengths[e];
           const k0 = (st.areas[e] * s.E[e]) / (L * L * L);
           const dofs = dofsOf(e);
@@ -274,11 +316,16 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
         const map = new Map<number, number>();
         designColumns(part, map);
         if (part.uIdx.length) {
-          const off = nD + lim.loadCase * nFree;
-          const sc = uRef[lim.loadCase];
-          for (let t = 0; t < part.uIdx.length; t++) {
-            const c = off + freeIndex[part.uIdx[t]];
-            map.set(c, (map.get(c) ?? 0) + part.uVal[t] * sc);
+          // a combination's u is the factored sum of its cases' displacement variables
+          const factors = responseFactors(nLc, s.combinations, lim.loadCase);
+          for (let l = 0; l < nLc; l++) {
+            if (factors[l] === 0) continue;
+            const off = nD + l * nFree;
+            const sc = uRef[l] * factors[l];
+            for (let t = 0; t < part.uIdx.length; t++) {
+              const c = off + freeIndex[part.uIdx[t]];
+              map.set(c, (map.get(c) ?? 0) + part.uVal[t] * sc);
+            }
           }
         }
         ineq.push(sparseFrom(map));

@@ -6,6 +6,7 @@ import { analyze, type Analysis } from "../truss";
 import type { Verification, VerificationCheck } from "./result-types";
 import type { DesignProblem } from "./problem";
 import { memberStress } from "./element";
+import { eulerStress } from "./buckling";
 
 /** Relative slack a limit may show in the re-analysis and still count as met. */
 export const VERIFY_TOLERANCE = 1e-4;
@@ -15,6 +16,8 @@ export const EQUILIBRIUM_TOLERANCE = 1e-8;
 export interface MemberCheck {
   utilization: number;
   governing: string;
+  /** the load case or combination of the governing check */
+  governingCase: string;
 }
 
 export interface Reanalysis {
@@ -37,9 +40,11 @@ export function reanalyze(p: DesignProblem, areas: Float64Array, coords: Float64
     if (l.kind === "stress-tension" || l.kind === "stress-compression") stressLimit.set(`${l.member}|${l.loadCase}|${l.sign}`, l.limit);
   }
   const members: MemberCheck[] = [];
-  for (let e = 0; e < m; e++) members.push({ utilization: 0, governing: "" });
-  for (let l = 0; l < s.loadCaseIds.length; l++) {
-    const lc = s.loadCaseIds[l];
+  for (let e = 0; e < m; e++) members.push({ utilization: 0, governing: "", governingCase: "" });
+  // stress and buckling (and so utilization) read the strength responses: the strength
+  // combinations, or every load case when the model has no combinations
+  for (const l of p.strengthResponses) {
+    const lc = s.responseIds[l];
     const u = analysis.displacements[l];
     for (let e = 0; e < m; e++) {
       const id = s.memberIds[e];
@@ -50,14 +55,12 @@ export function reanalyze(p: DesignProblem, areas: Float64Array, coords: Float64
       const sign = sigma >= 0 ? 1 : -1;
       const lim = stressLimit.get(`${e}|${l}|${sign}`);
       if (lim !== undefined) push(`stress:${id}:${lc}`, "stress", sigma, sign * lim, Math.abs(sigma) / lim);
-      if (ratio > members[e].utilization) members[e] = { utilization: ratio, governing: `stress:${lc}` };
+      if (ratio > members[e].utilization) members[e] = { utilization: ratio, governing: `stress:${lc}`, governingCase: lc };
       if (p.buckling && sigma < 0) {
-        const L = analysis.lengths[e];
-        const kL = p.buckling.k * L;
-        const sigmaE = (Math.PI * Math.PI * s.E[e] * p.buckling.sectionRatio * areas[e]) / (kL * kL);
+        const sigmaE = eulerStress(p.buckling, e, s.E[e], areas[e], analysis.lengths[e]);
         const r = -sigma / sigmaE;
         push(`buckling:${id}:${lc}`, "buckling", sigma, -sigmaE, r);
-        if (r > members[e].utilization) members[e] = { utilization: r, governing: `buckling:${lc}` };
+        if (r > members[e].utilization) members[e] = { utilization: r, governing: `buckling:${lc}`, governingCase: lc };
       }
     }
   }

@@ -3,17 +3,22 @@
 import { MechanismError } from "./mechanism";
 import { choleskyInPlace, choleskySolveInPlace } from "./sparse/skyline";
 import { assembleSkyline, checkMemberValues, dofPattern, loadedUnconnectedNodes, mechanismsFromPivots } from "./stiffness";
-import { memberLengths, type Structure } from "./structure";
+import { caseLoads, memberLengths, type Structure } from "./structure";
+import { combineVectors } from "./loading";
 
 export interface Analysis {
   areas: Float64Array;
   coords: Float64Array;
   lengths: Float64Array;
-  displacements: Float64Array[]; // per load case, nNodes*3 (zeros on restrained dofs)
-  forces: Float64Array[]; // per load case, per member; tension positive
+  // The per-response arrays below hold the load cases, then the combinations (s.responseIds);
+  // a combination's entry is the factored sum of its cases' entries.
+  displacements: Float64Array[]; // nNodes*3 (zeros on restrained dofs)
+  forces: Float64Array[]; // per member; tension positive
   stresses: Float64Array[];
-  reactions: Float64Array[]; // per load case, nNodes*3 (non-zero only on restrained dofs)
-  compliance: number[]; // per load case, f.u
+  reactions: Float64Array[]; // nNodes*3 (non-zero only on restrained dofs)
+  /** applied loads, own weight included, nNodes*3 */
+  loads: Float64Array[];
+  compliance: number[]; // per load case only, f.u
   volume: number;
   mass: number;
   /** max over load cases of |K u - f|_inf / |f|_inf on the free dofs, K u rebuilt from member forces */
@@ -79,7 +84,8 @@ export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
   const reactions: Float64Array[] = [];
   const compliance: number[] = [];
   let residual = 0;
-  for (const f of s.loads) {
+  const applied = caseLoads(s, areas, lengths);
+  for (const f of applied) {
     const u = solve(f);
     const N = memberForces(s, areas, coords, lengths, u);
     const sig = new Float64Array(nMembers);
@@ -103,6 +109,13 @@ export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
     compliance.push(c);
   }
 
+  const loads = [...applied];
+  if (s.combinations.length > 0) {
+    for (const [all, perCase] of [[displacements, displacements.slice()], [forces, forces.slice()], [stresses, stresses.slice()], [reactions, reactions.slice()], [loads, applied]] as const) {
+      all.push(...combineVectors(s.combinations, perCase));
+    }
+  }
+
   let volume = 0;
   let mass = 0;
   for (let e = 0; e < nMembers; e++) {
@@ -110,7 +123,7 @@ export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
     volume += v;
     mass += s.density[e] * v;
   }
-  return { areas, coords, lengths, displacements, forces, stresses, reactions, compliance, volume, mass, equilibriumResidual: residual, solve, profile };
+  return { areas, coords, lengths, displacements, forces, stresses, reactions, loads, compliance, volume, mass, equilibriumResidual: residual, solve, profile };
 }
 
 /** Axial forces N = (E A / L) n.(u_end - u_start), tension positive. */

@@ -1,6 +1,7 @@
 // The truss model and analysis engine: pure functions on plain data (see docs/engine-api.md).
 export * from "./schema";
-export { buildStructure, freeDofs, memberLengths, axisIndex, type Structure } from "./structure";
+export { buildStructure, caseLoads, freeDofs, memberLengths, axisIndex, type Structure } from "./structure";
+export { combineVectors, ownWeightAdjoint, ownWeightLoads, responseFactors, responseSelfWeight, weightPerMass, STANDARD_GRAVITY, type CombinationData } from "./loading";
 export { analyze, factorStiffness, memberForces, internalForces, type Analysis, type AnalyzeOptions, type StiffnessFactor } from "./analysis";
 export { assembleStiffness, findMechanisms } from "./stiffness";
 export { MechanismError, type MechanismInfo } from "./mechanism";

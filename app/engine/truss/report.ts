@@ -28,13 +28,15 @@ export function analyzeModelToJson(model: TrussModel): AnalysisReport {
   const a = analyze(s);
   const lcIds = s.loadCaseIds;
   const perLc = <T>(f: (k: number) => T): Record<string, T> => Object.fromEntries(lcIds.map((id, k) => [id, f(k)]));
+  // forces, stresses, displacements and reactions list the combinations too
+  const perResponse = <T>(f: (k: number) => T): Record<string, T> => Object.fromEntries(s.responseIds.map((id, k) => [id, f(k)]));
 
   const loadCases = model.loadCases.map((lc, k) => {
     const load: [number, number, number] = [0, 0, 0];
     const reaction: [number, number, number] = [0, 0, 0];
     for (let i = 0; i < s.nodeIds.length; i++) {
       for (let c = 0; c < 3; c++) {
-        load[c] += s.loads[k][3 * i + c];
+        load[c] += a.loads[k][3 * i + c];
         reaction[c] += a.reactions[k][3 * i + c];
       }
     }
@@ -47,7 +49,7 @@ export function analyzeModelToJson(model: TrussModel): AnalysisReport {
   for (let i = 0; i < s.nodeIds.length; i++) {
     const fixed = AXIS_NAMES.slice(0, s.dim).filter((_, c) => s.fixed[3 * i + c] === 1);
     if (fixed.length === 0) continue;
-    reactions.push({ node: s.nodeIds[i], fixed: [...fixed], force: perLc((k) => triple(a.reactions[k], i)) });
+    reactions.push({ node: s.nodeIds[i], fixed: [...fixed], force: perResponse((k) => triple(a.reactions[k], i)) });
   }
 
   return {
@@ -67,22 +69,22 @@ export function analyzeModelToJson(model: TrussModel): AnalysisReport {
       end: m.end,
       area: a.areas[e],
       length: a.lengths[e],
-      force: perLc((k) => a.forces[k][e]),
-      stress: perLc((k) => a.stresses[k][e]),
+      force: perResponse((k) => a.forces[k][e]),
+      stress: perResponse((k) => a.stresses[k][e]),
     })),
     nodes: model.nodes.map((n, i) => ({
       id: n.id,
       x: s.coords[3 * i],
       y: s.coords[3 * i + 1],
       z: s.coords[3 * i + 2],
-      displacement: perLc((k) => triple(a.displacements[k], i)),
+      displacement: perResponse((k) => triple(a.displacements[k], i)),
     })),
     reactions,
   };
 }
 
 function caseResidual(s: Structure, a: Analysis, k: number): number {
-  const f = s.loads[k];
+  const f = a.loads[k];
   const internal = internalForces(s, a.coords, a.lengths, a.forces[k]);
   let fMax = 0;
   let rMax = 0;

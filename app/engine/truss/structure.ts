@@ -1,6 +1,7 @@
 // A validated model turned into flat typed arrays: the form every numerical routine works on.
 // Node i owns degrees of freedom 3i, 3i+1, 3i+2 (x, y, z); in 2D the z dof is always restrained.
 import type { TrussModel } from "./schema";
+import { ownWeightLoads, weightPerMass, type CombinationData } from "./loading";
 
 export interface Structure {
   dim: 2 | 3;
@@ -16,7 +17,18 @@ export interface Structure {
   allowCompression: Float64Array;
   areas: Float64Array;
   fixed: Uint8Array; // nNodes*3, 1 = restrained
-  loads: Float64Array[]; // per load case, nNodes*3
+  loads: Float64Array[]; // per load case, nNodes*3: the point loads (own weight is separate)
+  /** own-weight factor per load case (0 = none) */
+  selfWeight: Float64Array;
+  /** true when some load case carries own weight */
+  hasSelfWeight: boolean;
+  /** 1 (y) in 2D, 2 (z) in 3D: gravity acts along minus this axis */
+  gravityAxis: 1 | 2;
+  /** model force units per model mass unit */
+  weightPerMass: number;
+  combinations: CombinationData[];
+  /** load case ids, then combination ids: the keys of every per-response array and map */
+  responseIds: string[];
   /** group id per member (null = its own variable); kept for the design layer */
   memberGroups: (string | null)[];
   /** 1 for nodes that at least one member connects; the others take no part in the analysis */
@@ -78,8 +90,26 @@ export function buildStructure(model: TrussModel): Structure {
     return f;
   });
 
+  const caseIndex = new Map(model.loadCases.map((lc, l) => [lc.id, l]));
+  const combinations: CombinationData[] = (model.combinations ?? []).map((c) => {
+    const factors = new Float64Array(model.loadCases.length);
+    for (const [lc, f] of Object.entries(c.factors)) {
+      const l = caseIndex.get(lc);
+      if (l === undefined) throw new Error(`combination ${c.id} names unknown load case ${lc}; validate the model with parseModel first`);
+      factors[l] += f;
+    }
+    return { id: c.id, ...(c.name ? { name: c.name } : {}), use: c.use, factors };
+  });
+  const selfWeight = Float64Array.from(model.loadCases.map((lc) => lc.selfWeight ?? 0));
+
   return {
     dim,
+    selfWeight,
+    hasSelfWeight: selfWeight.some((f) => f !== 0),
+    gravityAxis: dim === 2 ? 1 : 2,
+    weightPerMass: weightPerMass(model.units),
+    combinations,
+    responseIds: [...model.loadCases.map((l) => l.id), ...combinations.map((c) => c.id)],
     nodeIds: model.nodes.map((n) => n.id),
     memberIds: model.members.map((m) => m.id),
     loadCaseIds: model.loadCases.map((l) => l.id),
@@ -96,6 +126,22 @@ export function buildStructure(model: TrussModel): Structure {
     memberGroups: model.members.map((m) => m.group ?? null),
     connected,
   };
+}
+
+/**
+ * The applied load of every load case at these areas and lengths: the point loads plus the
+ * case's share of own weight.
+ */
+export function caseLoads(s: Structure, areas: ArrayLike<number>, lengths: ArrayLike<number>): Float64Array[] {
+  if (!s.hasSelfWeight) return s.loads;
+  const w = ownWeightLoads(s, s.coords.length, areas, lengths);
+  return s.loads.map((f, l) => {
+    const k = s.selfWeight[l];
+    if (k === 0) return f;
+    const out = Float64Array.from(f);
+    for (let q = 0; q < out.length; q++) out[q] += k * w[q];
+    return out;
+  });
 }
 
 export function axisIndex(a: "x" | "y" | "z"): 0 | 1 | 2 {
