@@ -2,7 +2,8 @@
 // simultaneous formulation, the result JSON with shadow prices and an independent re-analysis.
 export { jobOptionsSchema, type JobOptions } from "./options";
 export * from "./result-types";
-export { optimizeModel, summarizeResult, prepareRun, buildResult, type OptimizeOptions, type DesignProgress } from "./result";
+export { optimizeModel } from "./optimize";
+export { optimizeContinuous, summarizeResult, prepareRun, buildResult, type OptimizeOptions, type DesignProgress } from "./result";
 export { buildDesignProblem, designState, DesignSetupError, type DesignProblem, type Limit } from "./problem";
 export { nestedFormulation } from "./nested";
 export { simultaneousFormulation } from "./simultaneous";

@@ -91,7 +91,8 @@ export function prepareRun(model: TrussModel | DesignModel, options: OptimizeOpt
   return { design, formulation: design.formulation, sqp: f.problem, sqpOptions, counters: f.counters, objectiveScale };
 }
 
-export function optimizeModel(model: TrussModel | DesignModel, options: OptimizeOptions = {}): TrussResult {
+/** Continuous sizing (and shape); optimize.ts sends catalogue sizing elsewhere. */
+export function optimizeContinuous(model: TrussModel | DesignModel, options: OptimizeOptions = {}): TrussResult {
   const t0 = Date.now();
   const run = prepareRun(model, options);
   const r = minimize(run.sqp, run.sqpOptions);
