@@ -150,16 +150,22 @@ export class QueueRunner {
   private launch(lease: Lease): void {
     this.stats.claimed++;
     const controller = new AbortController();
+    // a cancel first asks the solver to stop and keep its best design (stopFlag), and ends the
+    // thread only if the solver has not returned within CANCEL_GRACE_MS
+    const stopFlag = new SharedArrayBuffer(4);
     let reason: StopReason | null = null;
     const active: Active = {
       lease,
       stop: (r) => {
         reason ??= r;
-        controller.abort();
+        if (r === "cancel") {
+          Atomics.store(new Int32Array(stopFlag), 0, 1);
+          setTimeout(() => controller.abort(), CANCEL_GRACE_MS).unref();
+        } else controller.abort();
       },
       done: Promise.resolve(),
     };
-    active.done = this.run(lease, controller.signal, () => reason, active.stop)
+    active.done = this.run(lease, controller.signal, () => reason, active.stop, stopFlag)
       .catch((e) => this.log(`job ${lease.job.id}: unexpected error: ${(e as Error).stack ?? e}`))
       .finally(() => {
         this.active.delete(lease.job.id);
@@ -168,7 +174,7 @@ export class QueueRunner {
     this.active.set(lease.job.id, active);
   }
 
-  private async run(lease: Lease, signal: AbortSignal, reason: () => StopReason | null, stop: (r: StopReason) => void): Promise<void> {
+  private async run(lease: Lease, signal: AbortSignal, reason: () => StopReason | null, stop: (r: StopReason) => void, stopFlag?: SharedArrayBuffer): Promise<void> {
     const { db } = this.o;
     const job = lease.job;
     const recorder = new ProgressRecorder(db, lease);
@@ -215,7 +221,7 @@ export class QueueRunner {
         resultText = earlier;
         this.log(`job ${job.id}: result of an earlier attempt found in storage, recording it`);
       } else {
-        const out = await this.solve(lease, recorder, signal);
+        const out = await this.solve(lease, recorder, signal, stopFlag);
         // a computed result is worth waiting for: storage gets minutes, not seconds, to come
         // back while the lease is renewed (the job is handed back only after that)
         await retrying(() => putObject(resultKey, out.resultJson, "application/json"), 30, () => signal.aborted);
@@ -224,6 +230,13 @@ export class QueueRunner {
         resultText = out.resultJson;
       }
       await recorder.close();
+      if (reason() === "cancel" && earlier === null) {
+        // stopped on request: the best design so far is stored and kept with the cancelled job
+        if (await retrying(() => markCancelled(db, lease, "Cancelled on request while running; the best design found so far is kept", Date.now(), { resultKey, summary })))
+          this.stats.cancelled++;
+        this.log(`job ${job.id} cancelled after ${Date.now() - started} ms, best design kept`);
+        return;
+      }
       if (summary.status === "failed") {
         // the solver broke down: no design to review, so the job fails with the solver's words
         if (await retrying(() => recordFailure(db, lease, message, this.mailChoice))) {
@@ -273,7 +286,7 @@ export class QueueRunner {
     }
   }
 
-  private async solve(lease: Lease, recorder: ProgressRecorder, signal: AbortSignal): Promise<SolveTaskOutput> {
+  private async solve(lease: Lease, recorder: ProgressRecorder, signal: AbortSignal, stopFlag?: SharedArrayBuffer): Promise<SolveTaskOutput> {
     const job = lease.job;
     // the version the job was queued on (jobs older than versions: the model's latest file)
     const [model] =
@@ -298,7 +311,7 @@ export class QueueRunner {
       if ("end" in p) drained();
       else recorder.push(p);
     });
-    const input: SolveTaskInput = { jobId: job.id, kind: job.kind, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2 };
+    const input: SolveTaskInput = { jobId: job.id, kind: job.kind, modelText, options: (job.options as JobOptions) ?? {}, progressPort: port2, stopFlag };
     try {
       const out = (await this.o.pool.run(input, { transferList: [port2] as never, signal })) as SolveTaskOutput;
       let timer: NodeJS.Timeout | undefined;
@@ -327,6 +340,9 @@ export class QueueRunner {
     }
   }
 }
+
+/** How long a cancelled solve may take to hand back its best design before its thread is ended. */
+const CANCEL_GRACE_MS = 5000;
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 

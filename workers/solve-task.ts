@@ -16,6 +16,11 @@ export interface SolveTaskInput {
   modelText: string;
   options: JobOptions;
   progressPort?: MessagePort;
+  /**
+   * One Int32 the runner sets to 1 to stop the run and keep its best design (a cancel); the
+   * solver reads it between iterations. Without it, a cancel can only end the thread.
+   */
+  stopFlag?: SharedArrayBuffer;
 }
 
 export interface SolveTaskOutput {
@@ -57,8 +62,10 @@ export default async function solveTask(input: SolveTaskInput): Promise<SolveTas
   try {
     // the LP solver loads once per thread (the first run waits for it, later runs reuse it)
     const lpSolver = await loadHighsSolver();
+    const stop = input.stopFlag ? new Int32Array(input.stopFlag) : null;
     const optimized = optimizeModel(parsed.model, {
       ...input.options,
+      stopRequested: stop ? () => Atomics.load(stop, 0) === 1 : undefined,
       onProgress: port
         ? (p: Progress) =>
             port.postMessage({

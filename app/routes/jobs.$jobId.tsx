@@ -36,12 +36,13 @@ export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${data.facts.modelName} · job ${data.job.id.slice(0, 8)} — Strutwise` : "Job — Strutwise" }];
 }
 
-function maxIterationsOf(text: string, options: { maxIterations?: number } | null): number | null {
-  if (options?.maxIterations) return options.maxIterations;
+/** The solver tolerance the run uses: the job's option, the model's, else the engine's default (problem.ts). */
+function toleranceOf(text: string, options: { tolerance?: number } | null): number {
+  if (options?.tolerance) return options.tolerance;
   try {
-    return (JSON.parse(text) as { design?: { solver?: { maxIterations?: number } } }).design?.solver?.maxIterations ?? 200;
+    return (JSON.parse(text) as { design?: { solver?: { tolerance?: number } } }).design?.solver?.tolerance ?? 1e-6;
   } catch {
-    return null;
+    return 1e-6;
   }
 }
 
@@ -109,7 +110,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       hasResult: job.hasResult,
     },
     facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
-    maxIterations: maxIterationsOf(text, job.options),
+    tolerance: toleranceOf(text, job.options),
     modelUnits: unitsOf(text),
     head: result ? headOf(result) : null,
     history: normalizeHistory(history),
@@ -169,7 +170,7 @@ export function ErrorBoundary() {
 }
 
 export default function JobPage({ loaderData }: Route.ComponentProps) {
-  const { job, facts, head, history, reviews, may, maxIterations } = loaderData;
+  const { job, facts, head, history, reviews, may, tolerance } = loaderData;
   const files = useJobFiles(job.id, facts.modelId, job.hasResult && head !== null);
   // only a run with a design to sign off is reviewed (review-request.ts): no review mark otherwise
   const reviewable = job.status === "succeeded" && !OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "");
@@ -236,7 +237,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         <LiveProgress
           initial={{ id: job.id, status: job.status, outcome: job.outcome, progress: job.progress }}
           initialHistory={history}
-          maxIterations={maxIterations}
+          tolerance={tolerance}
           canCancel={may.cancel}
           objectiveLabel={objectiveLabel}
           onStatus={setShownStatus}
@@ -244,7 +245,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       )}
 
       {!live && (
-        <OutcomePanel status={job.status} outcome={job.outcome ?? head?.status ?? null} message={head?.message} hint={head?.hint} error={job.error} />
+        <OutcomePanel status={job.status} outcome={job.outcome ?? head?.status ?? null} message={head?.message} hint={head?.hint} error={job.error} hasResult={job.hasResult} />
       )}
 
       {head && (

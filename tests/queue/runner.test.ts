@@ -86,8 +86,8 @@ describe("queue runner", () => {
     }
   });
 
-  it("cancels a running job within about a second, and a queued one at once", async () => {
-    const { enqueueJob, cancelJob } = await import("~/lib/jobs/queue.server");
+  it("cancels a running job within about a second, keeping its best design, and a queued one at once", async () => {
+    const { enqueueJob, cancelJob, getJobResult } = await import("~/lib/jobs/queue.server");
     const model = await uploadModel(projectId, gridModel(8, 2), engineer.id);
     const running = await enqueueJob({ modelId: model.id, user: engineer }, database);
     const waiting = await enqueueJob({ modelId: model.id, user: engineer }, database);
@@ -107,6 +107,13 @@ describe("queue runner", () => {
       const took = Date.now() - asked;
       expect(took).toBeLessThan(1500);
       expect(stopped.error).toMatch(/Cancelled on request/);
+      // the solver was asked to stop between iterations, so the best design so far is kept
+      // with the cancelled job (issue 16), marked as not converged
+      expect(stopped.hasResult).toBe(true);
+      const kept = (await getJobResult(running.id, database))!;
+      expect(kept.status).toBe("not-converged");
+      expect(kept.message).toMatch(/Stopped on request after \d+ iterations/);
+      expect(kept.members.length).toBeGreaterThan(0);
       // the worker is free again and the queued one never ran
       expect((await job(waiting.id)).attempts).toBe(0);
       expect(w.r.runningJobs).toEqual([]);

@@ -1,7 +1,21 @@
 // What happened in a run and, when it did not reach an optimum, what to try next.
 import { OUTCOME_WORDS } from "./constraint-words";
 
-export function OutcomePanel({ status, outcome, message, hint, error }: { status: string; outcome: string | null; message?: string | null; hint?: string | null; error?: string | null }) {
+export function OutcomePanel({
+  status,
+  outcome,
+  message,
+  hint,
+  error,
+  hasResult = false,
+}: {
+  status: string;
+  outcome: string | null;
+  message?: string | null;
+  hint?: string | null;
+  error?: string | null;
+  hasResult?: boolean;
+}) {
   if (status === "failed") {
     return (
       <div className="rounded-md border border-bad/30 bg-bad-wash px-4 py-3" role="alert" data-testid="outcome">
@@ -17,7 +31,18 @@ export function OutcomePanel({ status, outcome, message, hint, error }: { status
   if (status === "cancelled") {
     return (
       <div className="rounded-md border border-rule bg-paper-sunk px-4 py-3 text-sm text-ink-soft" data-testid="outcome">
-        This job was cancelled before it finished; no result was kept.
+        {hasResult ? (
+          <>
+            <p className="font-semibold text-ink">Stopped on request — the best design found so far is kept below.</p>
+            <p className="mt-1">It did not converge, so it is not offered for review. {message}</p>
+            <p className="mt-1">
+              <strong className="text-ink">What to try: </strong>
+              queue the run again to let it finish.
+            </p>
+          </>
+        ) : (
+          "This run was stopped on request before it produced a design; nothing was kept."
+        )}
       </div>
     );
   }

@@ -33,6 +33,8 @@ export interface DesignProgress {
 
 export interface OptimizeOptions extends JobOptions {
   signal?: AbortSignal;
+  /** asked between iterations: true stops the run and keeps its best design (a cancel) */
+  stopRequested?: () => boolean;
   onProgress?: (p: DesignProgress) => void;
   timeLimitMs?: number;
   /** override the automatic choices (tests and benchmarks) */
@@ -83,6 +85,7 @@ export function prepareRun(model: TrussModel | DesignModel, options: OptimizeOpt
     reducedSpace: options.reducedSpace ?? n > REDUCED_FROM,
     screening: options.screening === null ? undefined : (options.screening ?? (design.limits.length > SCREEN_FROM ? SCREEN_THRESHOLD : undefined)),
     signal: options.signal,
+    stopRequested: options.stopRequested,
     timeLimitMs: options.timeLimitMs,
     onProgress: options.onProgress
       ? (pr) => options.onProgress!({ iteration: pr.iteration, objective: pr.f * objectiveScale, maxViolation: pr.maxViolation, kktResidual: pr.kktResidual })
@@ -123,9 +126,10 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
     hint = "Tighten the tolerance or raise the iteration limit and run again.";
   }
 
-  if (status === "infeasible" && run.formulation === "simultaneous" && re.verification.failures.length > 0) {
-    // the solver names the row it measured, which may be an equilibrium row of the
-    // displacement variables; the engineer needs the limit that the fresh analysis finds broken
+  if (status === "infeasible" && re.verification.failures.length > 0) {
+    // the solver names the row it measured (a scaled constraint, or an equilibrium row of the
+    // displacement variables, "off by 1.48" with no unit); the engineer needs the limit that
+    // the fresh analysis finds broken, as a share of that limit
     const worst = re.verification.failures.reduce((a, b) => (b.ratio > a.ratio ? b : a));
     message = `The limits cannot be met together near this design: in a fresh analysis of the least-violating design found, ${worst.id} is at ${(100 * worst.ratio).toFixed(1)}% of its limit.`;
   }

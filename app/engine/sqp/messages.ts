@@ -4,6 +4,7 @@ export type StopReason =
   | { kind: "iteration-limit"; iterations: number; feasible: boolean }
   | { kind: "time-limit"; iterations: number; limitMs: number; feasible: boolean }
   | { kind: "no-progress"; iterations: number; feasible: boolean }
+  | { kind: "stopped"; iterations: number; feasible: boolean }
   | { kind: "infeasible"; worst: string; violation: number }
   | { kind: "failed"; what: string };
 
@@ -34,6 +35,11 @@ export function describeStop(r: StopReason): { message: string; hint: string } {
       return {
         message: `Stopped at the time limit of ${r.limitMs} ms after ${r.iterations} iterations; ${bestPoint(r.feasible)}.`,
         hint: "Allow more time, or use hessian: \"lbfgs\" and constraint screening for large problems.",
+      };
+    case "stopped":
+      return {
+        message: `Stopped on request after ${r.iterations} iterations, before the optimality conditions were met; ${bestPoint(r.feasible)}.`,
+        hint: "Queue the run again to let it finish; start it from this design's areas to save the iterations already done.",
       };
     case "no-progress":
       return {

@@ -433,7 +433,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       xi = elastic ? qp.s[n] : 0;
       mult = toMultipliers(qp, rowsIn);
       kkt = kktAt(pt, dv, mult, x);
-      if (kkt <= tol || iteration >= maxIter || timeUp()) break;
+      if (kkt <= tol || iteration >= maxIter || timeUp() || options.stopRequested?.()) break;
 
       // merit parameters
       const viol0 = l1Violation(pt);
@@ -490,6 +490,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
       return build(snap, { kind: "optimal", tolerance: tol, maxViolation: maxViolation(pt.eqRaw, pt.ineqRaw), iterations: iteration, stationarity: kktParts.stat }, iteration);
     if (iteration >= maxIter) return build(best, { kind: "iteration-limit", iterations: iteration, feasible: best.viol <= tol }, iteration);
     if (timeUp()) return build(best, { kind: "time-limit", iterations: iteration, limitMs: options.timeLimitMs ?? 0, feasible: best.viol <= tol }, iteration);
+    if (options.stopRequested?.()) return build(best, { kind: "stopped", iterations: iteration, feasible: best.viol <= tol }, iteration);
 
     // infeasibility detection in elastic mode
     const violNow = l1Violation(pt);

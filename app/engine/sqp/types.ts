@@ -64,6 +64,11 @@ export interface SqpOptions {
   /** With problem.stateEquations: null-space steps (default true); false solves the full QP. */
   reducedSpace?: boolean;
   signal?: AbortSignal;
+  /**
+   * Asked between iterations: true ends the run like the iteration cap does, returning the
+   * best point so far (a cancel that keeps the design; the AbortSignal throws it away).
+   */
+  stopRequested?: () => boolean;
   onProgress?: (p: SqpProgress) => void;
 }
 

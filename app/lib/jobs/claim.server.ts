@@ -154,10 +154,17 @@ export function recordedBy(lease: Lease, status: "succeeded" | "failed", now: nu
   return sql`exists (select 1 from ${jobs} where ${jobs.id} = ${lease.job.id} and ${jobs.status} = ${status} and ${jobs.workerId} = ${lease.workerId} and ${jobs.attempts} = ${lease.attempt} and ${jobs.finishedAt} = ${now})`;
 }
 
-export async function markCancelled(database: Db, lease: Lease, message: string, now = Date.now()): Promise<boolean> {
+export async function markCancelled(
+  database: Db,
+  lease: Lease,
+  message: string,
+  now = Date.now(),
+  /** the best design the solver handed back when asked to stop, already stored */
+  kept?: { resultKey: string; summary: JobSummary },
+): Promise<boolean> {
   const rows = await database
     .update(jobs)
-    .set({ status: "cancelled", error: message, finishedAt: new Date(now), leaseExpiresAt: null })
+    .set({ status: "cancelled", error: message, finishedAt: new Date(now), leaseExpiresAt: null, ...(kept ? { resultKey: kept.resultKey, summary: kept.summary, outcome: kept.summary.status === "analysed" ? null : kept.summary.status } : {}) })
     .where(and(held(lease), guard("cancel")))
     .returning({ id: jobs.id });
   return rows.length === 1;

@@ -11,7 +11,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (job.status === "queued" || job.status === "running") {
     return jsonError(409, `Job ${job.id} is ${job.status}; its result is there once it has finished`);
   }
-  if (job.status !== "succeeded") {
+  // a run stopped on request may have kept its best design so far
+  if (job.status !== "succeeded" && !job.hasResult) {
     return jsonError(409, `Job ${job.id} ${job.status === "failed" ? "failed" : "was cancelled"}, so it has no result${job.error ? `: ${job.error}` : ""}`);
   }
   const text = await getJobResultText(job.id);
