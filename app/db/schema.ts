@@ -158,3 +158,4 @@ export * from "./tables/catalogues";
 export * from "./tables/model-versions";
 export * from "./tables/project-members";
 export * from "./tables/mail-outbox";
+export * from "./tables/sign-in-throttle";

@@ -53,6 +53,18 @@ const schema = z.object({
   JOB_TIME_LIMIT_MS: z.coerce.number().int().positive().default(15 * 60_000),
   JOB_LEASE_MS: z.coerce.number().int().min(1000).default(30_000),
   JOB_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(3),
+  // who may create an account: only invited addresses (default), addresses of these domains
+  // (and invited ones), or anyone; every new account still proves its address by a link
+  SIGN_UP: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .regex(
+      /^(invite-only|open|domain:[a-z0-9-]+(\.[a-z0-9-]+)+(,[a-z0-9-]+(\.[a-z0-9-]+)+)*)$/,
+      "must be invite-only, open, or domain:<list> (e.g. domain:tarrowkeel.example,keel-site.example)",
+    )
+    .default("invite-only"),
+  INVITATION_TTL_DAYS: z.coerce.number().min(1 / 24, "must be at least 1 hour (1/24)").max(90).default(7),
 });
 
 export type Config = z.infer<typeof schema> & {
@@ -63,6 +75,15 @@ export type Config = z.infer<typeof schema> & {
 };
 
 export class ConfigError extends Error {}
+
+export type SignUpMode = { kind: "invite-only" } | { kind: "open" } | { kind: "domain"; domains: string[] };
+
+/** SIGN_UP as a value (its text was checked at start-up). */
+export function signUpMode(c: Pick<Config, "SIGN_UP"> = config()): SignUpMode {
+  if (c.SIGN_UP === "open") return { kind: "open" };
+  if (c.SIGN_UP.startsWith("domain:")) return { kind: "domain", domains: c.SIGN_UP.slice("domain:".length).split(",") };
+  return { kind: "invite-only" };
+}
 
 export function parseConfig(env: Record<string, string | undefined>): Config {
   const cleaned = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== ""));

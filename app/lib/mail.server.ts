@@ -3,6 +3,7 @@
 // with enqueueMail (mail/outbox.server.ts) so that it is stored with the change it reports.
 import nodemailer, { type Transporter } from "nodemailer";
 import { config } from "./config.server";
+import { plainText } from "./text-hygiene";
 
 let transport: Transporter | undefined;
 export function mailer(): Transporter {
@@ -32,6 +33,10 @@ export interface Mail {
   messageId?: string;
 }
 
+/**
+ * Send one mail. The subject is one plain line: names people typed (a model called
+ * "invoice\u202Efdp.exe") lose bidi and other control characters here, for every mail.
+ */
 export async function sendMail(mail: Mail): Promise<void> {
-  await mailer().sendMail({ from: config().MAIL_FROM, ...mail });
+  await mailer().sendMail({ from: config().MAIL_FROM, ...mail, subject: plainText(mail.subject) });
 }

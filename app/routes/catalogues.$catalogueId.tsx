@@ -9,9 +9,10 @@ import { can } from "~/lib/auth/permissions";
 import { getCatalogue, retireCatalogue } from "~/lib/catalogues/catalogues.server";
 import { notFound } from "~/lib/http.server";
 import type { Route } from "./+types/catalogues.$catalogueId";
+import { plainText } from "~/lib/text-hygiene";
 
 export function meta({ data }: Route.MetaArgs) {
-  return [{ title: data ? `${data.catalogue.name} — section catalogue — Strutwise` : "Section catalogue — Strutwise" }];
+  return [{ title: data ? `${plainText(data.catalogue.name)} — section catalogue — Strutwise` : "Section catalogue — Strutwise" }];
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {

@@ -31,9 +31,10 @@ import { notFound } from "~/lib/http.server";
 import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
 import { getModelFile } from "~/lib/models.server";
 import type { Route } from "./+types/jobs.$jobId";
+import { plainText } from "~/lib/text-hygiene";
 
 export function meta({ data }: Route.MetaArgs) {
-  return [{ title: data ? `${data.facts.modelName} · job ${data.job.id.slice(0, 8)} — Strutwise` : "Job — Strutwise" }];
+  return [{ title: data ? `${plainText(data.facts.modelName)} · job ${data.job.id.slice(0, 8)} — Strutwise` : "Job — Strutwise" }];
 }
 
 /** The solver tolerance the run uses: the job's option, the model's, else the engine's default (problem.ts). */

@@ -18,9 +18,10 @@ import { notFound } from "~/lib/http.server";
 import { enqueueJob, listJobs } from "~/lib/jobs/queue.server";
 import { getModel, getModelFile } from "~/lib/models.server";
 import type { Route } from "./+types/models.$modelId";
+import { plainText } from "~/lib/text-hygiene";
 
 export function meta({ data }: Route.MetaArgs) {
-  return [{ title: data ? `${data.model.name} — Strutwise` : "Model — Strutwise" }];
+  return [{ title: data ? `${plainText(data.model.name)} — Strutwise` : "Model — Strutwise" }];
 }
 
 interface ModelFile extends ModelLike {

@@ -17,9 +17,10 @@ import { notFound } from "~/lib/http.server";
 import { listJobs } from "~/lib/jobs/queue.server";
 import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
 import type { Route } from "./+types/projects.$projectId";
+import { plainText } from "~/lib/text-hygiene";
 
 export function meta({ data }: Route.MetaArgs) {
-  return [{ title: data ? `${data.project.code} ${data.project.name} — Strutwise` : "Project — Strutwise" }];
+  return [{ title: data ? `${data.project.code} ${plainText(data.project.name)} — Strutwise` : "Project — Strutwise" }];
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {

@@ -28,6 +28,8 @@ export async function action({ request }: Route.ActionArgs) {
     errors.form = `Too many sign-in attempts for this account. Wait ${res.retryAfter ?? 60} seconds, then try again.`;
   } else if (res.status === 403 && res.data?.code === "BANNED_USER") {
     errors.form = "This account is suspended. Ask an administrator of your desk.";
+  } else if (res.status === 403 && res.data?.code === "EMAIL_NOT_VERIFIED") {
+    errors.form = "Confirm your e-mail address first: we have sent a new link to it. The account can do nothing until then.";
   } else if (res.status === 403 && String(res.data?.code ?? "").includes("ORIGIN")) {
     errors.form = "This sign-in form was sent from another site, so it was refused. Open the sign-in page of the desk itself.";
   } else if (res.status === 401 || res.status === 400) {

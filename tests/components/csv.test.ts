@@ -26,6 +26,17 @@ describe("csv (RFC 4180)", () => {
   it("keeps spreadsheet formulas from running (common practice), but not negative numbers as text", () => {
     expect(csvField("=SUM(A1)")).toBe("'=SUM(A1)");
     expect(csvField("-3.5")).toBe("-3.5");
+    // every start OWASP's CSV-injection advice names (common practice): = + - @ tab CR
+    expect(csvField("+cmd|' /C calc'!A0")).toBe("'+cmd|' /C calc'!A0");
+    expect(csvField("@SUM(1+9)*cmd|' /C calc'!A0")).toBe("'@SUM(1+9)*cmd|' /C calc'!A0");
+    expect(csvField("\t=1+2")).toBe("'\t=1+2");
+    expect(csvField("\r=1+2")).toBe(`"'\r=1+2"`);
+    // text that starts like a number but is a formula is guarded; a number as text is not
+    expect(csvField("-1+1|cmd")).toBe("'-1+1|cmd");
+    expect(csvField("+4e3")).toBe("+4e3");
+    expect(csvField(-3.2)).toBe("-3.2");
+    // bidi controls in a typed name are dropped (Trojan-Source style reordering)
+    expect(csvField("truss\u202Efdp.exe")).toBe("trussfdp.exe");
   });
 
   it("makes file-name-safe slugs", () => {

@@ -32,6 +32,8 @@ export async function startTestServices(opts: { applyEnv?: boolean } = {}): Prom
     SMTP_HOST: "127.0.0.1",
     SMTP_PORT: String(smtpPort),
     MAIL_CATCHER_URL: mail.httpUrl,
+    // fixtures create accounts through sign-up; the sign-up policy tests set their own mode
+    SIGN_UP: "open",
   };
   if (opts.applyEnv !== false) Object.assign(process.env, env);
   return {

@@ -3,15 +3,15 @@
 // (csvNumber: 15 significant figures) so a spreadsheet sees what the result holds, not the screen text.
 
 import { csvNumber } from "~/lib/format";
+import { formulaSafe, stripBidi } from "~/lib/text-hygiene";
 
 export type CsvValue = string | number | boolean | null | undefined;
 
 export function csvField(v: CsvValue): string {
   if (v === null || v === undefined) return "";
   if (typeof v === "number") return csvNumber(v);
-  const s = String(v);
-  // a leading = + - @ would be run as a formula by spreadsheets: prefix a quote (common practice)
-  const safe = /^[=+\-@]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
+  // names people typed: no bidi controls, and nothing a spreadsheet would run as a formula
+  const safe = formulaSafe(stripBidi(String(v)));
   return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
 

@@ -1,10 +1,9 @@
 // The better-auth instance: e-mail + password accounts, database sessions through the Drizzle
 // adapter, the admin plugin for the role column and bans, sign-in throttling stored in the
 // database (so it holds across processes), password reset by e-mail.
-import { createHash } from "node:crypto";
 import { betterAuth } from "better-auth";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
-import { createAuthMiddleware, isAPIError } from "better-auth/api";
+import { APIError, createAuthMiddleware, isAPIError } from "better-auth/api";
 import { admin } from "better-auth/plugins";
 import { eq } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
@@ -12,59 +11,57 @@ import * as schema from "~/db/schema";
 import { config } from "~/lib/config.server";
 import { enqueueMail } from "~/lib/mail/outbox.server";
 import { audit } from "./audit.server";
+import { clientAddress, countSignInAttempt, emailOfBody } from "./sign-in-throttle.server";
+import { applyInvitationAfterVerification, signUpRefusal } from "./sign-up-policy.server";
+import { plainText } from "~/lib/text-hygiene";
 
 /**
- * Sign-in throttle: at most `max` attempts per ACCOUNT (the e-mail tried) within `window`
- * seconds. better-auth keys its limiter by client address, but behind react-router-serve no
- * trustworthy address reaches the app, and one shared bucket would let anyone lock everyone
- * out. So sign-in requests carry a stand-in address derived from the e-mail tried
- * (throttleAddressFor), set by our code and never taken from the client.
- * AUTH_SIGN_IN_LIMIT="max/windowSeconds" overrides it (e.g. for an end-to-end harness that
- * signs in many times from one address); the default slows brute force to 10 a minute.
+ * better-auth's admin plugin endpoints (role changes, impersonation, bans, user creation,
+ * password setting) bypass the desk's own rules and audit trail; the plugin is kept only for
+ * its role and ban columns. The desk's admin pages (users.server.ts) do these things with
+ * checks and an audit record naming who; these paths answer 404 instead.
  */
-export function signInLimit(env = process.env): { max: number; window: number } {
-  const m = /^(\d+)\/(\d+)$/.exec(env.AUTH_SIGN_IN_LIMIT ?? "");
-  return m ? { max: Number(m[1]), window: Number(m[2]) } : { max: 10, window: 60 };
+export const CLOSED_AUTH_PATHS = [
+  "/admin/set-role", "/admin/get-user", "/admin/create-user", "/admin/update-user", "/admin/list-users",
+  "/admin/list-user-sessions", "/admin/unban-user", "/admin/ban-user", "/admin/impersonate-user",
+  "/admin/stop-impersonating", "/admin/revoke-user-session", "/admin/revoke-user-sessions",
+  "/admin/remove-user", "/admin/set-user-password", "/admin/has-permission",
+];
+
+/** Any path under /api/auth/admin/ (also ones a later plugin version adds) is closed. */
+export function isClosedAuthPath(pathname: string): boolean {
+  const rest = pathname.replace(/^.*?\/api\/auth/, "").replace(/\/+$/, "").toLowerCase();
+  return rest === "/admin" || rest.startsWith("/admin/");
 }
 
-/** A private-range IPv6 address (fd00::/8) standing for one e-mail in the throttle's key. */
-export function throttleAddressFor(email: string): string {
-  const h = createHash("sha256").update(email.trim().toLowerCase()).digest("hex");
-  // better-auth collapses IPv6 to its /64 prefix, so the distinguishing bits go up front
-  return `fd${h.slice(0, 2)}:${h.slice(2, 6)}:${h.slice(6, 10)}:${h.slice(10, 14)}::1`;
-}
-
-/** Header that carries the caller's own forwarded address past the throttle's stand-in. */
-export const CLIENT_ADDRESS_HEADER = "x-strutwise-client-address";
-
-/** The request as better-auth should see it: a sign-in gets its throttle address. */
-export async function prepareAuthRequest(request: Request): Promise<Request> {
+/**
+ * The request as better-auth should see it. A sign-in attempt is counted first by the desk's
+ * own throttle (sign-in-throttle.server.ts: per account whatever the body encoding, and per
+ * address); past the limit the answer is a 429 and better-auth never sees it.
+ */
+export async function prepareAuthRequest(request: Request, database: Db = defaultDb()): Promise<Request | Response> {
   const url = new URL(request.url);
-  if (request.method !== "POST" || !url.pathname.endsWith("/sign-in/email")) return request;
+  if (request.method !== "POST" || !url.pathname.replace(/\/+$/, "").endsWith("/sign-in/email")) return request;
   const text = await request.text();
-  let email = "";
-  try {
-    email = String(JSON.parse(text)?.email ?? "");
-  } catch {
-    // better-auth answers the malformed body itself
+  const email = emailOfBody(request.headers.get("content-type") ?? "", text);
+  const wait = await countSignInAttempt({ email, address: clientAddress(request) }, database);
+  if (wait !== null) {
+    return Response.json(
+      { code: "TOO_MANY_REQUESTS", message: `Too many sign-in attempts for this account; wait ${wait} seconds` },
+      { status: 429, headers: { "X-Retry-After": String(wait), "Retry-After": String(wait), "Cache-Control": "no-store" } },
+    );
   }
-  const headers = new Headers(request.headers);
-  const original = request.headers.get("x-forwarded-for");
-  headers.delete(CLIENT_ADDRESS_HEADER);
-  if (original) headers.set(CLIENT_ADDRESS_HEADER, original.split(",")[0]!.trim());
-  headers.set("x-forwarded-for", throttleAddressFor(email));
-  return new Request(request.url, { method: "POST", headers, body: text });
+  return new Request(request.url, { method: "POST", headers: request.headers, body: text });
 }
 
 function realAddress(ctx: { headers?: Headers; request?: Request } | null | undefined): string | null {
   const h = ctx?.headers ?? ctx?.request?.headers;
-  return h?.get(CLIENT_ADDRESS_HEADER) ?? h?.get("x-forwarded-for")?.split(",")[0]?.trim() ?? null;
+  return h?.get("x-forwarded-for")?.split(",")[0]?.trim() || null;
 }
 
 function createAuth(database: Db) {
   const c = config();
   const secure = c.APP_URL.startsWith("https://");
-  const limit = signInLimit();
   return betterAuth({
     appName: "Strutwise",
     // failed passwords are expected traffic; keep test output to real errors
@@ -74,13 +71,24 @@ function createAuth(database: Db) {
     secret: c.BETTER_AUTH_SECRET,
     trustedOrigins: [new URL(c.APP_URL).origin],
     database: drizzleAdapter(database, { provider: "sqlite", schema }),
+    disabledPaths: CLOSED_AUTH_PATHS,
     emailAndPassword: {
       enabled: true,
+      // no session until the address is proven by its link (issue 14)
+      requireEmailVerification: true,
       minPasswordLength: 10,
       maxPasswordLength: 128,
       autoSignIn: true,
       revokeSessionsOnPasswordReset: true,
       resetPasswordTokenExpiresIn: 60 * 60,
+      // the reset link came through the mailbox: the address is proven
+      onPasswordReset: async ({ user }) => {
+        const row = await database.query.user.findFirst({ where: eq(schema.user.id, user.id) });
+        if (row && !row.emailVerified) {
+          await database.update(schema.user).set({ emailVerified: true, updatedAt: new Date() }).where(eq(schema.user.id, user.id));
+          await applyInvitationAfterVerification(row, database);
+        }
+      },
       // queued in the outbox like every mail; the queue worker's sender delivers it
       sendResetPassword: async ({ user, url, token }) => {
         await enqueueMail(database, {
@@ -90,10 +98,34 @@ function createAuth(database: Db) {
           to: user.email,
           subject: "Strutwise: choose a new password",
           text:
-            `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset the password of your Strutwise account.\n` +
+            `Hello ${plainText(user.name)},\n\nSomeone (hopefully you) asked to reset the password of your Strutwise account.\n` +
             `Open this link within the hour to choose a new one:\n\n${url}\n\n` +
             `If you did not ask for this, ignore this message; your password stays as it is.\n`,
         });
+      },
+    },
+    // a reset link reaches the mailbox just like a verification link, so it proves the address
+    emailVerification: {
+      sendOnSignUp: true,
+      sendOnSignIn: true,
+      autoSignInAfterVerification: true,
+      expiresIn: 60 * 60 * 24,
+      // through the outbox like every mail (the token's tail tells repeated links apart)
+      sendVerificationEmail: async ({ user, url, token }) => {
+        await enqueueMail(database, {
+          kind: "verification",
+          dedupeKey: `verification:${user.id}:${token.slice(-24)}`,
+          entity: { type: "user", id: user.id },
+          to: user.email,
+          subject: "Strutwise: confirm your e-mail address",
+          text:
+            `Hello ${plainText(user.name)},\n\nA Strutwise account was created with this address. Open this link within 24 hours to confirm it is yours:\n\n${url}\n\n` +
+            `Until then the account can do nothing. If you did not create it, ignore this message.\n`,
+        });
+      },
+      afterEmailVerification: async (user) => {
+        await applyInvitationAfterVerification(user, database);
+        await audit({ actor: { id: user.id, email: user.email }, action: "user.email-verified", entityType: "user", entityId: user.id }, database);
       },
     },
     session: {
@@ -113,7 +145,8 @@ function createAuth(database: Db) {
       window: 60,
       max: 200,
       customRules: {
-        "/sign-in/email": { window: limit.window, max: limit.max },
+        // sign-in has the desk's own throttle in front (prepareAuthRequest)
+        "/sign-in/email": false,
         "/sign-up/email": { window: 60, max: 10 },
         "/request-password-reset": { window: 60, max: 5 },
       },
@@ -138,18 +171,16 @@ function createAuth(database: Db) {
     databaseHooks: {
       user: {
         create: {
-          // An invitation decides the role of a new account; everyone else starts as viewer.
+          // SIGN_UP decides who may create an account; every account starts as an unverified
+          // viewer, and an invitation's role applies only after the verification link
+          // (sign-up-policy.server.ts). Demo and test accounts are written directly.
           before: async (user) => {
-            const invite = await database.query.invitations.findFirst({
-              where: eq(schema.invitations.email, user.email.toLowerCase()),
-            });
-            return { data: { ...user, role: invite && !invite.acceptedAt ? invite.role : "viewer" } };
+            const refusal = await signUpRefusal(user.email, database);
+            // 400, not 403: better-auth turns a 403 here into its generic "check your mail" answer
+            if (refusal) throw new APIError("BAD_REQUEST", { message: refusal, code: "SIGN_UP_CLOSED" });
+            return { data: { ...user, role: "viewer", emailVerified: false } };
           },
           after: async (user) => {
-            await database
-              .update(schema.invitations)
-              .set({ acceptedAt: new Date() })
-              .where(eq(schema.invitations.email, user.email.toLowerCase()));
             await audit({
               actor: { id: user.id, email: user.email },
               action: "user.sign-up",
@@ -216,15 +247,14 @@ export async function callAuthEndpoint(
     const v = request.headers.get(h);
     if (v) headers.set(h, v);
   }
-  const res = await auth().handler(
-    await prepareAuthRequest(
-      new Request(`${base}/api/auth${path}`, {
-        method: body ? "POST" : "GET",
-        headers,
-        body: body ? JSON.stringify(body) : undefined,
-      }),
-    ),
+  const prepared = await prepareAuthRequest(
+    new Request(`${base}/api/auth${path}`, {
+      method: body ? "POST" : "GET",
+      headers,
+      body: body ? JSON.stringify(body) : undefined,
+    }),
   );
+  const res = prepared instanceof Response ? prepared : await auth().handler(prepared);
   const text = await res.text();
   let data: any = null;
   try {

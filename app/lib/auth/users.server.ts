@@ -1,9 +1,12 @@
 // Account administration: invitations with a role, role changes, suspension. Each change is
 // written to the audit trail with who did it and the before/after values.
 import { randomUUID } from "node:crypto";
-import { asc, desc, eq, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, isNull } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
-import { invitations, session, user } from "~/db/schema";
+import { apiKeys, invitations, session, user } from "~/db/schema";
+import { config } from "~/lib/config.server";
+import { sendMail } from "~/lib/mail.server";
+import { plainText } from "~/lib/text-hygiene";
 import { audit } from "./audit.server";
 import type { SessionUser } from "./authorize.server";
 import type { Role } from "./permissions";
@@ -32,9 +35,32 @@ export async function inviteUser(
   await database
     .insert(invitations)
     .values({ id: randomUUID(), email, role: opts.role, invitedBy: opts.by.id })
-    .onConflictDoUpdate({ target: invitations.email, set: { role: opts.role, invitedBy: opts.by.id, acceptedAt: null } });
+    // re-inviting also restarts the invitation's time (INVITATION_TTL_DAYS)
+    .onConflictDoUpdate({ target: invitations.email, set: { role: opts.role, invitedBy: opts.by.id, acceptedAt: null, createdAt: new Date() } });
   await audit({ request: opts.request, actor: opts.by, action: "user.invite", entityType: "invitation", entityId: email, detail: { role: opts.role } }, database);
-  return { ok: true, message: `${email} is invited as ${opts.role}. When they create an account with that address, it gets this role.` };
+  await sendInvitationMail(email, opts.role, opts.by);
+  return {
+    ok: true,
+    message: `${email} is invited as ${opts.role} for ${config().INVITATION_TTL_DAYS} days. Once they create an account with that address and confirm it by the link we mail them, it gets this role.`,
+  };
+}
+
+async function sendInvitationMail(email: string, role: Role, by: SessionUser): Promise<void> {
+  const c = config();
+  const link = `${c.APP_URL.replace(/\/$/, "")}/sign-up?email=${encodeURIComponent(email)}`;
+  try {
+    await sendMail({
+      to: email,
+      subject: "Strutwise: you are invited to a truss optimization desk",
+      text:
+        `Hello,\n\n${plainText(by.name) || "An administrator"} invited this address to the Strutwise desk as ${role}.\n` +
+        `Create your account within ${c.INVITATION_TTL_DAYS} days here:\n\n${link}\n\n` +
+        `We then send a second link to confirm the address; the role applies once it is confirmed.\n`,
+    });
+  } catch (e) {
+    // the invitation stands; the admin can tell the person in another way
+    console.error(`[invite] mail to ${email} failed: ${e instanceof Error ? e.message : String(e)}`);
+  }
 }
 
 export async function changeRole(
@@ -53,7 +79,7 @@ export async function changeRole(
   return { ok: true, message: `${target.email} is now ${opts.role}` };
 }
 
-/** Suspend (ends every session at once; API keys stop working too) or restore an account. */
+/** Suspend (ends every session at once and revokes every API key) or restore an account. */
 export async function setBanned(
   opts: { userId: string; banned: boolean; by: SessionUser; request?: Request },
   database: Db = defaultDb(),
@@ -62,7 +88,11 @@ export async function setBanned(
   if (!target) return { ok: false, message: `There is no account with id ${opts.userId}` };
   if (target.id === opts.by.id) return { ok: false, message: "You cannot suspend your own account" };
   await database.update(user).set({ banned: opts.banned, banReason: opts.banned ? "suspended by an admin" : null, updatedAt: new Date() }).where(eq(user.id, target.id));
-  if (opts.banned) await database.delete(session).where(eq(session.userId, target.id));
+  if (opts.banned) {
+    await database.delete(session).where(eq(session.userId, target.id));
+    // keys are revoked for good: restoring the account later does not bring them back
+    await database.update(apiKeys).set({ revokedAt: new Date() }).where(and(eq(apiKeys.userId, target.id), isNull(apiKeys.revokedAt)));
+  }
   await audit(
     { request: opts.request, actor: opts.by, action: opts.banned ? "user.suspend" : "user.restore", entityType: "user", entityId: target.id, detail: { email: target.email } },
     database,

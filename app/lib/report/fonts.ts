@@ -6,6 +6,7 @@ import fs from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
 import zlib from "node:zlib";
+import { stripBidi } from "~/lib/text-hygiene";
 
 export type Face = "sans" | "sans-semibold" | "sans-bold" | "sans-italic" | "mono";
 
@@ -19,11 +20,11 @@ interface FaceFiles {
 }
 
 const FACES: Record<Face, FaceFiles> = {
-  sans: { pkg: "@fontsource/ibm-plex-sans", weight: 400, style: "normal", subsets: ["latin", "latin-ext", "greek"] },
-  "sans-semibold": { pkg: "@fontsource/ibm-plex-sans", weight: 600, style: "normal", subsets: ["latin", "latin-ext", "greek"] },
-  "sans-bold": { pkg: "@fontsource/ibm-plex-sans", weight: 700, style: "normal", subsets: ["latin", "latin-ext", "greek"] },
-  "sans-italic": { pkg: "@fontsource/ibm-plex-sans", weight: 400, style: "italic", subsets: ["latin", "latin-ext", "greek"] },
-  mono: { pkg: "@fontsource/roboto-mono", weight: 400, style: "normal", subsets: ["latin", "latin-ext", "greek"], fallback: "sans" },
+  sans: { pkg: "@fontsource/ibm-plex-sans", weight: 400, style: "normal", subsets: ["latin", "latin-ext", "greek", "cyrillic", "cyrillic-ext"] },
+  "sans-semibold": { pkg: "@fontsource/ibm-plex-sans", weight: 600, style: "normal", subsets: ["latin", "latin-ext", "greek", "cyrillic", "cyrillic-ext"] },
+  "sans-bold": { pkg: "@fontsource/ibm-plex-sans", weight: 700, style: "normal", subsets: ["latin", "latin-ext", "greek", "cyrillic", "cyrillic-ext"] },
+  "sans-italic": { pkg: "@fontsource/ibm-plex-sans", weight: 400, style: "italic", subsets: ["latin", "latin-ext", "greek", "cyrillic", "cyrillic-ext"] },
+  mono: { pkg: "@fontsource/roboto-mono", weight: 400, style: "normal", subsets: ["latin", "latin-ext", "greek", "cyrillic", "cyrillic-ext"], fallback: "sans" },
 };
 
 // Characters no shipped subset holds, written in words or ASCII instead of a missing glyph.
@@ -169,16 +170,25 @@ export interface Run {
 
 const ASCII_PRINTABLE = /^[\x20-\x7e]*$/;
 
-/** Cut a text into runs of one font subset each; characters no subset has are substituted. */
+/** What the page prints for a character no shipped font has: it says so, instead of a "?". */
+export function missingGlyphText(ch: string): string {
+  return `[no glyph U+${ch.codePointAt(0)!.toString(16).toUpperCase().padStart(4, "0")}]`;
+}
+
+/**
+ * Cut a text into runs of one font subset each. Bidirectional control characters (which could
+ * reorder a typed name) are dropped; characters no subset has are written in words or ASCII,
+ * or named by their code point (missingGlyphText).
+ */
 export function runs(face: Face, text: string): Run[] {
   const first = faces().get(face)![0]!.name;
   if (ASCII_PRINTABLE.test(text)) return [{ font: first, text }];
   const out: Run[] = [];
-  for (const raw of text) {
+  for (const raw of stripBidi(text)) {
     let ch = raw;
     let font = fontFor(face, ch);
     if (!font) {
-      ch = SUBSTITUTES[raw] ?? "?";
+      ch = SUBSTITUTES[raw] ?? missingGlyphText(raw);
       font = first;
     }
     const last = out[out.length - 1];
