@@ -86,3 +86,26 @@ export async function makeJob(opts: { submittedBy: string; status?: "queued" | "
   await db().insert(jobs).values({ id: jobId, projectId, modelId, submittedBy: opts.submittedBy, status: opts.status ?? "succeeded", options: {}, ...(opts.outcome ? { outcome: opts.outcome } : {}) });
   return { projectId, modelId, jobId };
 }
+
+/** Wait for a mail to this address whose subject matches, from the test mail catcher. */
+export async function mailTo(services: { mail: { messages(): { to: string[]; subject: string; text: string }[] } }, address: string, subject: RegExp) {
+  for (let i = 0; i < 60; i++) {
+    const hit = services.mail.messages().find((m) => m.to.includes(address) && subject.test(m.subject));
+    if (hit) return hit;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`no mail to ${address} matching ${subject}`);
+}
+
+/** Open the confirmation link of a verification mail through /api/auth/*, as a browser would. */
+export async function followVerificationLink(text: string): Promise<Response> {
+  const link = /(http\S+\/api\/auth\/verify-email\?\S+)/.exec(text)?.[1];
+  if (!link) throw new Error("the mail holds no confirmation link");
+  const { loader } = await import("~/routes/api/auth.$");
+  try {
+    return (await loader({ request: new Request(link), params: {}, context: {} } as never)) as Response;
+  } catch (e) {
+    if (e instanceof Response) return e;
+    throw e;
+  }
+}

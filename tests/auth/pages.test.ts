@@ -3,7 +3,7 @@
 // (page form and API), admin invitations and role changes, and the audit trail they leave.
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { makeUser, PASSWORD, req, sessionCookie, setup } from "./helpers";
+import { followVerificationLink, mailTo, makeUser, PASSWORD, req, sessionCookie, setup } from "./helpers";
 
 let ctx: Awaited<ReturnType<typeof setup>>;
 const cookies: Record<string, string> = {};
@@ -177,7 +177,7 @@ describe("admin: invitations and role changes", () => {
     return run(() => action({ request: form(fields, { cookie: cookies[who], path: "/admin/users" }), params: {}, context: {} } as never)) as Promise<unknown>;
   };
 
-  it("an invited address signs up with its role; a role change takes effect on the next request and is audited", async () => {
+  it("an invited address gets its role once confirmed by the mailed link; a role change takes effect on the next request and is audited", async () => {
     const { user } = await import("~/db/schema");
     const { getUser } = await import("~/lib/auth/authorize.server");
     const { listAudit } = await import("~/lib/auth/audit.server");
@@ -185,9 +185,14 @@ describe("admin: invitations and role changes", () => {
     const { callAuthEndpoint } = await import("~/lib/auth/auth.server");
     const signUp = await callAuthEndpoint(new Request("http://localhost/"), "/sign-up/email", { email: "new.engineer@tarrowkeel-test.example", password: PASSWORD, name: "New Engineer" });
     expect(signUp.status).toBe(200);
-    await ctx.db.update(user).set({ emailVerified: true }).where(eq(user.email, "new.engineer@tarrowkeel-test.example"));
+    // not yet: an unconfirmed account is a viewer that can do nothing
+    expect((await ctx.db.query.user.findFirst({ where: eq(user.email, "new.engineer@tarrowkeel-test.example") }))?.role).toBe("viewer");
+    const mail = await mailTo(ctx.services, "new.engineer@tarrowkeel-test.example", /confirm your e-mail/);
+    const hop = await followVerificationLink(mail.text);
+    expect(hop.status).toBe(302);
     const u = (await ctx.db.query.user.findFirst({ where: eq(user.email, "new.engineer@tarrowkeel-test.example") }))!;
     expect(u.role).toBe("engineer");
+    expect(u.emailVerified).toBe(true);
     const cookie = await sessionCookie(u.email);
     await act({ intent: "role", userId: u.id, role: "checker" });
     expect((await getUser(req("/", { cookie })))?.role).toBe("checker");

@@ -2,7 +2,7 @@
 // cookie is refused; sign-ups start as viewer unless invited.
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { makeUser, req, sessionCookie, setup, PASSWORD } from "./helpers";
+import { followVerificationLink, mailTo, makeUser, PASSWORD, req, sessionCookie, setup } from "./helpers";
 
 let ctx: Awaited<ReturnType<typeof setup>>;
 beforeAll(async () => {
@@ -68,7 +68,7 @@ describe("sign-up roles", () => {
     expect(row?.role).toBe("viewer");
   });
 
-  it("an invitation gives the invited role, and is marked accepted", async () => {
+  it("an invitation gives the invited role once the address is confirmed, and is marked accepted", async () => {
     const { callAuthEndpoint } = await import("~/lib/auth/auth.server");
     const { user, invitations } = await import("~/db/schema");
     await ctx.db.insert(invitations).values({ id: "inv-1", email: "new.checker@kestrelspan.example", role: "checker" });
@@ -78,6 +78,9 @@ describe("sign-up roles", () => {
       name: "New Checker",
     });
     expect(res.status).toBe(200);
+    expect((await ctx.db.query.user.findFirst({ where: eq(user.email, "new.checker@kestrelspan.example") }))?.role).toBe("viewer");
+    const mail = await mailTo(ctx.services, "new.checker@kestrelspan.example", /confirm your e-mail/);
+    await followVerificationLink(mail.text);
     const row = await ctx.db.query.user.findFirst({ where: eq(user.email, "new.checker@kestrelspan.example") });
     expect(row?.role).toBe("checker");
     const inv = await ctx.db.query.invitations.findFirst({ where: eq(invitations.id, "inv-1") });
