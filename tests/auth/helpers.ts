@@ -89,6 +89,10 @@ export async function makeJob(opts: { submittedBy: string; status?: "queued" | "
 
 /** Wait for a mail to this address whose subject matches, from the test mail catcher. */
 export async function mailTo(services: { mail: { messages(): { to: string[]; subject: string; text: string }[] } }, address: string, subject: RegExp) {
+  // mail waits in the outbox; deliver what is due, as the queue worker's sender does
+  const { MailSender } = await import("~/lib/mail/sender.server");
+  const { db } = await import("~/db/client.server");
+  await new MailSender({ db: db(), senderId: "auth-tests", log: () => undefined }).deliverDue();
   for (let i = 0; i < 60; i++) {
     const hit = services.mail.messages().find((m) => m.to.includes(address) && subject.test(m.subject));
     if (hit) return hit;

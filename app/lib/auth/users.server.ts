@@ -5,7 +5,7 @@ import { and, asc, desc, eq, isNull } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
 import { apiKeys, invitations, session, user } from "~/db/schema";
 import { config } from "~/lib/config.server";
-import { sendMail } from "~/lib/mail.server";
+import { enqueueMail } from "~/lib/mail/outbox.server";
 import { plainText } from "~/lib/text-hygiene";
 import { audit } from "./audit.server";
 import type { SessionUser } from "./authorize.server";
@@ -38,29 +38,28 @@ export async function inviteUser(
     // re-inviting also restarts the invitation's time (INVITATION_TTL_DAYS)
     .onConflictDoUpdate({ target: invitations.email, set: { role: opts.role, invitedBy: opts.by.id, acceptedAt: null, createdAt: new Date() } });
   await audit({ request: opts.request, actor: opts.by, action: "user.invite", entityType: "invitation", entityId: email, detail: { role: opts.role } }, database);
-  await sendInvitationMail(email, opts.role, opts.by);
+  await sendInvitationMail(email, opts.role, opts.by, database);
   return {
     ok: true,
     message: `${email} is invited as ${opts.role} for ${config().INVITATION_TTL_DAYS} days. Once they create an account with that address and confirm it by the link we mail them, it gets this role.`,
   };
 }
 
-async function sendInvitationMail(email: string, role: Role, by: SessionUser): Promise<void> {
+/** Through the outbox like every mail; one per invitation sent (a re-invite mails again). */
+async function sendInvitationMail(email: string, role: Role, by: SessionUser, database: Db): Promise<void> {
   const c = config();
   const link = `${c.APP_URL.replace(/\/$/, "")}/sign-up?email=${encodeURIComponent(email)}`;
-  try {
-    await sendMail({
-      to: email,
-      subject: "Strutwise: you are invited to a truss optimization desk",
-      text:
-        `Hello,\n\n${plainText(by.name) || "An administrator"} invited this address to the Strutwise desk as ${role}.\n` +
-        `Create your account within ${c.INVITATION_TTL_DAYS} days here:\n\n${link}\n\n` +
-        `We then send a second link to confirm the address; the role applies once it is confirmed.\n`,
-    });
-  } catch (e) {
-    // the invitation stands; the admin can tell the person in another way
-    console.error(`[invite] mail to ${email} failed: ${e instanceof Error ? e.message : String(e)}`);
-  }
+  await enqueueMail(database, {
+    kind: "invitation",
+    dedupeKey: `invitation:${email}:${Date.now()}`,
+    entity: { type: "invitation", id: email },
+    to: email,
+    subject: "Strutwise: you are invited to a truss optimization desk",
+    text:
+      `Hello,\n\n${plainText(by.name) || "An administrator"} invited this address to the Strutwise desk as ${role}.\n` +
+      `Create your account within ${c.INVITATION_TTL_DAYS} days here:\n\n${link}\n\n` +
+      `We then send a second link to confirm the address; the role applies once it is confirmed.\n`,
+  });
 }
 
 export async function changeRole(

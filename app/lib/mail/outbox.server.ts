@@ -8,6 +8,7 @@ import { randomUUID } from "node:crypto";
 import { and, desc, eq, inArray, sql, type SQL } from "drizzle-orm";
 import type { Db, DbExecutor } from "~/db/client.server";
 import { mailOutbox, type MailState } from "~/db/schema";
+import { plainText } from "~/lib/text-hygiene";
 
 export interface OutboxMail {
   /**
@@ -31,7 +32,7 @@ function rowValues(mail: OutboxMail, now: number) {
     dedupeKey: mail.dedupeKey,
     kind: mail.kind,
     recipient: mail.to,
-    subject: mail.subject,
+    subject: plainText(mail.subject), // one line, no bidi controls (text-hygiene.ts)
     textBody: mail.text,
     htmlBody: mail.html ?? null,
     entityType: mail.entity?.type ?? null,
