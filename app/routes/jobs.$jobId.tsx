@@ -3,6 +3,7 @@ import { useEffect, useMemo, useState } from "react";
 import { data, Link } from "react-router";
 import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
 import { GoverningConstraints } from "~/components/job/GoverningConstraints";
+import { LowerBoundGauge } from "~/components/job/LowerBoundGauge";
 import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
 import { OutcomePanel } from "~/components/job/OutcomePanel";
 import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
@@ -271,6 +272,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               {head.solver && <Stat label="solver" value={`${head.solver.name} ${head.solver.version}`} wrap />}
             </dl>
           </section>
+          <LowerBoundGauge result={head} />
         </>
       )}
 

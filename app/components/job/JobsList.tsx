@@ -5,6 +5,7 @@ import { createColumnHelper } from "@tanstack/react-table";
 import { useEffect, useMemo, useRef, type ReactNode } from "react";
 import { Link, useFetcher } from "react-router";
 import { DataTable } from "~/components/tables/DataTable";
+import { gapColumn } from "./gap-column";
 import { formatDateTime, formatDuration, formatNumber } from "~/lib/format";
 import { JobStateBadge, ReviewBadge } from "~/components/ui/StatusBadge";
 
@@ -20,6 +21,8 @@ export interface JobListRow {
   startedAt?: string | null;
   finishedAt: string | null;
   objective: { kind: string; final: number } | null;
+  /** objective / lower bound - 1 (result field lowerBound), when the run has one */
+  gap?: number | null;
   progress: { iteration: number | null } | null;
   /** the review decision in force, null when none */
   review?: string | null;
@@ -35,7 +38,7 @@ interface ApiJob {
   finishedAt: string | null;
   startedAt?: string | null;
   progress: { iteration: number | null } | null;
-  summary?: { objectiveKind: string; objectiveFinal: number } | null;
+  summary?: { objectiveKind: string; objectiveFinal: number; lowerBoundGap?: number } | null;
 }
 
 const LIVE = new Set(["queued", "running"]);
@@ -54,6 +57,7 @@ export function mergeLive(rows: JobListRow[], fresh: ApiJob[] | undefined): JobL
       startedAt: f.startedAt ?? r.startedAt,
       progress: f.progress,
       objective: f.summary ? { kind: f.summary.objectiveKind, final: f.summary.objectiveFinal } : r.objective,
+      gap: f.summary ? (f.summary.lowerBoundGap ?? null) : r.gap,
     };
   });
 }
@@ -148,6 +152,7 @@ export function JobsList({
           );
         },
       }),
+      gapColumn(col),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [showModel, showProject],

@@ -32,6 +32,7 @@ export async function toJobRows(jobs: JobView[]): Promise<JobListRow[]> {
     startedAt: j.startedAt,
     finishedAt: j.finishedAt,
     objective: j.summary ? { kind: j.summary.objectiveKind, final: j.summary.objectiveFinal } : null,
+    gap: j.summary?.lowerBoundGap ?? null,
     progress: j.progress,
     hasResult: j.hasResult,
     review: decisions.get(j.id) ?? null,

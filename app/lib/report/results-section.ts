@@ -1,6 +1,7 @@
 // Section 3, results: the solver's outcome, the convergence plot, the drawing of the optimized
 // truss, member and node tables per load case, and the shape variables' final values.
 import { convergencePlot } from "./convergence-plot";
+import { lowerBoundSection } from "./lower-bound-section";
 import { statusWords } from "./cover";
 import { formatNumber, formatPercent, formatResidual } from "~/lib/format";
 import type { ReportWriter } from "./layout";
@@ -41,6 +42,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
   if (r.mass !== undefined) facts.push(["Mass", `${formatNumber(r.mass, { sig: 5 })} ${u.mass}`]);
   if (r.solver?.elapsedMs !== undefined) facts.push(["Solve time", `${formatNumber(r.solver.elapsedMs / 1000, { sig: 3 })} s`]);
   w.facts(facts);
+  lowerBoundSection(w, data);
 
   convergencePlot(w, r.history, `${r.objective.kind} (${objUnit})`, { title: "Convergence" });
   trussDrawing(w, drawingInput(r, data.model.file), { title: "The optimized truss" });
