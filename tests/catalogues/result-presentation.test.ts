@@ -147,3 +147,10 @@ describe("the PDF report", () => {
     expect(text).toContain("Forces and stresses, load cases G, S, ULS-1");
   });
 });
+
+describe("a model whose members name only their section", () => {
+  it("draws each member with its section's area (the viewer's topology)", () => {
+    const t = topologyOf(modelFile)!;
+    expect(t.members.map((m) => m.area)).toEqual([1067, 1067]); // CHS 88.9x4.0 of the fixture's sections
+  });
+});

@@ -25,10 +25,10 @@ export function CatalogueDesignPanel({ result }: { result: Pick<TrussResult, "ca
           <thead>
             <tr>
               <th>design</th>
-              <th className="num">
+              <th className="whitespace-nowrap text-right">
                 {kind} ({unit})
               </th>
-              <th className="num">above the continuous optimum</th>
+              <th className="whitespace-nowrap text-right">above the continuous optimum</th>
             </tr>
           </thead>
           <tbody>
@@ -64,11 +64,11 @@ export function CatalogueDesignPanel({ result }: { result: Pick<TrussResult, "ca
           <thead>
             <tr>
               <th>group or member</th>
-              <th className="num">members</th>
-              <th className="num">continuous area ({a})</th>
+              <th className="whitespace-nowrap text-right">members</th>
+              <th className="whitespace-nowrap text-right">continuous area ({a})</th>
               <th>section</th>
-              <th className="num">section area ({a})</th>
-              <th className="num">step</th>
+              <th className="whitespace-nowrap text-right">section area ({a})</th>
+              <th className="whitespace-nowrap text-right">step</th>
               <th>kept from the next lighter section by</th>
             </tr>
           </thead>

@@ -48,11 +48,11 @@ export function ReactionsPanel({ result, fileName }: { result: TrussResult; file
             <tr>
               <th>node</th>
               {axes.map((a) => (
-                <th key={a} className="num">
+                <th key={a} className="whitespace-nowrap text-right">
                   R{a} ({f})
                 </th>
               ))}
-              <th className="num">|R| ({f})</th>
+              <th className="whitespace-nowrap text-right">|R| ({f})</th>
             </tr>
           </thead>
           <tbody>
