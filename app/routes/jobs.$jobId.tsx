@@ -110,6 +110,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       finishedAt: job.finishedAt,
       progress: job.progress,
       hasResult: job.hasResult,
+      kind: job.kind,
+      modelVersion: job.modelVersion,
     },
     facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
     tolerance: toleranceOf(text, job.options),
@@ -211,9 +213,18 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           <Link to={`/models/${facts.modelId}`} className="hover:underline">
             {facts.modelName}
           </Link>
+          {job.modelVersion && (
+            <>
+              {" "}
+              /{" "}
+              <Link to={`/models/${facts.modelId}/versions/${job.modelVersion}`} className="hover:underline">
+                version {job.modelVersion}
+              </Link>
+            </>
+          )}
         </p>
         <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-semibold sm:text-3xl">
-          <span>Job {job.id.slice(0, 8)}</span>
+          <span>{job.kind === "analysis" ? "Analysis" : "Job"} {job.id.slice(0, 8)}</span>
           <JobStateBadge status={shownStatus} outcome={shownStatus === job.status ? job.outcome : null} hasResult={job.hasResult} />
           {reviewable && <ReviewBadge decision={current?.decision} />}
         </h1>
@@ -386,9 +397,14 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             </li>
           </ul>
           {may.rerun && !live && (
-            <Link to={`/models/${facts.modelId}`} className="btn btn-secondary mt-4">
-              Queue another run
-            </Link>
+            <div className="mt-4 flex flex-wrap gap-2">
+              <Link to={`/models/${facts.modelId}`} className="btn btn-secondary">
+                Queue another run
+              </Link>
+              <Link to={`/models/${facts.modelId}/edit${job.modelVersion ? `?version=${job.modelVersion}` : ""}`} className="btn btn-secondary" data-testid="edit-and-run-again">
+                Edit and run again
+              </Link>
+            </div>
           )}
         </section>
       </div>

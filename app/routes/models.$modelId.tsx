@@ -17,6 +17,8 @@ import { can } from "~/lib/auth/permissions";
 import { notFound } from "~/lib/http.server";
 import { enqueueJob, listJobs } from "~/lib/jobs/queue.server";
 import { getModel, getModelFile } from "~/lib/models.server";
+import { ModelVersions } from "~/components/editor/ModelVersions";
+import { listModelVersions } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId";
 import { plainText } from "~/lib/text-hygiene";
 
@@ -60,6 +62,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     getModelFile(model.id).catch(() => null),
     listJobs({ modelId: model.id, limit: 20 }),
   ]);
+  const versions = (await listModelVersions(model.id)).map((v) => ({ version: v.version, note: v.note, createdAt: v.createdAt, hasDesign: v.hasDesign }));
   let parsed: ModelFile | null = null;
   try {
     parsed = file ? (JSON.parse(file.text) as ModelFile) : null;
@@ -117,8 +120,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       } satisfies ModelLike,
     },
     defaults,
+    versions,
     jobs: await toJobRows(jobs.jobs),
-    may: { queue: can(user.role, "create:job") && model.hasDesign, canCreateJob: can(user.role, "create:job") },
+    may: { queue: can(user.role, "create:job") && model.hasDesign, canCreateJob: can(user.role, "create:job"), edit: can(user.role, "create:model") },
   };
 }
 
@@ -195,6 +199,8 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
       </section>
 
       {model.warnings.length > 0 && <IssueList title="Worth a second look" issues={model.warnings} tone="warn" />}
+
+      <ModelVersions modelId={model.id} versions={loaderData.versions} mayEdit={may.edit} />
 
       {file ? <TrussViewer model={file.topology} title="Initial geometry" /> : <EmptyState title="The model file could not be read" />}
 

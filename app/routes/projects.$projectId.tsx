@@ -96,6 +96,13 @@ export default function ProjectPage({ loaderData }: Route.ComponentProps) {
       {mayUpload && (
         <section className="card" aria-label="Upload a model">
           <h2 className="mb-3 font-semibold">Upload a model</h2>
+          <p className="mb-3 text-sm text-ink-soft">
+            No file yet?{" "}
+            <Link to={`/projects/${project.id}/new-model`} className="font-medium text-info hover:underline" data-testid="new-model-link">
+              Build one from a truss type or import a spreadsheet
+            </Link>
+            .
+          </p>
           <ModelUploadWithSections projectId={project.id} limitBytes={uploadLimit} catalogues={catalogues} />
         </section>
       )}

@@ -66,6 +66,9 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   // pages of other parts
   "/projects/:id": { GET: ALL, POST: PRODUCERS }, // POST uploads a model
   "/models/:id": { GET: ALL, POST: PRODUCERS }, // POST queues a job
+  "/models/:id/edit": { GET: PRODUCERS, POST: PRODUCERS }, // POST saves a new version
+  "/models/:id/versions/:id": { GET: ALL, POST: PRODUCERS }, // POST queues a run of that version
+  "/projects/:id/new-model": { GET: PRODUCERS, POST: PRODUCERS },
   "/jobs": { GET: ALL },
   "/jobs/:id": { GET: ALL, POST: "signed-in" }, // actions inside check review/cancel rights
   // section catalogues: the desk's, read by everyone signed in, kept by admins and engineers

@@ -1,0 +1,70 @@
+// The editor page: a version of a model (the latest, or ?version=N, e.g. from "edit and run
+// again" on a job page) in editable tables with a live preview; saving adds a new version.
+import { data, Link, redirect, useNavigation } from "react-router";
+import { ModelEditor } from "~/components/editor/ModelEditor";
+import { RouteError } from "~/components/ui/RouteError";
+import { audit } from "~/lib/auth/audit.server";
+import { requireModel } from "~/lib/access.server";
+import { badRequest, notFound } from "~/lib/http.server";
+import { getModel } from "~/lib/models.server";
+import { createModelVersion, getModelVersionFile } from "~/lib/models/versions.server";
+import type { Route } from "./+types/models.$modelId.edit";
+
+export function meta({ data }: Route.MetaArgs) {
+  return [{ title: data ? `Edit ${data.name} — Strutwise` : "Edit model — Strutwise" }];
+}
+
+function versionParam(request: Request): number | null {
+  const raw = new URL(request.url).searchParams.get("version");
+  if (!raw) return null;
+  const v = Number(raw);
+  if (!Number.isInteger(v) || v < 1) badRequest("version must be a whole number from 1");
+  return v;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  await requireModel(request, params.modelId, "create:model");
+  const model = await getModel(params.modelId);
+  if (!model) notFound(`Model ${params.modelId}`);
+  const file = await getModelVersionFile(model.id, versionParam(request));
+  if (!file) notFound(`That version of model ${params.modelId}`);
+  const json = JSON.parse(file.text) as Record<string, unknown>;
+  return { id: model.id, name: model.name, version: file.version, model: json, units: json.units as { length: string; force: string; mass: string } };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { user } = await requireModel(request, params.modelId, "create:model");
+  const form = await request.formData();
+  const text = form.get("model");
+  const note = form.get("note");
+  if (typeof text !== "string") return data({ error: "The edited model did not arrive; save again" }, { status: 400 });
+  const created = await createModelVersion({ modelId: params.modelId, fileName: "edited.truss.json", bytes: new TextEncoder().encode(`${JSON.stringify(JSON.parse(text), null, 2)}\n`), note: typeof note === "string" ? note : null, user });
+  if (!created.ok) return data({ error: `${created.error}${created.details[0] ? ` — ${created.details[0].path}: ${created.details[0].message}` : ""}` }, { status: created.status });
+  await audit({ request, actor: user, action: "model.version", entityType: "model", entityId: created.modelId, detail: { version: created.version.version, sha256: created.version.sha256, note: created.version.note } });
+  throw redirect(`/models/${created.modelId}/versions/${created.version.version}`);
+}
+
+export function ErrorBoundary() {
+  return <RouteError what="model" />;
+}
+
+export default function EditModelPage({ loaderData, actionData }: Route.ComponentProps) {
+  const nav = useNavigation();
+  return (
+    <div className="space-y-4">
+      <header>
+        <p className="text-sm text-ink-muted">
+          <Link to={`/models/${loaderData.id}`} className="hover:underline">
+            {loaderData.name}
+          </Link>{" "}
+          · editing version {loaderData.version}
+        </p>
+        <h1 className="mt-1 text-2xl font-semibold">Edit the model</h1>
+        <p className="mt-1 max-w-3xl text-sm text-ink-soft">
+          Units of this model: lengths in {loaderData.units.length}, forces in {loaderData.units.force}, masses in {loaderData.units.mass}. Saving keeps version {loaderData.version} as it is and adds the next version.
+        </p>
+      </header>
+      <ModelEditor initial={loaderData.model} units={loaderData.units} baseVersion={loaderData.version} saving={nav.state === "submitting"} saveError={actionData?.error ?? null} />
+    </div>
+  );
+}
