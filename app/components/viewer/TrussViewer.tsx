@@ -51,17 +51,12 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
   const [mounted, setMounted] = useState(false);
   const [gl, setGl] = useState<boolean | null>(null);
   const [lost, setLost] = useState(false);
-<<<<<<< HEAD
-  const [selected, setSelected] = useState<number | null>(null);
-  const [ownCase, setLoadCase] = useState(0);
-  const pickedIndex = caseId === undefined ? -1 : view.loadCases.findIndex((c) => c.id === caseId);
-  const loadCase = pickedIndex >= 0 ? pickedIndex : ownCase;
-=======
   const [ownSelected, setOwnSelected] = useState<number | null>(null);
   const selected = selectedMember !== undefined ? selectedMember : ownSelected;
   const setSelected = onSelectMember ?? setOwnSelected;
-  const [loadCase, setLoadCase] = useState(0);
->>>>>>> 68101b9 (Workbench pages: new model from a generator or a spreadsheet, the editor (virtualized tables, paste, live validation by the engine's parser, preview with member selection both ways, save as a new version), version pages with changes in words and runs of that version, versions on the model page, edit and run again on the job page)
+  const [ownCase, setLoadCase] = useState(0);
+  const pickedIndex = caseId === undefined ? -1 : view.loadCases.findIndex((c) => c.id === caseId);
+  const loadCase = pickedIndex >= 0 ? pickedIndex : ownCase;
   const baseScale = useMemo(() => defaultDeformationScale(view, loadCase), [view, loadCase]);
   const [scaleStep, setScaleStep] = useState(SCALE_STEPS / 2);
   const [settings, setSettings] = useState<Omit<SceneSettings, "loadCase" | "deformationScale">>({
