@@ -2,16 +2,17 @@
 // in, a result JSON of truss-format.md out with status "analysed". The same member, node and
 // reaction fields as an optimized result, so the job page, the report and the review read it
 // alike. Utilization is the worst of stress (against the material allowables) and, when the
-// model's design block asks for it, the Euler buckling check, over every load case.
+// model's design block asks for it, the Euler buckling check, over the strength responses
+// (the strength combinations, else every load case); forces, stresses, displacements and
+// reactions over every load case and combination.
 import { analyze, buildStructure, type TrussModel } from "../truss";
 import { ENGINE_VERSION, SOLVER_NAME } from "./result";
-import type { ResultMember, ResultNode, TrussResult } from "./result-types";
+import type { ResultMember, ResultNode, ResultReaction, TrussResult } from "./result-types";
+import { bucklingModel, responsesFor } from "./problem";
+import { eulerStress } from "./buckling";
+import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, reactions as supportReactions, resultCombinations } from "./responses";
 
-export interface ResultReaction {
-  node: string;
-  /** per load case: the support's reaction [x, y, z] in model force units; 0 on free axes */
-  values: Record<string, [number, number, number]>;
-}
+export type { ResultReaction } from "./result-types";
 
 export type AnalysisResult = TrussResult & { reactions: ResultReaction[] };
 
@@ -24,49 +25,46 @@ export function analyseModel(model: TrussModel): AnalysisResult {
   const objective = objectiveKind === "mass" ? a.mass : a.compliance.reduce((x, y) => x + y, 0);
 
   const sections = new Map((model.sections ?? []).map((sec) => [sec.id, sec]));
-  // I of a member: its catalogue section's, else sectionRatio * A^2; neither: no buckling check
-  const secondMoment = (e: number): number | null => {
-    const sec = model.members[e].section === undefined ? undefined : sections.get(model.members[e].section!);
-    if (sec) return sec.I;
-    return buckling?.sectionRatio === undefined ? null : buckling.sectionRatio * a.areas[e] * a.areas[e];
-  };
+  // I of a member: its catalogue section's, else the fit over the model's sections, else
+  // sectionRatio * A^2; none of these: no buckling check
+  const bm = buckling && (buckling.sectionRatio !== undefined || sections.size > 0) ? bucklingModel(model, buckling) : null;
+  if (bm) {
+    const memberI = new Float64Array(model.members.length);
+    model.members.forEach((m, e) => {
+      const sec = m.section === undefined ? undefined : sections.get(m.section);
+      memberI[e] = sec ? sec.I : bm.a * a.areas[e] ** bm.b;
+    });
+    bm.memberI = memberI;
+  }
+  const strength = responsesFor(s, "strength");
   const members: ResultMember[] = model.members.map((m, e) => {
-    const I = buckling ? secondMoment(e) : null;
-    const k = m.bucklingFactor ?? buckling?.effectiveLengthFactor ?? 1;
-    const force: Record<string, number> = {};
-    const stress: Record<string, number> = {};
     let utilization = 0;
     let governing = "";
-    s.loadCaseIds.forEach((lc, l) => {
+    let governingCase = "";
+    for (const l of strength) {
+      const lc = s.responseIds[l];
       const sigma = a.stresses[l][e];
-      force[lc] = a.forces[l][e];
-      stress[lc] = sigma;
       const allow = sigma >= 0 ? s.allowTension[e] : s.allowCompression[e];
       const r = Number.isFinite(allow) ? Math.abs(sigma) / allow : 0;
-      if (r > utilization) [utilization, governing] = [r, `stress:${lc}`];
-      if (I !== null && sigma < 0) {
-        const kL = k * a.lengths[e];
-        const sigmaE = (Math.PI * Math.PI * s.E[e] * I) / (kL * kL * a.areas[e]);
-        if (-sigma / sigmaE > utilization) [utilization, governing] = [-sigma / sigmaE, `buckling:${lc}`];
+      if (r > utilization) [utilization, governing, governingCase] = [r, `stress:${lc}`, lc];
+      if (bm && sigma < 0) {
+        const ratio = -sigma / eulerStress(bm, e, s.E[e], a.areas[e], a.lengths[e]);
+        if (ratio > utilization) [utilization, governing, governingCase] = [ratio, `buckling:${lc}`, lc];
       }
-    });
+    }
     return {
-      id: m.id, start: m.start, end: m.end, ...(m.group ? { group: m.group } : {}),
-      area: a.areas[e], length: a.lengths[e], force, stress, utilization, ...(governing ? { governing } : {}),
+      id: m.id, start: m.start, end: m.end, ...(m.group ? { group: m.group } : {}), ...(m.section ? { section: m.section } : {}),
+      area: a.areas[e], length: a.lengths[e], force: memberForceMap(s, a, e), stress: memberStressMap(s, a, e), utilization,
+      ...(governing ? { governing, governingCase } : {}), ...(bm ? { bucklingFactor: bm.k[e] } : {}),
     };
   });
 
-  const triple = (v: Float64Array, i: number): [number, number, number] => [v[3 * i], v[3 * i + 1], v[3 * i + 2]];
   const nodes: ResultNode[] = model.nodes.map((n, i) => ({
     id: n.id, x: s.coords[3 * i], y: s.coords[3 * i + 1], z: s.coords[3 * i + 2],
     fixed: (n.fixed ?? []).slice(),
-    displacement: Object.fromEntries(s.loadCaseIds.map((lc, l) => [lc, triple(a.displacements[l], i)])),
+    displacement: nodeDisplacementMap(s, a, i),
   }));
-  const reactions: ResultReaction[] = [];
-  model.nodes.forEach((n, i) => {
-    if (!n.fixed?.length) return;
-    reactions.push({ node: n.id, values: Object.fromEntries(s.loadCaseIds.map((lc, l) => [lc, triple(a.reactions[l], i)])) });
-  });
+  const reactions: ResultReaction[] = supportReactions(s, a);
   const maxUtilization = Math.max(0, ...members.map((m) => m.utilization));
 
   return {
@@ -86,7 +84,9 @@ export function analyseModel(model: TrussModel): AnalysisResult {
     members,
     nodes,
     reactions,
-    loadCases: model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}) })),
+    loadCases: model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}), ...(lc.selfWeight ? { selfWeight: lc.selfWeight } : {}) })),
+    ...(s.combinations.length ? { combinations: resultCombinations(s) } : {}),
+    reactionBalance: reactionBalance(s, a),
     variables: [],
     activeConstraints: [],
     history: [],

@@ -8,4 +8,4 @@ export { buildDesignProblem, designState, DesignSetupError, type DesignProblem, 
 export { nestedFormulation } from "./nested";
 export { simultaneousFormulation } from "./simultaneous";
 export { reanalyze } from "./verify";
-export { analyseModel, type AnalysisResult, type ResultReaction } from "./analysis-result";
+export { analyseModel, type AnalysisResult } from "./analysis-result";

@@ -131,3 +131,32 @@ describe("combinations: superposition of one factorization against separate anal
     for (const bal of reactionBalance(s, a)) expect(bal.residual, bal.id).toBeLessThan(1e-10);
   });
 });
+
+describe("analysis-only results carry combinations and reactions", () => {
+  it("every map lists cases and combinations; utilization reads the strength combination", async () => {
+    const { analyseModel } = await import("~/engine/design");
+    const model = parsed({
+      format: "strutwise.truss", version: 1, name: "Tollgate shelter (invented)",
+      units: { length: "mm", force: "N", mass: "t" }, dimension: 2,
+      materials: [{ id: "steel", E: 210000, density: 7.85e-9, allowableTension: 235, allowableCompression: 235 }],
+      nodes: [{ id: "A", x: 0, y: 0, fixed: ["x", "y"] }, { id: "B", x: 4000, y: 0, fixed: ["y"] }, { id: "C", x: 2000, y: 1500 }],
+      members: [
+        { id: "AB", start: "A", end: "B", material: "steel", area: 600 },
+        { id: "BC", start: "B", end: "C", material: "steel", area: 800 },
+        { id: "CA", start: "C", end: "A", material: "steel", area: 800 },
+      ],
+      loadCases: [{ id: "G", selfWeight: 1, loads: [] }, { id: "S", loads: [{ node: "C", fy: -20000 }] }],
+      combinations: [{ id: "ULS", use: "strength", factors: { G: 1.35, S: 1.5 } }, { id: "SLS", use: "service", factors: { G: 1, S: 1 } }],
+    });
+    const r = analyseModel(model);
+    expect(Object.keys(r.members[0].force)).toEqual(["G", "S", "ULS", "SLS"]);
+    expect(Object.keys(r.nodes[2].displacement)).toEqual(["G", "S", "ULS", "SLS"]);
+    expect(r.reactions.map((x) => x.node)).toEqual(["A", "B"]);
+    expect(Object.keys(r.reactions[0].values)).toEqual(["G", "S", "ULS", "SLS"]);
+    expect(r.members[1].governingCase).toBe("ULS");
+    expect(r.members[1].utilization).toBeCloseTo(Math.abs(r.members[1].stress.ULS) / 235, 12);
+    const uls = r.reactionBalance!.find((b) => b.id === "ULS")!;
+    expect(uls.residual).toBeLessThan(1e-12);
+    expect(uls.reactions[1]).toBeCloseTo(1.5 * 20000 + 1.35 * r.mass! * 9806.65, 6);
+  });
+});
