@@ -112,7 +112,8 @@ export const reviews = sqliteTable(
     id: text("id").primaryKey(),
     jobId: text("job_id").notNull().references(() => jobs.id),
     reviewerId: text("reviewer_id").notNull().references(() => user.id),
-    decision: text("decision", { enum: ["approved", "changes-requested"] }).notNull(),
+    // "reopened": an admin withdrew an approval, with the reason as comment (no CHECK in SQLite: no migration)
+    decision: text("decision", { enum: ["approved", "changes-requested", "reopened"] }).notNull(),
     comment: text("comment").notNull(),
     createdAt: createdAt(),
   },

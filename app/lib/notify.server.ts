@@ -274,5 +274,6 @@ export async function decisionMails(database: DbExecutor, review: DecisionFacts)
 export async function queueDecisionMail(database: DbExecutor, reviewId: string): Promise<void> {
   const [r] = await database.select().from(reviews).where(eq(reviews.id, reviewId)).limit(1);
   if (!r) throw new Error(`review ${reviewId} does not exist`);
-  await enqueueAll(database, await decisionMails(database, r));
+  if (r.decision === "reopened") return; // an admin's reopening is in the audit trail, not a checker's decision
+  await enqueueAll(database, await decisionMails(database, { ...r, decision: r.decision }));
 }

@@ -7,7 +7,7 @@ import { LowerBoundGauge } from "~/components/job/LowerBoundGauge";
 import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
 import { OutcomePanel } from "~/components/job/OutcomePanel";
 import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
-import { ReviewForm, ReviewHistory, type ReviewActionData } from "~/components/job/ReviewPanel";
+import { ReopenForm, ReviewForm, ReviewHistory, type ReviewActionData } from "~/components/job/ReviewPanel";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { latestDecision, reportLinkLabel } from "~/components/job/review-words";
 import { useJobFiles } from "~/components/job/useJobFiles";
@@ -26,7 +26,7 @@ import { models, projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import { assertPermission, requireJob } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
-import { createReview, listReviews } from "~/lib/auth/reviews.server";
+import { createReview, listReviews, reopenReview } from "~/lib/auth/reviews.server";
 import type { TrussResult } from "~/engine/design/result-types";
 import { notFound } from "~/lib/http.server";
 import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
@@ -124,6 +124,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       review: can(user.role, "review:job") && !own,
       own,
       rerun: can(user.role, "create:job"),
+      reopen: can(user.role, "manage:users"),
     },
   };
 }
@@ -159,6 +160,16 @@ export async function action({ request, params }: Route.ActionArgs) {
       return data<ReviewActionData>({ fieldErrors: { decision: "Choose approve or return with changes" } }, { status: 400 });
     try {
       await createReview({ jobId: params.jobId, reviewer: user, decision, comment: String(form.get("comment") ?? ""), request });
+      return data<ReviewActionData>({ ok: true });
+    } catch (e) {
+      const err = await errorOf(e);
+      const fieldErrors = Object.fromEntries((err.details ?? []).map((d) => [d.path, d.message]));
+      return data<ReviewActionData>({ error: err.details?.length ? undefined : err.error, fieldErrors }, { status: err.status });
+    }
+  }
+  if (intent === "reopen") {
+    try {
+      await reopenReview({ jobId: params.jobId, admin: user, reason: String(form.get("reason") ?? ""), request });
       return data<ReviewActionData>({ ok: true });
     } catch (e) {
       const err = await errorOf(e);
@@ -361,10 +372,25 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         <section className="card min-w-0 lg:col-span-2" aria-label="Review">
           <h2 className="mb-3 font-semibold">Review</h2>
           <ReviewHistory reviews={reviews} />
-          {job.status === "succeeded" && may.review && (
-            <div className="mt-4 border-t border-rule pt-4">
-              <ReviewForm canApprove={!OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "")} />
+          {current?.decision === "approved" ? (
+            <div className="mt-4 border-t border-rule pt-4 text-sm" data-testid="review-closed">
+              <p className="text-ink-soft">This run is approved and closed: a change needs a new run{may.reopen ? ", or reopening it below with a reason (recorded in the audit trail)" : " (or an admin reopening it with a reason)"}.</p>
+              {may.reopen && <ReopenForm />}
             </div>
+          ) : (
+            job.status === "succeeded" &&
+            may.review && (
+              <div className="mt-4 border-t border-rule pt-4">
+                <ReviewForm canApprove={!OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "")} />
+              </div>
+            )
+          )}
+          {current?.decision === "changes-requested" && may.rerun && (
+            <p className="mt-3 text-sm">
+              <Link to={`/models/${facts.modelId}?answers=${job.id}#queue`} className="btn btn-primary" data-testid="run-again-with-changes">
+                Run again with changes
+              </Link>
+            </p>
           )}
           {job.status === "succeeded" && may.own && !may.review && (
             <p className="mt-3 text-sm text-ink-muted">You submitted this job, so another checker reviews it (four-eyes rule).</p>

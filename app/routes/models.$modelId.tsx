@@ -1,3 +1,5 @@
+import { unitLabel } from "~/engine/truss/units";
+import type { Units } from "~/engine/truss/schema";
 import { eq } from "drizzle-orm";
 import { data, Link, redirect } from "react-router";
 import { toJobRows } from "~/components/job/job-rows.server";
@@ -152,6 +154,7 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
   const { model, project, file, defaults, jobs, may, uploaderName } = loaderData;
   const s = model.summary;
   const u = file?.units;
+  const stressUnit = u ? unitLabel("stress", u as Units) : "";
   const stability = s.stability;
   return (
     <div className="space-y-6">
@@ -205,7 +208,8 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
       {file ? <TrussViewer model={file.topology} title="Initial geometry" /> : <EmptyState title="The model file could not be read" />}
 
       {file && (
-        <div className="grid gap-6 lg:grid-cols-2">
+        // stacked, not side by side: five number columns need the full width (issue 16)
+        <div className="grid gap-6">
           <section className="card min-w-0" aria-label="Materials">
             <h2 className="mb-3 font-semibold">Materials</h2>
             <div className="overflow-x-auto">
@@ -213,10 +217,10 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
                 <thead>
                   <tr>
                     <th>material</th>
-                    <th className="num whitespace-nowrap">E ({u?.force}/{u?.length}²)</th>
+                    <th className="num whitespace-nowrap">modulus E ({stressUnit})</th>
                     <th className="num whitespace-nowrap">density ({u?.mass}/{u?.length}³)</th>
-                    <th className="num whitespace-nowrap">allowable tension</th>
-                    <th className="num whitespace-nowrap">allowable compression</th>
+                    <th className="num whitespace-nowrap">allowable tension ({stressUnit})</th>
+                    <th className="num whitespace-nowrap">allowable compression ({stressUnit})</th>
                   </tr>
                 </thead>
                 <tbody>

@@ -137,3 +137,26 @@ describe("decisions are never edited", () => {
     expect(rows.every((r) => r.actorId && r.entityType === "job")).toBe(true);
   });
 });
+
+describe("an approved run is closed (issue 16)", () => {
+  it("refuses a later decision, until an admin reopens it with a reason that reaches the audit trail", async () => {
+    const { reopenReview, listReviews } = await import("~/lib/auth/reviews.server");
+    const { listAudit } = await import("~/lib/auth/audit.server");
+    const { jobId } = await makeJob({ submittedBy: ids.engineer! });
+    expect((await post(jobId, "checker", { decision: "approved", comment: "Checked" })).status).toBe(201);
+    const flipped = await post(jobId, "checker2", { decision: "changes-requested", comment: "Second thoughts" });
+    expect(flipped.status).toBe(409);
+    expect((await flipped.json()).error).toMatch(/approved run is closed/);
+
+    const admin = { id: ids.admin!, role: "admin", email: "admin@harrowgate-structures.example", name: "admin" } as never;
+    const checker = { id: ids.checker!, role: "checker", email: "checker@harrowgate-structures.example", name: "checker" } as never;
+    await expect(reopenReview({ jobId, admin: checker, reason: "The client changed the snow load" })).rejects.toMatchObject({ status: 403 });
+    await expect(reopenReview({ jobId, admin, reason: "short" })).rejects.toMatchObject({ status: 400 });
+    const reopened = await reopenReview({ jobId, admin, reason: "The client changed the snow load" });
+    expect(reopened.decision).toBe("reopened");
+    expect((await listAudit({ action: "review.reopen" })).some((r) => r.entityId === jobId)).toBe(true);
+
+    expect((await post(jobId, "checker2", { decision: "changes-requested", comment: "Re-check with the new snow load" })).status).toBe(201);
+    expect((await listReviews(jobId)).map((r) => r.decision)).toEqual(["approved", "reopened", "changes-requested"]);
+  });
+});

@@ -35,7 +35,30 @@ export function ReviewHistory({ reviews }: { reviews: ReviewView[] }) {
 export interface ReviewActionData {
   ok?: boolean;
   error?: string;
-  fieldErrors?: { decision?: string; comment?: string };
+  fieldErrors?: { decision?: string; comment?: string; reason?: string };
+}
+
+/** An admin withdraws an approval; the reason goes to the decisions list and the audit trail. */
+export function ReopenForm() {
+  const fetcher = useFetcher<ReviewActionData>();
+  const errs = fetcher.data?.fieldErrors ?? {};
+  return (
+    <details className="mt-3">
+      <summary className="cursor-pointer text-ink-muted">Reopen this approved run (admin)</summary>
+      <fetcher.Form method="post" className="mt-2 space-y-2" data-testid="reopen-form">
+        <input type="hidden" name="intent" value="reopen" />
+        <label className="block">
+          <span className="field-label">Why it must be reviewed again</span>
+          <textarea name="reason" rows={2} maxLength={2000} className="field-input" required minLength={10} aria-invalid={!!errs.reason} />
+          {errs.reason && <p className="field-error">{errs.reason}</p>}
+        </label>
+        {fetcher.data?.error && <ErrorNote title="The run was not reopened">{fetcher.data.error}</ErrorNote>}
+        <button type="submit" className="btn btn-secondary" disabled={fetcher.state !== "idle"}>
+          Reopen for review
+        </button>
+      </fetcher.Form>
+    </details>
+  );
 }
 
 /** canApprove false: the run has no design to sign off (infeasible), it can only be returned. */

@@ -3,7 +3,9 @@
 import { createColumnHelper, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useMemo } from "react";
 import type { ResultMember, ResultNode, TrussResult } from "~/engine/design/result-types";
-import { formatNumber, formatPercent } from "~/lib/format";
+import { formatNumber, formatPercent, noiseFloor } from "~/lib/format";
+import { unitLabel } from "~/engine/truss/units";
+import type { Units } from "~/engine/truss/schema";
 import { DataTable } from "~/components/tables/DataTable";
 import { downloadText, fileSlug, toCsv } from "~/components/tables/csv";
 import { forceSense, UTIL_BANDS, utilBandIndex } from "~/components/viewer/palette";
@@ -39,7 +41,8 @@ function ResultTable<T extends { id: string }>(props: {
       label={props.label}
       data={props.data}
       columns={props.columns}
-      pageSize={25}
+      // a page holds a whole roof truss; bigger models page (the filter finds a member at once)
+      pageSize={200}
       filterPlaceholder={`Filter ${what}…`}
       initialSort={props.initialSort}
       getRowId={(r) => r.id}
@@ -80,7 +83,7 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
       }),
       col.accessor("area", { header: `area (${u.length}²)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${u.force})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${u.force}/${u.length}²)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${unitLabel("stress", u as Units)})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
       col.accessor("length", { header: `length (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
       ...(withK ? [col.accessor((m) => m.bucklingFactor ?? null, { id: "k", header: "buckling factor k", cell: (c) => formatNumber(c.getValue(), { sig: 3 }), meta: { numeric: true } })] : []),
@@ -110,22 +113,30 @@ export function NodeTable({ result, topology, fileName }: { result: TrussResult;
     return i ? Math.hypot(n.x - i.x, n.y - i.y, n.z - (i.z ?? 0)) : 0;
   };
   const anyMoved = result.nodes.some((n) => moved(n) > 0);
+  // rounding noise (1.2e-15 beside 12,000) prints as 0: a billionth of the column's largest value
+  const floors = useMemo(
+    () => ({
+      coord: noiseFloor(result.nodes.flatMap((n) => [n.x, n.y, n.z])),
+      disp: noiseFloor(result.nodes.flatMap((n) => n.displacement[lc] ?? [])),
+    }),
+    [result, lc],
+  );
   const col = createColumnHelper<ResultNode>();
   const columns = useMemo(
     () => [
       col.accessor("id", { header: "node" }),
-      col.accessor("x", { header: `x (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6 }), meta: { numeric: true } }),
-      col.accessor("y", { header: `y (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6 }), meta: { numeric: true } }),
-      col.accessor("z", { header: `z (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6 }), meta: { numeric: true } }),
-      ...(anyMoved ? [col.accessor((n) => moved(n), { id: "moved", header: `moved (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } })] : []),
+      col.accessor("x", { header: `x (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
+      col.accessor("y", { header: `y (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
+      col.accessor("z", { header: `z (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
+      ...(anyMoved ? [col.accessor((n) => moved(n), { id: "moved", header: `moved (${u.length})`, cell: (c) => formatNumber(c.getValue(), { zeroBelow: floors.coord }), meta: { numeric: true } })] : []),
       col.accessor((n) => (n.fixed ?? topology.nodes.get(n.id)?.fixed ?? []).join(", "), { id: "fixed", header: "restrained" }),
       ...([0, 1, 2] as const).map((k) =>
-        col.accessor((n) => n.displacement[lc]?.[k] ?? 0, { id: `u${"xyz"[k]}`, header: `u${"xyz"[k]} (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+        col.accessor((n) => n.displacement[lc]?.[k] ?? 0, { id: `u${"xyz"[k]}`, header: `u${"xyz"[k]} (${u.length})`, cell: (c) => formatNumber(c.getValue(), { zeroBelow: floors.disp }), meta: { numeric: true } }),
       ),
-      col.accessor((n) => Math.hypot(...(n.displacement[lc] ?? [0, 0, 0])), { id: "umag", header: `|u| (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor((n) => Math.hypot(...(n.displacement[lc] ?? [0, 0, 0])), { id: "umag", header: `|u| (${u.length})`, cell: (c) => formatNumber(c.getValue(), { zeroBelow: floors.disp }), meta: { numeric: true } }),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [lc, anyMoved, topology, u],
+    [lc, anyMoved, topology, u, floors],
   );
   const csv = () => {
     const t = nodesCsv(result, topology);

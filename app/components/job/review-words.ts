@@ -6,6 +6,7 @@ export type ReviewDecision = "approved" | "changes-requested";
 export function reviewStateWords(decision: string | null | undefined): string {
   if (decision === "approved") return "approved";
   if (decision === "changes-requested") return "changes requested";
+  if (decision === "reopened") return "reopened — waiting for review";
   return "not reviewed yet";
 }
 

@@ -1,7 +1,7 @@
 // What the job page hands its components: plain, serializable data from the loader.
 export interface ReviewView {
   id: string;
-  decision: "approved" | "changes-requested";
+  decision: "approved" | "changes-requested" | "reopened";
   comment: string;
   reviewerName: string;
   createdAt: string | number | Date;

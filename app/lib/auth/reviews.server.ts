@@ -10,6 +10,7 @@ import { auditLog, jobs, reviews, user } from "~/db/schema";
 import { jsonError } from "~/lib/http.server";
 import { mailInsert } from "~/lib/mail/outbox.server";
 import { decisionMails } from "~/lib/notify.server";
+import { formatDateTime } from "~/lib/format";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { auditValues } from "./audit.server";
 import { forbidden, type SessionUser } from "./authorize.server";
@@ -34,7 +35,7 @@ export interface Review {
   reviewerId: string;
   reviewerName: string;
   reviewerEmail: string;
-  decision: Decision;
+  decision: Decision | "reopened";
   comment: string;
   createdAt: string; // ISO
   supersededBy: string | null; // id of the later decision that replaced this one
@@ -66,6 +67,13 @@ export async function createReview(
   if (job.status !== "succeeded") {
     throw jsonError(409, `Only a succeeded job can be reviewed; job ${job.id} is ${job.status}`);
   }
+  const inForce = (await listReviews(job.id, database)).at(-1);
+  if (inForce?.decision === "approved") {
+    throw jsonError(
+      409,
+      `Job ${job.id} was approved by ${inForce.reviewerName || inForce.reviewerEmail} on ${formatDateTime(inForce.createdAt)}; an approved run is closed. Queue a new run for a change, or ask an admin to reopen it with a reason.`,
+    );
+  }
   if (parsed.data.decision === "approved" && OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "")) {
     throw jsonError(409, `Job ${job.id} ended ${job.outcome}: it has no design to approve; return it with comments instead`);
   }
@@ -85,6 +93,36 @@ export async function createReview(
   await database.batch([database.insert(reviews).values(decision), database.insert(auditLog).values(audited), ...mails.map((m) => mailInsert(database, m))]);
   const all = await listReviews(job.id, database);
   return all.find((r) => r.id === id)!;
+}
+
+export const reopenInputSchema = z.object({
+  reason: z.string().trim().min(10, "Give the reason for reopening in at least 10 characters").max(2000, "A reason has at most 2000 characters"),
+});
+
+/**
+ * An admin withdraws the approval of a run, with a reason: a "reopened" entry joins the
+ * append-only decisions (the approval stays on record) and the audit trail; the run then
+ * waits for a new decision. Throws 403 (not an admin), 404, 409 (not approved), 400 (no reason).
+ */
+export async function reopenReview(
+  input: { jobId: string; admin: SessionUser; reason: string; request?: Request },
+  database: Db = defaultDb(),
+): Promise<Review> {
+  if (!can(input.admin.role, "manage:users")) throw forbidden(`Reopening an approved run is for admins; your role is ${input.admin.role}`);
+  const parsed = reopenInputSchema.safeParse({ reason: input.reason });
+  if (!parsed.success) throw jsonError(400, "The reason is missing", parsed.error.issues.map((i) => ({ path: i.path.join("."), message: i.message })));
+  const job = await database.query.jobs.findFirst({ where: eq(jobs.id, input.jobId) });
+  if (!job) throw jsonError(404, `Job ${input.jobId} not found`);
+  const inForce = (await listReviews(job.id, database)).at(-1);
+  if (inForce?.decision !== "approved") throw jsonError(409, `Job ${job.id} is not approved, so there is nothing to reopen`);
+  const id = randomUUID();
+  const audited = await auditValues({ request: input.request, actor: input.admin, action: "review.reopen", entityType: "job", entityId: job.id, detail: { reviewId: id, reopens: inForce.id, reason: parsed.data.reason } });
+  // the reopening and its audit row together, or neither
+  await database.batch([
+    database.insert(reviews).values({ id, jobId: job.id, reviewerId: input.admin.id, decision: "reopened", comment: parsed.data.reason }),
+    database.insert(auditLog).values(audited),
+  ]);
+  return (await listReviews(job.id, database)).find((r) => r.id === id)!;
 }
 
 /** Every decision on a job, oldest first; the last one is in force. */

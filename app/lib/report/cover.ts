@@ -5,6 +5,7 @@ import { formatDateTime, formatNumber } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, BAD_WASH, BRASS, BRASS_WASH, INK, INK_MUTED, INK_SOFT, OK, OK_WASH, WARN, WARN_WASH } from "./palette";
 import { reviewState, type ReportData } from "./report-data";
+import { reviewStateWords } from "~/components/job/review-words";
 
 const STATUS_WORDS: Record<string, string> = {
   optimal: "optimal: the solver met its optimality and feasibility tolerances",
@@ -88,9 +89,9 @@ export function coverPage(w: ReportWriter, data: ReportData) {
     w.paragraph("Decisions are kept in the order they were made; the latest one sets the state of this report.", { size: 8, color: INK_MUTED });
     // a list, not a table: a checker's comment is part of the record and is never cut short
     for (const r of data.reviews) {
-      const head = `${formatDateTime(r.at, { seconds: true })} · ${r.reviewer} · ${r.decision === "approved" ? "approved" : "changes requested"}`;
+      const head = `${formatDateTime(r.at, { seconds: true })} · ${r.reviewer} · ${reviewStateWords(r.decision)}`;
       w.ensure(14 + w.paragraphHeight(r.comment || "(no comment)", { size: 8.5, width: w.width - 14 }));
-      w.line("sans-semibold", 8.5, head, w.left, w.y, { color: r.decision === "approved" ? OK : WARN, width: w.width });
+      w.line("sans-semibold", 8.5, head, w.left, w.y, { color: r.decision === "approved" ? OK : r.decision === "reopened" ? INK_MUTED : WARN, width: w.width });
       w.y += 12;
       w.paragraph(r.comment || "(no comment)", { size: 8.5, x: w.left + 14, gap: 6, color: INK_SOFT });
     }

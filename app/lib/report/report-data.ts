@@ -30,7 +30,7 @@ export interface ModelFile {
 
 export interface ReportReview {
   id: string;
-  decision: "approved" | "changes-requested";
+  decision: "approved" | "changes-requested" | "reopened";
   comment: string;
   reviewer: string; // name, or e-mail when the name is empty
   at: Date;
@@ -61,6 +61,7 @@ export type ReviewState =
 
 export function reviewState(reviews: ReportReview[]): ReviewState {
   const latest = reviews[reviews.length - 1];
-  if (!latest) return { kind: "not-reviewed" };
+  // a reopened approval is withdrawn: the run waits for a new decision
+  if (!latest || latest.decision === "reopened") return { kind: "not-reviewed" };
   return latest.decision === "approved" ? { kind: "approved", review: latest } : { kind: "changes-requested", review: latest };
 }
