@@ -1,9 +1,9 @@
-// `npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json]`
+// `npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--starts N]`
 // Result JSON on stdout (or into --out), progress on stderr.
 // Exit codes: 0 optimal, 2 invalid input, 3 infeasible, 4 not converged, 1 anything else.
 import fs from "node:fs";
 
-const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--quiet]";
+const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--starts N] [--quiet]";
 const EXIT = { optimal: 0, failed: 1, infeasible: 3, "not-converged": 4, analysed: 0 } as const;
 
 function fail(code: number, lines: string[]): never {
@@ -12,7 +12,7 @@ function fail(code: number, lines: string[]): never {
 }
 
 function parseArgs(argv: string[]) {
-  const out: { file?: string; formulation?: "nested" | "simultaneous"; out?: string; maxIterations?: number; quiet: boolean } = { quiet: false };
+  const out: { file?: string; formulation?: "nested" | "simultaneous"; out?: string; maxIterations?: number; starts?: number; quiet: boolean } = { quiet: false };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === "--formulation") {
@@ -26,6 +26,10 @@ function parseArgs(argv: string[]) {
       const v = Number(argv[++i]);
       if (!Number.isInteger(v) || v < 1) fail(2, [`--max-iterations must be a positive whole number, got "${argv[i] ?? ""}"`, USAGE]);
       out.maxIterations = v;
+    } else if (a === "--starts") {
+      const v = Number(argv[++i]);
+      if (!Number.isInteger(v) || v < 1 || v > 12) fail(2, [`--starts must be a whole number from 1 to 12, got "${argv[i] ?? ""}"`, USAGE]);
+      out.starts = v;
     } else if (a === "--quiet") out.quiet = true;
     else if (a === "--help" || a === "-h") fail(0, [USAGE]);
     else if (a.startsWith("--")) fail(2, [`unknown option ${a}`, USAGE]);
@@ -41,7 +45,7 @@ async function main() {
   // the engine loads only once the arguments are known good: `--help` and a usage error answer
   // without it (the precompiled bundle keeps it in a chunk of its own)
   const { parseModel } = await import("../app/engine/truss");
-  const { optimizeModel, DesignSetupError } = await import("../app/engine/design");
+  const { optimizeModel, plannedStarts, DesignSetupError } = await import("../app/engine/design");
   const { attachLowerBound, loadHighsSolver } = await import("../app/engine/lp");
   let text: string;
   try {
@@ -64,22 +68,26 @@ async function main() {
   const objUnit = (parsed.model.design.objective ?? "mass") === "mass" ? units.mass : `${units.force}·${units.length}`;
   let result;
   try {
-    result = optimizeModel(parsed.model, {
-      formulation: args.formulation,
-      maxIterations: args.maxIterations,
-      onProgress: args.quiet
-        ? undefined
-        : (p) => process.stderr.write(
-            `iteration ${String(p.iteration).padStart(4)}  objective ${p.objective.toPrecision(7)} ${objUnit}  violation ${p.maxViolation.toExponential(2)}  KKT ${p.kktResidual.toExponential(2)}\n`,
-          ),
-    });
+    const options = { formulation: args.formulation, maxIterations: args.maxIterations, starts: args.starts };
+    const onProgress = args.quiet
+      ? undefined
+      : (p: { iteration: number; objective: number; maxViolation: number; kktResidual: number }) => process.stderr.write(
+          `iteration ${String(p.iteration).padStart(4)}  objective ${p.objective.toPrecision(7)} ${objUnit}  violation ${p.maxViolation.toExponential(2)}  KKT ${p.kktResidual.toExponential(2)}\n`,
+        );
+    // several starting designs, in parallel solver threads for larger models, as in the worker (multi-start.ts)
+    const starts = plannedStarts(parsed.model, options);
+    if (starts > 1) {
+      if (!args.quiet) process.stderr.write(`running ${starts} starting designs; progress of your start:\n`);
+      const { runStarts } = await import("../workers/parallel-starts");
+      result = await runStarts(text, parsed.model, options, starts, onProgress);
+    } else result = optimizeModel(parsed.model, { ...options, onProgress });
   } catch (e) {
     if (e instanceof DesignSetupError) fail(2, [`${args.file}: ${e.message}`]);
     const err = e as Error;
     fail(1, [`optimization could not run: ${err.message}`]);
   }
   // beside the result, the least-mass certificate (or the reason there is none)
-  result = attachLowerBound(parsed.model, result, { formulation: args.formulation, maxIterations: args.maxIterations }, await loadHighsSolver());
+  result = attachLowerBound(parsed.model, result, { formulation: args.formulation, maxIterations: args.maxIterations, starts: args.starts }, await loadHighsSolver());
   const json2 = JSON.stringify(result, null, 2);
   if (args.out) fs.writeFileSync(args.out, json2 + "\n");
   else process.stdout.write(json2 + "\n");

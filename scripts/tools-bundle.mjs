@@ -15,6 +15,7 @@ export const TOOL_ENTRIES = {
   optimize: "scripts/optimize.ts",
   analyze: "scripts/analyze.ts",
   "solve-task": "workers/solve-task.ts",
+  "start-task": "workers/start-task.ts",
 };
 
 /** Files that change every bundle without being one of its inputs. */

@@ -3,11 +3,12 @@
 // through the MessagePort the caller hands over. Cancel and the time limit are the caller's
 // AbortSignal, which makes piscina end this thread, so the task itself never polls.
 import type { MessagePort } from "node:worker_threads";
-import { analyseModel, optimizeModel, summarizeResult } from "~/engine/design";
+import { analyseModel, optimizeModel, plannedStarts, summarizeResult } from "~/engine/design";
 import type { JobOptions } from "~/engine/design/options";
 import type { JobSummary } from "~/engine/design/result-types";
 import { parseModel } from "~/engine/truss";
 import { attachLowerBound, loadHighsSolver } from "~/engine/lp";
+import { runStarts } from "./parallel-starts";
 
 export interface SolveTaskInput {
   jobId: string;
@@ -63,19 +64,21 @@ export default async function solveTask(input: SolveTaskInput): Promise<SolveTas
     // the LP solver loads once per thread (the first run waits for it, later runs reuse it)
     const lpSolver = await loadHighsSolver();
     const stop = input.stopFlag ? new Int32Array(input.stopFlag) : null;
-    const optimized = optimizeModel(parsed.model, {
-      ...input.options,
-      stopRequested: stop ? () => Atomics.load(stop, 0) === 1 : undefined,
-      onProgress: port
-        ? (p: Progress) =>
-            port.postMessage({
-              iteration: p.iteration,
-              objective: p.objective ?? p.f ?? Number.NaN,
-              maxViolation: p.maxViolation,
-              kktResidual: p.kktResidual,
-            })
-        : undefined,
-    });
+    const onProgress = port
+      ? (p: Progress) =>
+          port.postMessage({
+            iteration: p.iteration,
+            objective: p.objective ?? p.f ?? Number.NaN,
+            maxViolation: p.maxViolation,
+            kktResidual: p.kktResidual,
+          })
+      : undefined;
+    const options = { ...input.options, stopRequested: stop ? () => Atomics.load(stop, 0) === 1 : undefined };
+    // several starting designs run in solver threads of their own (multi-start.ts)
+    const starts = plannedStarts(parsed.model, input.options);
+    const optimized = starts > 1
+      ? await runStarts(input.modelText, parsed.model, options, starts, onProgress, input.stopFlag)
+      : optimizeModel(parsed.model, { ...options, onProgress });
     // beside every result, the least-mass certificate (or the reason there is none)
     const result = attachLowerBound(parsed.model, optimized, input.options, lpSolver);
     return {

@@ -9,3 +9,4 @@ export { nestedFormulation } from "./nested";
 export { simultaneousFormulation } from "./simultaneous";
 export { reanalyze } from "./verify";
 export { analyseModel, type AnalysisResult } from "./analysis-result";
+export { optimizeWithStarts, runStart, combineStarts, startCount, plannedStarts, startingDesigns, DEFAULT_STARTS } from "./multi-start";

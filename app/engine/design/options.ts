@@ -15,6 +15,8 @@ export const jobOptionsSchema = z
     /** switch the stress / buckling checks on or off against the model's design block */
     stress: z.boolean().optional(),
     buckling: z.boolean().optional(),
+    /** starting designs to run, the best kept (multi-start.ts); default 6 up to 300 variables, else 1 */
+    starts: z.number().int().min(1).max(12).optional(),
   })
   .strict();
 

@@ -159,6 +159,8 @@ export interface TrussResult {
   lowerBound?: LowerBound;
   /** why a result carries no lowerBound, in words (compliance without a volume limit, no stress checks, ...) */
   lowerBoundWithheld?: string;
+  /** a run from several starting designs (multi-start.ts): which reached the design above */
+  starts?: StartsSummary;
 }
 
 export interface LowerBound {
@@ -167,6 +169,17 @@ export interface LowerBound {
   basis: string; // what the bound assumes, in words
   /** "final": taken at the final node positions of a shape run, valid for that geometry only */
   geometry?: "model" | "final";
+}
+
+export interface StartsSummary {
+  tried: number;
+  /** starts that ended, proved optimal, within 1e-4 of this design's objective */
+  reachedBest: number;
+  /** label of the start this design came from */
+  best: string;
+  /** e.g. "4 of 6 starts reached this design; the others stopped at 5,076.7 lb." */
+  summary: string;
+  runs: { label: string; status: SolverStatus; objective: number; iterations: number }[];
 }
 
 export interface JobSummary {

@@ -70,10 +70,14 @@ export interface PreparedRun {
   objectiveScale: number;
 }
 
-/** Builds the design problem and the solver problem without solving (benchmarks reuse it). */
-export function prepareRun(model: TrussModel | DesignModel, options: OptimizeOptions = {}): PreparedRun {
+/**
+ * Builds the design problem and the solver problem without solving (benchmarks reuse it);
+ * `start` replaces the model's starting design (scaled design vector, multi-start.ts).
+ */
+export function prepareRun(model: TrussModel | DesignModel, options: OptimizeOptions = {}, start?: Float64Array): PreparedRun {
   const structure = buildStructure(model as TrussModel);
-  const design = buildDesignProblem(model, structure, options);
+  const built = buildDesignProblem(model, structure, options);
+  const design = start ? { ...built, x0: start } : built;
   const f = design.formulation === "nested" ? nestedFormulation(design) : simultaneousFormulation(design);
   const n = f.problem.n;
   const objectiveScale = f.objectiveScale;

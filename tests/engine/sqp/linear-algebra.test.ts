@@ -3,6 +3,8 @@
 import { describe, expect, it } from "vitest";
 import { DenseBfgs, GrowingCholesky, LimitedBfgs, solveQp } from "~/engine/sqp";
 import type { HessianApprox } from "~/engine/sqp";
+import { leastSquaresMultipliers } from "~/engine/sqp/least-squares-multipliers";
+import type { QpRow } from "~/engine/sqp/rows";
 
 function lcg(seed: number) {
   let s = seed >>> 0;
@@ -177,5 +179,55 @@ describe("solveQp (dual active set) on closed-form problems", () => {
     // closed form: s3 = 0.5 (row active), s1 + s2 = 0.5, s2 - s1 = 1 -> s1 = 0 at its bound, s2 = 0.5
     expect(cold.s[2]).toBeCloseTo(0.5, 12);
     expect(Array.from(warm.s).map((v) => v.toFixed(12))).toEqual(Array.from(cold.s).map((v) => v.toFixed(12)));
+  });
+});
+
+describe("leastSquaresMultipliers (Householder QR of A', ml-matrix)", () => {
+  const dense = (...v: number[]): QpRow => ({ idx: null, val: Float64Array.from(v), extra: 0 });
+  const unit = (j: number, sign: number): QpRow => ({ idx: Int32Array.of(j), val: Float64Array.of(sign), extra: 0 });
+
+  it("solves stationarity exactly when g lies in the rows' span", () => {
+    // g = -(2 a1 + 3 a2): the multipliers are (2, 3) (closed form)
+    const a1 = [1, 0, 1], a2 = [0, 1, 1];
+    const g = Float64Array.from([0, 1, 2].map((j) => -(2 * a1[j] + 3 * a2[j])));
+    const lam = leastSquaresMultipliers(g, [dense(...a1), dense(...a2)], 3);
+    expect(lam[0]).toBeCloseTo(2, 12);
+    expect(lam[1]).toBeCloseTo(3, 12);
+  });
+
+  it("gives a repeated row and a multiple of a row multiplier 0 instead of failing", () => {
+    const a = [1, 2, 0];
+    const g = Float64Array.of(-1, -2, 0);
+    const lam = leastSquaresMultipliers(g, [dense(...a), dense(...a), dense(2, 4, 0)], 3);
+    expect(Array.from(lam)).toEqual([expect.closeTo(1, 12), 0, 0]);
+  });
+
+  it("more rows than variables: the rows after a spanning set get multiplier 0", () => {
+    // in 2D, rows (1,0), (1,0) again, (0,1), (1,1): the second and the fourth are dependent
+    const g = Float64Array.of(-3, -4);
+    const lam = leastSquaresMultipliers(g, [dense(1, 0), dense(1, 0), dense(0, 1), dense(1, 1)], 2);
+    expect(Array.from(lam)).toEqual([expect.closeTo(3, 12), 0, expect.closeTo(4, 12), 0]);
+  });
+
+  it("a bound row takes its variable's residual exactly, the rest by least squares", () => {
+    // min ||g + l1 a + nu e_0||: nu fits component 0, l1 = -(g1 + g2)/2 over the free variables
+    const g = Float64Array.of(5, 1, 3);
+    const lam = leastSquaresMultipliers(g, [dense(1, 1, 1), unit(0, -1)], 3);
+    expect(lam[0]).toBeCloseTo(-2, 12);
+    // stationarity in x0: g0 + l1 - nu = 0
+    expect(lam[1]).toBeCloseTo(5 - 2, 12);
+  });
+
+  it("matches the normal equations on a well-conditioned random system (reconstruction check)", () => {
+    let seed = 7;
+    const rnd = () => ((seed = (seed * 16807) % 2147483647) / 2147483647) * 2 - 1;
+    const n = 12, m = 5;
+    const rows = Array.from({ length: m }, () => dense(...Array.from({ length: n }, rnd)));
+    const g = Float64Array.from({ length: n }, rnd);
+    const lam = leastSquaresMultipliers(g, rows, n);
+    // optimality of least squares: A (g + A' lam) = 0
+    const r = Float64Array.from(g);
+    rows.forEach((row, i) => row.val.forEach((v, j) => (r[j] += lam[i] * v)));
+    for (const row of rows) expect(Math.abs(row.val.reduce((s, v, j) => s + v * r[j], 0))).toBeLessThan(1e-12);
   });
 });
