@@ -71,7 +71,9 @@ export async function runStartsInThreads(
   void _p;
   void _s;
   const data: StartThreadData = { modelText, options: plain, count, stopFlag };
-  const results: { label: string; result: TrussResult }[] = new Array(count);
+  const results: { label: string; result: TrussResult }[] = [];
+  const stop = stopFlag ? new Int32Array(stopFlag) : null;
+  const stopped = () => stop !== null && Atomics.load(stop, 0) === 1;
   const workers: Worker[] = [];
   let next = 0;
   try {
@@ -79,26 +81,30 @@ export async function runStartsInThreads(
       let done = 0;
       const fail = (e: Error) => reject(e);
       signal?.addEventListener("abort", () => fail(Object.assign(new Error("The optimization was cancelled."), { name: "AbortError" })), { once: true });
+      // after a stop request no further start begins, and once the engineer's own start has
+      // ended the result is made of the starts that ended (the others' threads are ended)
+      const finished = () => (stopped() ? results[0] !== undefined : done === count);
       for (let t = 0; t < Math.max(1, threads); t++) {
         // the same heap cap as the thread that starts them (the worker's per-job memory limit)
         const heap = resourceLimits.maxOldGenerationSizeMb;
         const w = new Worker(thread.entry, { eval: thread.eval, workerData: data, ...(heap ? { resourceLimits: { maxOldGenerationSizeMb: heap } } : {}) });
         workers.push(w);
         const give = () => {
-          if (next < count) w.postMessage(next++);
+          if (next < count && !stopped()) w.postMessage(next++);
         };
         w.on("message", (m: StartThreadMessage) => {
           if (m.kind === "progress") onProgress?.(m.progress);
           else if (m.kind === "error") fail(new Error(`start ${m.index + 1} of ${count} failed: ${m.message}`));
           else {
             results[m.index] = { label: m.label, result: JSON.parse(m.resultJson) as TrussResult };
-            if (++done === count) resolve();
-            else give();
+            done++;
+            give();
+            if (finished()) resolve();
           }
         });
         w.on("error", fail);
         w.on("exit", (code) => {
-          if (code !== 0 && done < count) fail(new Error(`a solver thread stopped (exit code ${code})`));
+          if (code !== 0 && !finished()) fail(new Error(`a solver thread stopped (exit code ${code})`));
         });
         give();
       }
@@ -106,5 +112,5 @@ export async function runStartsInThreads(
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }
-  return combineStarts(results, Date.now() - t0);
+  return combineStarts(results.filter((r) => r !== undefined), Date.now() - t0);
 }

@@ -206,6 +206,10 @@ export function optimizeWithStarts(model: TrussModel | DesignModel, options: Opt
   const first = prepareRun(model, options);
   const count = startCount(first.design, options);
   const runs: { label: string; result: TrussResult }[] = [];
-  for (let k = 0; k < count; k++) runs.push(runStart(model, options, k, count, k === 0 ? first : undefined));
+  for (let k = 0; k < count; k++) {
+    // after a stop request no further start begins (the one under way stopped at an iteration)
+    if (k > 0 && options.stopRequested?.()) break;
+    runs.push(runStart(model, options, k, count, k === 0 ? first : undefined));
+  }
   return combineStarts(runs, Date.now() - t0);
 }
