@@ -15,7 +15,7 @@ import type { Permission } from "~/lib/auth/permissions";
 import { jsonError } from "~/lib/http.server";
 import { seesEveryProject, type Caller } from "./project-scope.server";
 
-export { assertPermission, getUser, requirePermission, requireUser, type SessionUser } from "~/lib/auth/authorize.server";
+export { assertPermission, forbidden, getUser, requirePermission, requireUser, type SessionUser } from "~/lib/auth/authorize.server";
 
 export { memberScope, seesEveryProject, type Caller } from "./project-scope.server";
 

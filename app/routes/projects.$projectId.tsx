@@ -10,7 +10,9 @@ import { ModelUploadWithSections } from "~/components/catalogues/ModelUploadWith
 import { listCatalogues, sectionsFromUploadForm } from "~/lib/catalogues/catalogues.server";
 import { db } from "~/db/client.server";
 import { projects, user as users } from "~/db/schema";
-import { requireProject } from "~/lib/access.server";
+import { forbidden, managesMembers, requireProject } from "~/lib/access.server";
+import { addMember, listMembers, removeMember } from "~/lib/members.server";
+import { MembersPanel } from "~/components/project/MembersPanel";
 import { can } from "~/lib/auth/permissions";
 import { config } from "~/lib/config.server";
 import { notFound } from "~/lib/http.server";
@@ -32,7 +34,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     .where(eq(projects.id, params.projectId))
     .limit(1);
   if (!row) notFound(`Project ${params.projectId}`);
-  const [models, jobs] = await Promise.all([listModels({ projectId: row.project.id }), listJobs({ projectId: row.project.id, limit: 25 })]);
+  const [models, jobs, members] = await Promise.all([
+    listModels({ projectId: row.project.id }),
+    listJobs({ projectId: row.project.id, limit: 25 }),
+    listMembers(row.project.id),
+  ]);
   return {
     project: { ...row.project, createdAt: row.project.createdAt.toISOString(), createdByName: row.createdByName },
     models: models.map((m) => ({ id: m.id, name: m.name, fileName: m.fileName, sha256: m.sha256, sizeBytes: m.sizeBytes, dimension: m.dimension, nodeCount: m.nodeCount, memberCount: m.memberCount, hasDesign: m.hasDesign, createdAt: m.createdAt, warnings: m.warnings.length })),
@@ -40,6 +46,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     moreJobs: jobs.nextCursor !== null,
     uploadLimit: config().UPLOAD_LIMIT_BYTES,
     mayUpload: can(user.role, "create:model"),
+    members,
+    mayManageMembers: managesMembers(user, row.project),
     catalogues: can(user.role, "create:model") ? (await listCatalogues()).map((c) => ({ id: c.id, name: c.name, sectionCount: c.sectionCount, families: c.families })) : [],
   };
 }
@@ -48,6 +56,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const FRAMING_ALLOWANCE = 64 * 1024;
 
 export async function action({ request, params }: Route.ActionArgs) {
+  // the members panel posts a plain form; an upload is multipart
+  if (/application\/x-www-form-urlencoded/i.test(request.headers.get("content-type") ?? "")) return membersAction(request, params.projectId);
   const { user } = await requireProject(request, params.projectId, "create:model");
   const limit = config().UPLOAD_LIMIT_BYTES;
   const declared = Number(request.headers.get("content-length") ?? "0");
@@ -69,12 +79,34 @@ export async function action({ request, params }: Route.ActionArgs) {
   throw redirect(`/models/${m.id}`);
 }
 
+async function membersAction(request: Request, projectId: string) {
+  const { user, project } = await requireProject(request, projectId, "read:project");
+  if (!managesMembers(user, project)) throw forbidden("Only the project's creator or an admin adds and removes members");
+  const form = await request.formData();
+  const intent = form.get("intent");
+  try {
+    if (intent === "add-member") {
+      const m = await addMember({ projectId: project.id, email: String(form.get("email") ?? ""), by: user, request });
+      return { members: { ok: true, message: `${m.email} is a member now` } };
+    }
+    if (intent === "remove-member") {
+      await removeMember({ projectId: project.id, userId: String(form.get("userId") ?? ""), by: user, request });
+      return { members: { ok: true, message: "Removed from the project" } };
+    }
+  } catch (e) {
+    if (!(e instanceof Response)) throw e;
+    const body = (await e.json().catch(() => null)) as { error?: string } | null;
+    return data({ members: { ok: false, message: body?.error ?? "The member list was not changed" } }, { status: e.status });
+  }
+  return data({ members: { ok: false, message: "Unknown request" } }, { status: 400 });
+}
+
 export function ErrorBoundary() {
   return <RouteError what="project" />;
 }
 
 export default function ProjectPage({ loaderData }: Route.ComponentProps) {
-  const { project, models, jobs, uploadLimit, mayUpload, moreJobs, catalogues } = loaderData;
+  const { project, models, jobs, uploadLimit, mayUpload, moreJobs, catalogues, members, mayManageMembers } = loaderData;
   return (
     <div className="space-y-6">
       <header>
@@ -165,6 +197,8 @@ export default function ProjectPage({ loaderData }: Route.ComponentProps) {
         </div>
         <JobsList rows={jobs} showProject={false} pollUrl={`/api/jobs?projectId=${project.id}&limit=25`} empty={<EmptyState title="No jobs yet">Open a model and queue a run.</EmptyState>} />
       </section>
+
+      <MembersPanel members={members} mayManage={mayManageMembers} />
     </div>
   );
 }
