@@ -1,7 +1,9 @@
 import { Form, data, useActionData, useNavigation } from "react-router";
 import { createApiKey, listApiKeys, revokeApiKey } from "~/lib/auth/api-keys.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
-import { apiKeySchema, fieldErrors, formObject } from "~/lib/auth/forms";
+import { callAuthEndpoint, cookieHeaders } from "~/lib/auth/auth.server";
+import { apiKeySchema, fieldErrors, formObject, passwordChangeSchema } from "~/lib/auth/forms";
+import { PasswordChange, type PasswordResult } from "~/components/account/PasswordChange";
 import { ROLE_LABELS } from "~/lib/auth/permissions";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/account";
@@ -43,7 +45,22 @@ export async function action({ request }: Route.ActionArgs) {
       { status: ok ? 200 : 404 },
     );
   }
+  if (values.intent === "password") return changePassword(request, values);
   return data({ newKey: null, message: "Unknown request", errors: {} as Record<string, string> }, { status: 400 });
+}
+
+async function changePassword(request: Request, values: Record<string, string>) {
+  const parsed = passwordChangeSchema.safeParse(values);
+  const reply = (password: PasswordResult, status = 200, headers?: Headers) =>
+    data({ newKey: null, message: "", errors: {} as Record<string, string>, password }, { status, headers });
+  if (!parsed.success) return reply({ ok: false, message: "", errors: fieldErrors(parsed.error) }, 400);
+  // better-auth checks the current password and, with revokeOtherSessions, ends every other
+  // session and hands this browser a fresh one
+  const res = await callAuthEndpoint(request, "/change-password", { ...parsed.data, revokeOtherSessions: true });
+  if (res.status === 200) return reply({ ok: true, message: "Your password is changed; your other sessions are signed out.", errors: {} }, 200, cookieHeaders(res.setCookies));
+  if (res.data?.code === "INVALID_PASSWORD") return reply({ ok: false, message: "", errors: { currentPassword: "That is not your current password" } }, 400);
+  if (String(res.data?.code ?? "").includes("PASSWORD")) return reply({ ok: false, message: "", errors: { newPassword: "Choose a password of 10 to 128 characters" } }, 400);
+  return reply({ ok: false, message: "The password was not changed. Try again.", errors: {} }, res.status === 429 ? 429 : 400);
 }
 
 const when = (iso: string | null) => (iso ? iso.replace("T", " ").slice(0, 16) : "—");
@@ -115,6 +132,7 @@ export default function Account({ loaderData }: Route.ComponentProps) {
           </table>
         )}
       </div>
+      <PasswordChange result={result && "password" in result ? (result.password as PasswordResult) : undefined} />
     </section>
   );
 }

@@ -1,7 +1,7 @@
 import { Form, Link, data, redirect, useActionData, useNavigation } from "react-router";
 import { callAuthEndpoint } from "~/lib/auth/auth.server";
 import { getUser } from "~/lib/auth/authorize.server";
-import { signUpRefusal } from "~/lib/auth/sign-up-policy.server";
+import { INVITATION_HEADER, signUpRefusal } from "~/lib/auth/sign-up-policy.server";
 import { signUpMode } from "~/lib/config.server";
 import { fieldErrors, formObject, signUpSchema, type FieldErrors } from "~/lib/auth/forms";
 import { TextField } from "~/lib/auth/text-field";
@@ -16,6 +16,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const mode = signUpMode();
   return {
     email: new URL(request.url).searchParams.get("email") ?? "",
+    invitation: new URL(request.url).searchParams.get("invitation") ?? "",
     rule:
       mode.kind === "open"
         ? "Anyone may create an account here."
@@ -30,10 +31,11 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = signUpSchema.safeParse(values);
   const keep = { name: values.name ?? "", email: values.email ?? "" };
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error), ...keep }, { status: 400 });
-  const refusal = await signUpRefusal(parsed.data.email);
+  const invitation = values.invitation ?? "";
+  const refusal = await signUpRefusal(parsed.data.email, undefined, invitation);
   if (refusal) return data({ errors: { email: refusal } as FieldErrors, ...keep }, { status: 403 });
   // after the link, the new session lands on the desk's front page
-  const res = await callAuthEndpoint(request, "/sign-up/email", { ...parsed.data, callbackURL: "/?verified=1" });
+  const res = await callAuthEndpoint(request, "/sign-up/email", { ...parsed.data, callbackURL: "/?verified=1" }, { [INVITATION_HEADER]: invitation });
   if (res.status === 200) return data({ errors: {} as FieldErrors, ...keep, sent: true });
   const errors: FieldErrors = {};
   const code = String(res.data?.code ?? "");
@@ -71,6 +73,7 @@ export default function SignUp({ loaderData }: Route.ComponentProps) {
       </p>
       <Form method="post" className="card mt-6 space-y-4" noValidate>
         {errors.form && <p role="alert" className="rounded-md bg-bad-wash px-3 py-2 text-sm text-bad">{errors.form}</p>}
+        <input type="hidden" name="invitation" value={loaderData.invitation} />
         <TextField label="Name" name="name" autoComplete="name" defaultValue={result?.name} error={errors.name} autoFocus required />
         <TextField label="E-mail" name="email" type="email" autoComplete="email" defaultValue={result?.email || loaderData.email} error={errors.email} required />
         <TextField label="Password" name="password" type="password" autoComplete="new-password" error={errors.password} hint="At least 10 characters." required />

@@ -183,7 +183,9 @@ describe("admin: invitations and role changes", () => {
     const { listAudit } = await import("~/lib/auth/audit.server");
     await act({ intent: "invite", email: "new.engineer@tarrowkeel-test.example", role: "engineer" });
     const { callAuthEndpoint } = await import("~/lib/auth/auth.server");
-    const signUp = await callAuthEndpoint(new Request("http://localhost/"), "/sign-up/email", { email: "new.engineer@tarrowkeel-test.example", password: PASSWORD, name: "New Engineer" });
+    const { INVITATION_HEADER, invitationToken, openInvitation } = await import("~/lib/auth/sign-up-policy.server");
+    const inv = (await openInvitation("new.engineer@tarrowkeel-test.example"))!;
+    const signUp = await callAuthEndpoint(new Request("http://localhost/"), "/sign-up/email", { email: "new.engineer@tarrowkeel-test.example", password: PASSWORD, name: "New Engineer" }, { [INVITATION_HEADER]: invitationToken(inv) });
     expect(signUp.status).toBe(200);
     // not yet: an unconfirmed account is a viewer that can do nothing
     expect((await ctx.db.query.user.findFirst({ where: eq(user.email, "new.engineer@tarrowkeel-test.example") }))?.role).toBe("viewer");

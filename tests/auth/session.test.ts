@@ -71,12 +71,14 @@ describe("sign-up roles", () => {
   it("an invitation gives the invited role once the address is confirmed, and is marked accepted", async () => {
     const { callAuthEndpoint } = await import("~/lib/auth/auth.server");
     const { user, invitations } = await import("~/db/schema");
-    await ctx.db.insert(invitations).values({ id: "inv-1", email: "new.checker@kestrelspan.example", role: "checker" });
-    const res = await callAuthEndpoint(new Request("http://localhost/"), "/sign-up/email", {
-      email: "New.Checker@kestrelspan.example",
-      password: PASSWORD,
-      name: "New Checker",
-    });
+    const { INVITATION_HEADER, invitationToken } = await import("~/lib/auth/sign-up-policy.server");
+    const [invited] = await ctx.db.insert(invitations).values({ id: "inv-1", email: "new.checker@kestrelspan.example", role: "checker" }).returning();
+    const res = await callAuthEndpoint(
+      new Request("http://localhost/"),
+      "/sign-up/email",
+      { email: "New.Checker@kestrelspan.example", password: PASSWORD, name: "New Checker" },
+      { [INVITATION_HEADER]: invitationToken(invited!) },
+    );
     expect(res.status).toBe(200);
     expect((await ctx.db.query.user.findFirst({ where: eq(user.email, "new.checker@kestrelspan.example") }))?.role).toBe("viewer");
     const mail = await mailTo(ctx.services, "new.checker@kestrelspan.example", /confirm your e-mail/);

@@ -1,7 +1,7 @@
 // Configuration is checked once at start-up, and a wrong variable is named in the message
 // (issue 2: "a wrong variable stops the app with a message naming it").
 import { describe, expect, it } from "vitest";
-import { ConfigError, parseConfig } from "~/lib/config.server";
+import { ConfigError, parseConfig, signUpMode } from "~/lib/config.server";
 
 function messageFor(env: Record<string, string>): string {
   try {
@@ -69,5 +69,25 @@ describe("parseConfig", () => {
 
   it("treats empty variables as unset", () => {
     expect(parseConfig({ PORT: "", DATABASE_URL: "" }).PORT).toBe(4310);
+  });
+});
+
+describe("SIGN_UP (issue 14)", () => {
+  it("is invite-only unless set, and reads open and domain lists", () => {
+    expect(signUpMode(parseConfig({}))).toEqual({ kind: "invite-only" });
+    expect(signUpMode(parseConfig({ SIGN_UP: "open" }))).toEqual({ kind: "open" });
+    expect(signUpMode(parseConfig({ SIGN_UP: "domain:TarrowKeel.example,keel-site.example" }))).toEqual({ kind: "domain", domains: ["tarrowkeel.example", "keel-site.example"] });
+  });
+
+  it.each(["anyone", "domain:", "domain:localhost", "domain:a.example,,b.example"])("refuses SIGN_UP=%s at start-up, naming the choices", (value) => {
+    const msg = messageFor({ SIGN_UP: value });
+    expect(msg).toContain(`SIGN_UP (got "${value}")`);
+    expect(msg).toContain("invite-only, open, or domain:<list>");
+  });
+
+  it("keeps invitations 7 days unless INVITATION_TTL_DAYS says otherwise", () => {
+    expect(parseConfig({}).INVITATION_TTL_DAYS).toBe(7);
+    expect(parseConfig({ INVITATION_TTL_DAYS: "2" }).INVITATION_TTL_DAYS).toBe(2);
+    expect(messageFor({ INVITATION_TTL_DAYS: "0" })).toContain("INVITATION_TTL_DAYS");
   });
 });

@@ -12,7 +12,7 @@ import { config } from "~/lib/config.server";
 import { enqueueMail } from "~/lib/mail/outbox.server";
 import { audit } from "./audit.server";
 import { clientAddress, countSignInAttempt, emailOfBody } from "./sign-in-throttle.server";
-import { applyInvitationAfterVerification, signUpRefusal } from "./sign-up-policy.server";
+import { applyInvitationAfterVerification, INVITATION_HEADER, signUpRefusal } from "./sign-up-policy.server";
 import { plainText } from "~/lib/text-hygiene";
 
 /**
@@ -174,8 +174,9 @@ function createAuth(database: Db) {
           // SIGN_UP decides who may create an account; every account starts as an unverified
           // viewer, and an invitation's role applies only after the verification link
           // (sign-up-policy.server.ts). Demo and test accounts are written directly.
-          before: async (user) => {
-            const refusal = await signUpRefusal(user.email, database);
+          before: async (user, ctx) => {
+            const headers = ctx?.headers ?? ctx?.request?.headers;
+            const refusal = await signUpRefusal(user.email, database, headers?.get(INVITATION_HEADER));
             // 400, not 403: better-auth turns a 403 here into its generic "check your mail" answer
             if (refusal) throw new APIError("BAD_REQUEST", { message: refusal, code: "SIGN_UP_CLOSED" });
             return { data: { ...user, role: "viewer", emailVerified: false } };
@@ -230,6 +231,7 @@ export async function callAuthEndpoint(
   request: Request,
   path: string,
   body: Record<string, unknown> | null,
+  extraHeaders: Record<string, string> = {},
 ): Promise<{ status: number; data: any; setCookies: string[]; retryAfter: number | null }> {
   const base = config().APP_URL.replace(/\/$/, "");
   const headers = new Headers({ "content-type": "application/json" });
@@ -243,6 +245,7 @@ export async function callAuthEndpoint(
     return { status: 403, data: { code: "INVALID_ORIGIN", message: `Forms from ${sent} are not accepted` }, setCookies: [], retryAfter: null };
   }
   headers.set("origin", own);
+  for (const [k, v] of Object.entries(extraHeaders)) headers.set(k, v);
   for (const h of ["cookie", "user-agent", "x-forwarded-for"]) {
     const v = request.headers.get(h);
     if (v) headers.set(h, v);

@@ -22,6 +22,11 @@ export const signUpSchema = z.object({
 
 export const forgotPasswordSchema = z.object({ email });
 
+export const passwordChangeSchema = z.object({
+  currentPassword: z.string().min(1, "Enter your current password"),
+  newPassword,
+});
+
 export const resetPasswordSchema = z
   .object({ token: z.string().min(1, "The reset link is incomplete"), password: newPassword, confirm: z.string() })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });

@@ -1,7 +1,10 @@
 // Who may create an account (SIGN_UP), and when an invitation's role takes effect: only once
 // the invited address has proven itself by the verification link. Until then a new account is
-// a viewer that can do nothing at all (authorize.server.ts refuses unverified accounts), so
-// whoever registers an invited address first gains nothing without that mailbox.
+// a viewer that can do nothing at all (authorize.server.ts refuses unverified accounts).
+// An invited address can only be registered with the invitation's own token (the link in the
+// invitation mail, an HMAC of the invitation under the server secret), so nobody can
+// pre-register it with a password of their own and wait for the owner to confirm it.
+import { createHmac, timingSafeEqual } from "node:crypto";
 import { and, eq, isNull } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
 import { invitations, user } from "~/db/schema";
@@ -23,11 +26,32 @@ export async function openInvitation(email: string, database: Db = defaultDb(), 
   return inv;
 }
 
-/** May this address create an account under the desk's SIGN_UP setting? */
-export async function signUpRefusal(email: string, database: Db = defaultDb()): Promise<string | null> {
+/** Header that carries the invitation token from the sign-up page to better-auth's hook. */
+export const INVITATION_HEADER = "x-strutwise-invitation";
+
+/** The token of an invitation's link; changes when the invitation is sent again. */
+export function invitationToken(inv: Pick<Invitation, "id" | "createdAt">, secret = config().BETTER_AUTH_SECRET): string {
+  return createHmac("sha256", secret).update(`invitation:${inv.id}:${inv.createdAt.getTime()}`).digest("base64url");
+}
+
+function sameToken(a: string, b: string): boolean {
+  const x = Buffer.from(a);
+  const y = Buffer.from(b);
+  return x.length === y.length && timingSafeEqual(x, y);
+}
+
+/**
+ * May this address create an account under the desk's SIGN_UP setting? An address with an
+ * open invitation needs that invitation's token, whatever the mode.
+ */
+export async function signUpRefusal(email: string, database: Db = defaultDb(), token?: string | null): Promise<string | null> {
   const mode = signUpMode();
+  const inv = await openInvitation(email, database);
+  if (inv) {
+    if (token && sameToken(token, invitationToken(inv))) return null;
+    return "This address is invited: create the account from the link in the invitation mail";
+  }
   if (mode.kind === "open") return null;
-  if (await openInvitation(email, database)) return null;
   const domain = email.trim().toLowerCase().split("@").at(-1) ?? "";
   if (mode.kind === "domain" && mode.domains.includes(domain)) return null;
   return mode.kind === "domain"

@@ -8,6 +8,7 @@ import { config } from "~/lib/config.server";
 import { enqueueMail } from "~/lib/mail/outbox.server";
 import { plainText } from "~/lib/text-hygiene";
 import { audit } from "./audit.server";
+import { invitationToken } from "./sign-up-policy.server";
 import type { SessionUser } from "./authorize.server";
 import type { Role } from "./permissions";
 
@@ -32,13 +33,14 @@ export async function inviteUser(
   const existing = await database.query.user.findFirst({ where: eq(user.email, email) });
   if (existing) return { ok: false, field: "email", message: `${email} has an account already; change its role in the list instead` };
   // re-inviting replaces the role of an open invitation
-  await database
+  const [inv] = await database
     .insert(invitations)
     .values({ id: randomUUID(), email, role: opts.role, invitedBy: opts.by.id })
     // re-inviting also restarts the invitation's time (INVITATION_TTL_DAYS)
-    .onConflictDoUpdate({ target: invitations.email, set: { role: opts.role, invitedBy: opts.by.id, acceptedAt: null, createdAt: new Date() } });
+    .onConflictDoUpdate({ target: invitations.email, set: { role: opts.role, invitedBy: opts.by.id, acceptedAt: null, createdAt: new Date() } })
+    .returning();
   await audit({ request: opts.request, actor: opts.by, action: "user.invite", entityType: "invitation", entityId: email, detail: { role: opts.role } }, database);
-  await sendInvitationMail(email, opts.role, opts.by, database);
+  await sendInvitationMail(email, opts.role, opts.by, invitationToken(inv!), database);
   return {
     ok: true,
     message: `${email} is invited as ${opts.role} for ${config().INVITATION_TTL_DAYS} days. Once they create an account with that address and confirm it by the link we mail them, it gets this role.`,
@@ -46,9 +48,9 @@ export async function inviteUser(
 }
 
 /** Through the outbox like every mail; one per invitation sent (a re-invite mails again). */
-async function sendInvitationMail(email: string, role: Role, by: SessionUser, database: Db): Promise<void> {
+async function sendInvitationMail(email: string, role: Role, by: SessionUser, token: string, database: Db): Promise<void> {
   const c = config();
-  const link = `${c.APP_URL.replace(/\/$/, "")}/sign-up?email=${encodeURIComponent(email)}`;
+  const link = `${c.APP_URL.replace(/\/$/, "")}/sign-up?email=${encodeURIComponent(email)}&invitation=${token}`;
   await enqueueMail(database, {
     kind: "invitation",
     dedupeKey: `invitation:${email}:${Date.now()}`,
