@@ -105,6 +105,22 @@ describe("catalogue upload", () => {
   });
 });
 
+describe("the built-in catalogue", () => {
+  it("is listed first, generated from dimensions, and cannot be retired or have its name taken", async () => {
+    const { listCatalogues, getCatalogue, retireCatalogue } = await import("~/lib/catalogues/catalogues.server");
+    const [first] = await listCatalogues({}, database);
+    expect(first).toMatchObject({ id: "built-in", builtIn: true, families: ["CHS", "SHS", "RND"] });
+    const chs = (await getCatalogue("built-in", database))!.sections.find((s) => s.id === "CHS 88.9x4")!;
+    // by hand (closed form): A = π/4 (88.9² − 80.9²) = π/4 · (7903.21 − 6544.81) = π/4 · 1358.4 = 1066.9 mm²;
+    // I = π/64 (88.9⁴ − 80.9⁴) = π/64 · (62,460,728 − 42,834,538) = π/64 · 19,626,190 = 9.634e5 mm⁴
+    expect(chs.area).toBeCloseTo(1066.88, 1);
+    expect(chs.I / 9.634e5).toBeCloseTo(1, 3);
+    expect(chs.dimensions).toEqual({ outer: 88.9, wall: 4 });
+    expect(await retireCatalogue({ id: "built-in", user: admin.sessionUser }, database)).toMatchObject({ ok: false, status: 409 });
+    expect((await upload(engineer.key, { name: "Strutwise generic sections", csv: GOOD })).status).toBe(409);
+  });
+});
+
 describe("retiring", () => {
   it("viewers cannot retire; an engineer can, once; it then leaves the list but stays readable", async () => {
     const res = await upload(engineer.key, { name: "Old stock 2025", csv: GOOD });
@@ -155,6 +171,13 @@ describe("a model takes its sections from a catalogue at upload", () => {
     expect(file.sections.map((s) => s.id)).toEqual(["T 60x3", "T 76x4"]);
     expect(file.sections[0]!.area).toBeCloseTo(537.2e-6, 15); // mm² → m²
     expect(file.sections[0]!.I).toBeCloseTo(218780e-12, 20); // mm⁴ → m⁴
+  });
+
+  it("takes one family of the built-in catalogue", async () => {
+    const res = await uploadModel({ catalogueId: "built-in", catalogueFamilies: "RND" }, { ...twoBarModel(), units: { length: "mm", force: "N", mass: "t" } });
+    expect(res.status).toBe(201);
+    const body = (await res.json()) as { catalogue: { sectionCount: number } };
+    expect(body.catalogue.sectionCount).toBe(10); // ten common bar diameters, 10 to 60 mm
   });
 
   it("refuses an unknown or retired catalogue and an unknown family, storing no model", async () => {

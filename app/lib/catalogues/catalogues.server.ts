@@ -11,8 +11,9 @@ import type { SessionUser } from "~/lib/auth/authorize.server";
 import { config } from "~/lib/config.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { applyCatalogue } from "./apply";
+import { builtInCatalogue } from "./built-in";
 import { parseCatalogueCsv } from "./csv";
-import { type Catalogue, type CatalogueSection, type CatalogueSummary } from "./types";
+import { BUILT_IN_CATALOGUE_ID, type Catalogue, type CatalogueSection, type CatalogueSummary } from "./types";
 
 export type CatalogueFailure = { ok: false; status: 400 | 404 | 409 | 413; error: string; details: ErrorDetail[] };
 
@@ -66,15 +67,17 @@ function joined(database: Db) {
     .leftJoin(retirer, eq(retirer.id, sectionCatalogues.retiredBy));
 }
 
-/** Stored catalogues newest first; retired ones only when asked. */
+/** The built-in catalogue first, then stored ones newest first; retired ones only when asked. */
 export async function listCatalogues(opts: { includeRetired?: boolean } = {}, database: Db = defaultDb()): Promise<CatalogueSummary[]> {
   const rows = await joined(database)
     .where(opts.includeRetired ? undefined : isNull(sectionCatalogues.retiredAt))
     .orderBy(desc(sectionCatalogues.createdAt), desc(sectionCatalogues.id));
-  return rows.map(toSummary);
+  const { sections: _sections, dimensionNames: _dimensions, ...builtIn } = builtInCatalogue();
+  return [builtIn, ...rows.map(toSummary)];
 }
 
 export async function getCatalogue(id: string, database: Db = defaultDb()): Promise<Catalogue | null> {
+  if (id === BUILT_IN_CATALOGUE_ID) return builtInCatalogue();
   const [j] = await joined(database).where(eq(sectionCatalogues.id, id)).limit(1);
   if (!j) return null;
   return { ...toSummary(j), sections: j.row.sections as CatalogueSection[], dimensionNames: j.row.dimensionNames as string[] };
@@ -115,7 +118,7 @@ export async function storeCatalogue(
     .from(sectionCatalogues)
     .where(and(isNull(sectionCatalogues.retiredAt), sql`lower(${sectionCatalogues.name}) = lower(${name})`))
     .limit(1);
-  if (clash[0]) {
+  if (clash[0] || name.toLowerCase() === builtInCatalogue().name.toLowerCase()) {
     return { ok: false, status: 409, error: `A catalogue named "${name}" is already in use`, details: [{ path: "name", message: "choose another name, or retire the catalogue of that name first" }] };
   }
 
@@ -145,6 +148,9 @@ export async function retireCatalogue(
   input: { id: string; reason?: string | null; user: SessionUser; request?: Request },
   database: Db = defaultDb(),
 ): Promise<{ ok: true; catalogue: Catalogue } | CatalogueFailure> {
+  if (input.id === BUILT_IN_CATALOGUE_ID) {
+    return { ok: false, status: 409, error: "The built-in catalogue belongs to the desk and cannot be retired", details: [] };
+  }
   const current = await getCatalogue(input.id, database);
   if (!current) return { ok: false, status: 404, error: `Catalogue ${input.id} not found`, details: [] };
   if (current.retiredAt) return { ok: false, status: 409, error: `The catalogue "${current.name}" was retired on ${current.retiredAt.slice(0, 10)}`, details: [] };
