@@ -7,3 +7,4 @@ export { solvePlasticDesign, type PlasticDesign, type PlasticDesignInput, type P
 export { plasticInputFromModel, checkedCases, weightPerMass, resultCoords } from "./from-model";
 export { lowerBoundForResult, withLowerBound, attachLowerBound, type BoundOutcome } from "./lower-bound";
 export { predictVanishingMembers } from "./predict";
+export { cleanLayout, type CleanLayout, type CleanLayoutOptions } from "./clean-layout";
