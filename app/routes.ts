@@ -48,6 +48,7 @@ export default [
     route("jobs/:jobId/cancel", "routes/api/jobs.$jobId.cancel.ts"),
     route("jobs/:jobId/result", "routes/api/jobs.$jobId.result.ts"),
     route("jobs/:jobId/progress", "routes/api/jobs.$jobId.progress.ts"),
+    route("jobs/:jobId/clean-layout", "routes/api/jobs.$jobId.clean-layout.ts"),
     route("catalogues", "routes/api/catalogues.ts"),
     route("catalogues/:catalogueId", "routes/api/catalogues.$catalogueId.ts"),
     route("catalogues/:catalogueId/retire", "routes/api/catalogues.$catalogueId.retire.ts"),

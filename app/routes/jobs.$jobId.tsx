@@ -4,6 +4,7 @@ import { data, Link } from "react-router";
 import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
 import { GoverningConstraints } from "~/components/job/GoverningConstraints";
 import { LowerBoundGauge } from "~/components/job/LowerBoundGauge";
+import { CleanLayoutPanel } from "~/components/job/CleanLayoutPanel";
 import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
 import { OutcomePanel } from "~/components/job/OutcomePanel";
 import { MemberTable, NodeTable, type Topology } from "~/components/job/result-tables";
@@ -57,6 +58,8 @@ function unitsOf(text: string): { length: string; force: string; mass: string } 
 }
 
 const HEAD_LIST_CAP = 100;
+/** Layout studies: from this many candidate members the page offers a clean layout. */
+const CLEAN_LAYOUT_FROM = 20;
 const byWeight = (a: { multiplier: number }, b: { multiplier: number }) => Math.abs(b.multiplier) - Math.abs(a.multiplier);
 
 /**
@@ -125,6 +128,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       own,
       rerun: can(user.role, "create:job"),
       reopen: can(user.role, "manage:users"),
+      newVersion: can(user.role, "create:model"),
     },
   };
 }
@@ -295,6 +299,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             </dl>
           </section>
           <LowerBoundGauge result={head} />
+          {may.newVersion && head.memberCount >= CLEAN_LAYOUT_FROM && <CleanLayoutPanel jobId={job.id} hasLpDesign={!!head.lowerBound && head.objective.kind === "mass"} memberCount={head.memberCount} />}
         </>
       )}
 
