@@ -9,6 +9,7 @@ import { parseModel } from "~/engine/truss";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
 import type { ModelLike } from "~/components/viewer/truss-view";
 import { EditableGrid, type GridColumn, type GridRow } from "./EditableGrid";
+import { EditorSections } from "~/components/catalogues/EditorSections";
 import { fromTables, toTables, type EditorTables } from "./model-rows";
 
 type Tab = "nodes" | "supports" | "members" | "loads" | "groups" | "materials" | "design";
@@ -121,7 +122,10 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
           </div>
         )}
         {tab === "members" && (
-          <EditableGrid name="members" columns={cols.members} rows={tables.members} onChange={set("members")} flagged={flagged.members} selected={selectedMember} onSelect={setSelectedMember} />
+          <div className="space-y-3">
+            <EditableGrid name="members" columns={cols.members} rows={tables.members} onChange={set("members")} flagged={flagged.members} selected={selectedMember} onSelect={setSelectedMember} />
+            <EditorSections lengthUnit={units.length} count={Array.isArray(tables.rest.sections) ? tables.rest.sections.length : 0} onChange={(sections) => setTables((t) => ({ ...t, rest: { ...t.rest, sections } }))} />
+          </div>
         )}
         {tab === "loads" && (
           <div className="space-y-3">
