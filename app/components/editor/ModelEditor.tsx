@@ -40,8 +40,10 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
     }
     return f;
   }, [errors]);
-  // the preview shows the last geometry the parser accepted, so a half-typed row never blanks it
-  const [lastGood, setLastGood] = useState<ModelLike | null>(null);
+  // the preview shows the last geometry the parser accepted, so a half-typed row never blanks
+  // it; it starts from the stored version (which passed the gate), so the first frame does not
+  // wait for the first parse
+  const [lastGood, setLastGood] = useState<ModelLike | null>(() => initial as unknown as ModelLike);
   const preview = useMemo<ModelLike | null>(() => (check.ok ? (check.model as unknown as ModelLike) : lastGood), [check, lastGood]);
   if (check.ok && preview !== lastGood) setLastGood(preview);
 
