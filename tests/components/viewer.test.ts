@@ -7,7 +7,7 @@ import path from "node:path";
 import * as THREE from "three";
 import { describe, expect, it } from "vitest";
 import { placeCone, placeCylinder } from "~/components/viewer/instancing";
-import { forceSense, OVER_LIMIT, UTIL_BANDS, utilBandIndex } from "~/components/viewer/palette";
+import { forceSense } from "~/components/viewer/palette";
 import { boundsOf, buildTrussView, defaultDeformationScale, deformedPositions, niceNumber, upAxis, visualRadii, type ModelLike, type ResultLike } from "~/components/viewer/truss-view";
 
 const dir = path.resolve(import.meta.dirname, "../fixtures/results");
@@ -113,16 +113,6 @@ describe("instancing", () => {
 });
 
 describe("palette", () => {
-  it("bands utilization: reserve, through ochre, to over the limit just above 100 %", () => {
-    expect(utilBandIndex(0.2)).toBe(0);
-    expect(utilBandIndex(0.6)).toBe(1);
-    expect(utilBandIndex(0.8)).toBe(2);
-    expect(utilBandIndex(1.0)).toBe(3);
-    expect(utilBandIndex(1.004)).toBe(3);
-    expect(utilBandIndex(OVER_LIMIT + 0.01)).toBe(4);
-    expect(utilBandIndex(Number.NaN)).toBe(4);
-  });
-
   it("tells tension from compression and ignores numerical noise", () => {
     expect(forceSense(18100, 25000)).toBe("tension");
     expect(forceSense(-25000, 25000)).toBe("compression");
@@ -131,7 +121,6 @@ describe("palette", () => {
 
   it("uses colour tokens that app/app.css defines", () => {
     const css = fs.readFileSync(path.resolve(import.meta.dirname, "../../app/app.css"), "utf8");
-    for (const b of UTIL_BANDS) expect(css).toContain(`${b.token}:`);
     expect(css).toContain("--color-tension:");
     expect(css).toContain("--color-compression:");
   });

@@ -97,7 +97,9 @@ describe("the report before review", () => {
   it("draws the plot and the truss with their legends, and embeds the shipped fonts", () => {
     const all = unreviewed.join("\n");
     expect(all).toContain("KKT residual (right axis)");
-    for (const band of ["below 50 %", "50–75 %", "75–90 %", "90–100 %", "over the limit"]) expect(all).toContain(band);
+    // one continuous scale with named ends and the over-limit pattern, no discrete bands
+    for (const words of ["utilization 0 %", "over its limit (striped, red outline)"]) expect(all).toContain(words);
+    expect(all).not.toContain("75–90 %");
     const f = fonts(unreviewedPdf);
     if (f) {
       expect(f.some((x) => x.name.includes("IBMPlexSans-Regular") && x.embedded)).toBe(true);

@@ -8,7 +8,8 @@ import { unitLabel } from "~/engine/truss/units";
 import type { Units } from "~/engine/truss/schema";
 import { DataTable } from "~/components/tables/DataTable";
 import { downloadText, fileSlug, toCsv } from "~/components/tables/csv";
-import { forceSense, UTIL_BANDS, utilBandIndex } from "~/components/viewer/palette";
+import { forceSense } from "~/components/viewer/palette";
+import { UtilizationChip } from "~/components/viewer/UtilizationKey";
 import { governingCaseOf } from "~/lib/results/cases";
 import { membersCsv, nodesCsv } from "~/lib/results/result-csv";
 import { CaseSelect, useResultCase } from "./ResultCase";
@@ -72,11 +73,11 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
       col.accessor("id", { header: "member" }),
       ...(withSection ? [col.accessor((m) => m.section ?? "", { id: "section", header: "section" })] : []),
       col.accessor("utilization", {
-        header: "utilization",
+        header: "utilization (%)",
         meta: { numeric: true },
         cell: (c) => (
           <span className="inline-flex items-center gap-1.5">
-            <span className={`inline-block h-2 w-2 rounded-full ${UTIL_BANDS[utilBandIndex(c.getValue())]!.className}`} aria-hidden />
+            <UtilizationChip value={c.getValue()} />
             {formatPercent(c.getValue())}
           </span>
         ),

@@ -1,5 +1,6 @@
 // Key to the viewer's colours: utilization bands or force sense, and the overlay lines.
-import { SENSE_TOKENS, UTIL_BANDS } from "./palette";
+import { SENSE_TOKENS } from "./palette";
+import { UtilizationKey } from "./UtilizationKey";
 
 export function Legend({
   mode,
@@ -14,13 +15,11 @@ export function Legend({
 }) {
   return (
     <ul className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft" aria-label="Legend" data-testid="viewer-legend">
-      {mode === "utilization" &&
-        UTIL_BANDS.map((b) => (
-          <li key={b.token} className="flex items-center gap-1.5">
-            <span className={`inline-block h-2.5 w-5 rounded-sm ${b.className}`} aria-hidden />
-            {b.label}
-          </li>
-        ))}
+      {mode === "utilization" && (
+        <li>
+          <UtilizationKey />
+        </li>
+      )}
       {mode === "force" &&
         Object.values(SENSE_TOKENS).map((s) => (
           <li key={s.token} className="flex items-center gap-1.5">

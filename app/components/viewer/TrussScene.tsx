@@ -8,7 +8,8 @@ import { Canvas, useThree } from "@react-three/fiber";
 import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
-import { cssColor, forceSense, SENSE_TOKENS, UTIL_BANDS, utilBandIndex } from "./palette";
+import { cssColor, forceSense, SENSE_TOKENS } from "./palette";
+import { isOverLimit, OVER_LIMIT_OUTLINE, utilizationColor } from "~/lib/utilization-scale";
 import { placeCone, placeCylinder } from "./instancing";
 import { drawnBox, fitOrthographic, fitPerspective, jointRadius, loadArrows, reactionArrows, supportSize, type Box } from "./framing";
 import { deformedPositions, upAxis, visualRadii, type TrussView, type Vec3 } from "./truss-view";
@@ -72,6 +73,7 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
       <directionalLight position={[-2, -1, -1]} intensity={0.5} />
       <Members view={view} settings={settings} onSelect={onSelectMember} />
       <Joints view={view} />
+      {view.hasResult && settings.colourMode === "utilization" && <OverLimitOutlines view={view} />}
       {settings.showInitial && view.hasResult && <InitialOverlay view={view} />}
       {settings.showDeformed && view.hasResult && <DeformedOverlay view={view} settings={settings} />}
       {settings.showSupports && <Supports view={view} />}
@@ -92,8 +94,7 @@ function memberColours(view: TrussView, settings: SceneSettings): THREE.Color[] 
     );
     return view.members.map((m) => cache[forceSense(m.force?.[lc?.id ?? ""] ?? 0, lc?.maxAbsForce ?? 0)]!);
   }
-  const bands = UTIL_BANDS.map((b) => new THREE.Color(cssColor(b.token)));
-  return view.members.map((m) => (m.utilization === null ? plain : bands[utilBandIndex(m.utilization)]!));
+  return view.members.map((m) => (m.utilization === null ? plain : new THREE.Color(utilizationColor(m.utilization))));
 }
 
 function Members({ view, settings, onSelect }: { view: TrussView; settings: SceneSettings; onSelect?: (i: number | null) => void }) {
@@ -209,6 +210,37 @@ function segmentsGeometry(view: TrussView, positions: Vec3[]): THREE.BufferGeome
   const g = new THREE.BufferGeometry();
   g.setAttribute("position", new THREE.BufferAttribute(arr, 3));
   return g;
+}
+
+/**
+ * Members over their limit get an outline of their own: a wider shell drawn from its back
+ * faces in the "bad" colour around the member, so the mark does not depend on telling hues apart.
+ */
+function OverLimitOutlines({ view }: { view: TrussView }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const over = useMemo(() => view.members.map((m, i) => (m.utilization !== null && isOverLimit(m.utilization) ? i : -1)).filter((i) => i >= 0), [view]);
+  const mesh = useMemo(() => {
+    const geometry = new THREE.CylinderGeometry(1, 1, 1, 10, 1, true);
+    const material = new THREE.MeshBasicMaterial({ color: new THREE.Color(OVER_LIMIT_OUTLINE), side: THREE.BackSide });
+    const m = new THREE.InstancedMesh(geometry, material, Math.max(1, over.length));
+    m.count = over.length;
+    return m;
+  }, [over]);
+  useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
+  useLayoutEffect(() => {
+    const radii = visualRadii(view);
+    const mat = new THREE.Matrix4();
+    over.forEach((i, k) => {
+      const m = view.members[i]!;
+      placeCylinder(mat, view.nodes[m.a]!.position, view.nodes[m.b]!.position, radii[i]! * 1.8 + view.medianLength * 0.004);
+      mesh.setMatrixAt(k, mat);
+    });
+    mesh.instanceMatrix.needsUpdate = true;
+    mesh.computeBoundingSphere();
+    invalidate();
+  }, [mesh, over, view, invalidate]);
+  if (over.length === 0) return null;
+  return <primitive object={mesh} raycast={() => null} />;
 }
 
 function InitialOverlay({ view }: { view: TrussView }) {

@@ -37,26 +37,5 @@ export const TOKENS: Record<string, string> = {
   "--color-info": INFO,
   "--color-tension": TENSION,
   "--color-compression": COMPRESSION,
-  "--color-util-0": "#5f8a8b",
-  "--color-util-1": "#8fae7e",
-  "--color-util-2": "#d8b450",
-  "--color-util-3": "#e07b39",
-  "--color-util-4": "#c0392b",
 };
 
-export const OVER_LIMIT = 1.005;
-
-export const UTIL_BANDS = [
-  { color: TOKENS["--color-util-0"]!, label: "below 50 %", upTo: 0.5 },
-  { color: TOKENS["--color-util-1"]!, label: "50–75 %", upTo: 0.75 },
-  { color: TOKENS["--color-util-2"]!, label: "75–90 %", upTo: 0.9 },
-  { color: TOKENS["--color-util-3"]!, label: "90–100 %", upTo: OVER_LIMIT },
-  { color: TOKENS["--color-util-4"]!, label: "over the limit", upTo: Infinity },
-];
-
-export function utilBand(utilization: number): number {
-  if (!Number.isFinite(utilization)) return UTIL_BANDS.length - 1;
-  const u = Math.max(0, utilization);
-  const i = UTIL_BANDS.findIndex((b) => u < b.upTo);
-  return i === -1 ? UTIL_BANDS.length - 1 : i;
-}

@@ -5,7 +5,8 @@ import { lowerBoundSection } from "./lower-bound-section";
 import { statusWords } from "./cover";
 import { formatNumber, formatPercent, formatResidual } from "~/lib/format";
 import type { ReportWriter } from "./layout";
-import { BAD, COMPRESSION, INK, INK_MUTED, TENSION, UTIL_BANDS, utilBand } from "./palette";
+import { BAD, COMPRESSION, INK, INK_MUTED, TENSION } from "./palette";
+import { isOverLimit, utilizationColor } from "~/lib/utilization-scale";
 import type { ReportData } from "./report-data";
 import { chunks, table } from "./tables";
 import { drawingInput, trussDrawing } from "./truss-drawing";
@@ -48,7 +49,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
   trussDrawing(w, drawingInput(r, data.model.file), { title: "The optimized truss" });
 
   const lcs = loadCaseIds(data);
-  const utilColor = (x: number) => UTIL_BANDS[utilBand(x)]!.color;
+  const utilColor = (x: number) => utilizationColor(x);
   w.newPage();
   w.heading("Members", 2);
   w.paragraph(
@@ -88,7 +89,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
     {
       title: `${r.members.length} members`,
       marker: (i) => utilColor(r.members[i]!.utilization),
-      cellColor: (i, c) => (c === utilColumn && utilBand(r.members[i]!.utilization) === UTIL_BANDS.length - 1 ? BAD : undefined),
+      cellColor: (i, c) => (c === utilColumn && isOverLimit(r.members[i]!.utilization) ? BAD : undefined),
     },
   );
 

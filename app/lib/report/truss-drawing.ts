@@ -5,7 +5,8 @@
 import type { TrussResult } from "~/engine/design/result-types";
 import type { ReportWriter } from "./layout";
 import type { ModelFile } from "./report-data";
-import { INK, INK_MUTED, RULE, UTIL_BANDS, utilBand } from "./palette";
+import { INK, INK_MUTED, RULE } from "./palette";
+import { isOverLimit, OVER_LIMIT_OUTLINE, utilizationColor } from "~/lib/utilization-scale";
 
 type P3 = [number, number, number];
 
@@ -97,7 +98,12 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
     const a = T(input.nodes.get(m.start)!.now);
     const b = T(input.nodes.get(m.end)!.now);
     const lw = Math.max(0.35, thin * Math.sqrt(Math.max(0, m.area) / maxArea));
-    doc.moveTo(a[0], a[1]).lineTo(b[0], b[1]).lineWidth(lw).strokeColor(UTIL_BANDS[utilBand(m.utilization)]!.color).stroke();
+    if (isOverLimit(m.utilization)) {
+      // over the limit: a red outline, the darkest tone, white stripes (reads in greyscale too)
+      doc.moveTo(a[0], a[1]).lineTo(b[0], b[1]).lineWidth(lw + 1.6).strokeColor(OVER_LIMIT_OUTLINE).stroke();
+      doc.moveTo(a[0], a[1]).lineTo(b[0], b[1]).lineWidth(lw).strokeColor(utilizationColor(1)).stroke();
+      doc.lineCap("butt").moveTo(a[0], a[1]).lineTo(b[0], b[1]).lineWidth(Math.max(0.3, lw * 0.6)).dash(1.5, { space: 2 }).strokeColor("#ffffff").stroke().undash().lineCap("round");
+    } else doc.moveTo(a[0], a[1]).lineTo(b[0], b[1]).lineWidth(lw).strokeColor(utilizationColor(m.utilization)).stroke();
   }
   doc.lineCap("butt");
 
@@ -133,11 +139,15 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
   // legend
   let lx = w.left;
   const ly = top + height + 7;
-  for (const band of UTIL_BANDS) {
-    doc.rect(lx, ly + 1, 14, 5).fill(band.color);
-    w.line("sans", 7, band.label, lx + 17, ly, { color: INK });
-    lx += 17 + w.measure("sans", 7, band.label) + 12;
-  }
+  w.line("sans", 7, "utilization 0 %", lx, ly, { color: INK });
+  lx += w.measure("sans", 7, "utilization 0 %") + 4;
+  for (let k = 0; k < 40; k++) doc.rect(lx + k * 2, ly + 1, 2.05, 5).fill(utilizationColor(k / 39));
+  lx += 84;
+  w.line("sans", 7, "100 %", lx, ly, { color: INK });
+  lx += w.measure("sans", 7, "100 %") + 14;
+  doc.rect(lx, ly + 0.5, 16, 6).lineWidth(1).fillAndStroke(utilizationColor(1), OVER_LIMIT_OUTLINE);
+  for (let k = 2; k < 16; k += 3.5) doc.rect(lx + k, ly + 0.5, 1.5, 6).fill("#ffffff");
+  w.line("sans", 7, "over its limit (striped, red outline)", lx + 20, ly, { color: INK });
   w.line("sans", 7, "Utilization (worst check over all load cases). Line width grows with the square root of the area.", w.left, ly + 11, { color: INK_MUTED });
   const notes: string[] = [];
   if (input.dim === 3) notes.push("Isometric view, z up.");
