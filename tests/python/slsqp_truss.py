@@ -5,6 +5,12 @@ Reads one JSON problem on stdin (written by tests/engine/design/slsqp-reference.
 with the same analytic formulas the Strutwise design engine uses (direct stiffness analysis,
 adjoint gradients, limits as ratios g <= 0, areas scaled by A_ref, objective divided by f0)
 and prints one JSON line: x (scaled), f (model units), nit, nfev, njev, success, message, seconds.
+
+Own weight and combinations (optional fields): case l carries the load P_l + s_l W(A), W the
+own weight at factor 1 (half of each member's weight g rho A L on each end node, along minus
+the gravity axis); a combination's displacements are the factored sum of the cases'. A limit's
+"loadCase" indexes the responses: load cases, then combinations. The adjoint gradient of a
+limit on response r then gains lambda^T s_r dW/dA, s_r the response's own-weight factor.
 """
 import json
 import sys
@@ -36,6 +42,17 @@ def main():
     B = np.hstack([-n_, n_])  # elongation = B . u_e
     pos = -np.ones(nn * 3, dtype=int); pos[free] = np.arange(len(free))
     limits = P["limits"]
+    nlc = len(loads)
+    self_weight = np.array(P.get("selfWeight", [0.0] * nlc), dtype=float)
+    combos = [np.array(c, dtype=float) for c in P.get("combinations", [])]
+    factors = [np.eye(nlc)[l] for l in range(nlc)] + combos  # case factors of every response
+    sw_resp = [float(np.dot(c, self_weight)) for c in factors]
+    gdof = P.get("gravityAxis", 1)
+    wpm = P.get("weightPerMass", 0.0)
+    # dW/dA_e as a dense (m x ndof) matrix: -1/2 g rho L at both ends' gravity dofs
+    dW = np.zeros((m, nn * 3))
+    dW[np.arange(m), 3 * start + gdof] -= 0.5 * wpm * rho * L
+    dW[np.arange(m), 3 * end + gdof] -= 0.5 * wpm * rho * L
     f0 = P["f0"]
     objective = P["objective"]
     cache = {}
@@ -51,9 +68,12 @@ def main():
         np.add.at(K, (edofs[:, :, None], edofs[:, None, :]), blocks)
         Kf = K[np.ix_(free, free)]
         c = cho_factor(Kf)
+        W = A @ dW  # own weight at factor 1 (linear in A)
         U = []
-        for f in loads:
-            u = np.zeros(nn * 3); u[free] = cho_solve(c, f[free]); U.append(u)
+        for l, f in enumerate(loads):
+            fl = f + self_weight[l] * W
+            u = np.zeros(nn * 3); u[free] = cho_solve(c, fl[free]); U.append(u)
+        U = U + [sum(cf[l] * U[l] for l in range(nlc)) for cf in combos]
         cache.clear()
         cache[key] = (A, c, U)
         return cache[key]
@@ -80,6 +100,7 @@ def main():
             lam = np.zeros(nn * 3); lam[free] = cho_solve(c, cvec[free])
             # dg/dA_e = -lambda_e^T (k_e / A_e) u_e
             de = -(E / L) * np.einsum("ij,ij->i", B, lam[edofs]) * np.einsum("ij,ij->i", B, u[edofs])
+            de = de + sw_resp[lim["loadCase"]] * (dW @ lam)  # the load's share: lambda^T s_r dW/dA
             g = np.zeros(nv); np.add.at(g, var, de * scale[var]); grads.append(g)
             vals.append(val)
         return np.array(vals), np.array(grads)
@@ -88,7 +109,8 @@ def main():
         A, c, U = analysis(x)
         if objective == "mass":
             return float(np.dot(rho * A, L) / f0)
-        return float(sum(np.dot(f, u) for f, u in zip(loads, U)) / f0)
+        W = A @ dW
+        return float(sum(np.dot(f + self_weight[l] * W, U[l]) for l, f in enumerate(loads)) / f0)
 
     def grad(x):
         A, c, U = analysis(x)
@@ -96,8 +118,9 @@ def main():
         if objective == "mass":
             np.add.at(g, var, rho * L * scale[var])
         else:
-            for u in U:
-                de = -(E / L) * np.einsum("ij,ij->i", B, u[edofs]) ** 2
+            for l in range(nlc):
+                u = U[l]
+                de = -(E / L) * np.einsum("ij,ij->i", B, u[edofs]) ** 2 + 2 * self_weight[l] * (dW @ u)
                 np.add.at(g, var, de * scale[var])
         return g / f0
 

@@ -44,6 +44,10 @@ export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
     }),
     maxiter,
     ftol: 1e-10,
+    selfWeight: Array.from(s.selfWeight),
+    combinations: s.combinations.map((c) => Array.from(c.factors)),
+    gravityAxis: s.gravityAxis,
+    weightPerMass: s.weightPerMass,
   };
 }
 
