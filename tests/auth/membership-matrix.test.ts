@@ -81,6 +81,7 @@ const RULES: Record<string, Rule> = {
   "/api/jobs/:p/progress": { project: true, GET: "read" },
   "/api/jobs/:p/reviews": { project: true, GET: "read", POST: "review" },
   "/api/jobs/:p/report": { project: true, GET: "read" },
+  "/api/jobs/:p/clean-layout": { project: true, POST: "produce" },
   "/api/catalogues": { GET: "read", POST: "produce" },
   "/api/catalogues/:p": { GET: "read" },
   "/api/catalogues/:p/retire": { POST: "produce" },
