@@ -256,9 +256,14 @@ describe("pages", () => {
     // live: the iteration count and the convergence plot fill in while it runs
     await page.getByTestId("live-status").getByText(/^iteration \d+/).waitFor({ timeout: 60_000 });
     await screenshot(page, "pages-job-running-1440x900");
-    await page.getByRole("button", { name: "Cancel job" }).click();
+    // stopping asks first (issue 16), then keeps the best design found so far
+    await page.getByTestId("cancel-job").click();
+    await page.getByTestId("cancel-confirm").getByText("The best design found so far is kept").waitFor();
+    await page.getByTestId("cancel-confirm-yes").click();
     await page.getByTestId("outcome").waitFor({ timeout: 60_000 });
     await expect(page.locator("h1 [data-status]").getAttribute("data-status")).resolves.toBe("cancelled");
+    await expect(page.locator("h1").getByTestId("job-state").innerText()).resolves.toContain("stopped on request — best design so far kept");
+    await page.getByTestId("truss-viewer").waitFor({ timeout: 30_000 });
     await page.close();
   });
 
@@ -352,7 +357,9 @@ describe("pages", () => {
     await form.getByRole("button", { name: "Record decision" }).click();
     await page.getByTestId("review-history").getByText("hand calculation of the snow case").waitFor({ timeout: 15_000 });
     await expect(report.innerText()).resolves.toBe("Calculation report (PDF) — approved");
-    expect(await form.getByLabel("Comment").inputValue()).toBe("");
+    // an approved run is closed: the form is gone (issue 16)
+    await page.getByTestId("review-closed").waitFor({ timeout: 15_000 });
+    expect(await page.getByTestId("review-form").count()).toBe(0);
     const history = await page.getByTestId("review-history").innerText();
     expect(history).toMatch(/approved/i);
     const checkerName = (account("checker") as { name?: string }).name;
