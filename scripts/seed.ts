@@ -11,6 +11,7 @@ import type { Db } from "~/db/client.server";
 import { projectMembers, projects } from "~/db/schema";
 import { seedDemoAccounts } from "~/lib/auth/seed.server";
 import { seedDemoData } from "~/lib/demo-seed.server";
+import { maxOf } from "~/engine/util/extent";
 
 export interface DemoAccount {
   role: string;
@@ -93,7 +94,7 @@ async function userIdByEmail(db: Db, email: string): Promise<string | null> {
 export function accountsTable(accounts: DemoAccount[]): string {
   if (accounts.length === 0) return "  (no demo accounts in this build)";
   const rows = [["role", "e-mail", "password"], ...accounts.map((a) => [a.role, a.email, a.password])];
-  const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
+  const widths = rows[0].map((_, i) => maxOf(rows.map((r) => r[i].length)));
   const line = (r: string[]) => "  " + r.map((c, i) => c.padEnd(widths[i])).join("  ");
   return [line(rows[0]), "  " + widths.map((w) => "-".repeat(w)).join("  "), ...rows.slice(1).map(line)].join("\n");
 }

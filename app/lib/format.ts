@@ -12,6 +12,7 @@
 import { scaleLinear, scaleLog } from "d3-scale";
 import { convertUnit, unitLabel, type Quantity } from "~/engine/truss/units";
 import type { ForceUnit, LengthUnit, MassUnit, Units } from "~/engine/truss/schema";
+import { maxOf, minOf } from "~/engine/util/extent";
 
 export const MINUS = "−";
 const DASH = "–";
@@ -219,8 +220,8 @@ export interface Axis {
 /** A linear axis rounded out to 1-2-5 steps with about `count` ticks; `integer` keeps whole ticks only. */
 export function linearAxis(values: number[], range: [number, number], opts: { count?: number; integer?: boolean } = {}): Axis {
   const finite = values.filter(Number.isFinite);
-  let lo = finite.length ? Math.min(...finite) : 0;
-  let hi = finite.length ? Math.max(...finite) : 1;
+  let lo = finite.length ? minOf(finite) : 0;
+  let hi = finite.length ? maxOf(finite) : 1;
   if (lo === hi) {
     const pad = Math.abs(lo) * 0.05 || 1;
     lo -= pad;
@@ -244,8 +245,8 @@ export function linearAxis(values: number[], range: [number, number], opts: { co
  */
 export function logAxis(values: number[], range: [number, number], opts: { floor?: number; maxTicks?: number } = {}): Axis {
   const pos = values.filter((v) => Number.isFinite(v) && v > 0);
-  let lo = pos.length ? Math.floor(Math.log10(Math.min(...pos))) : -6;
-  let hi = pos.length ? Math.ceil(Math.log10(Math.max(...pos))) : 0;
+  let lo = pos.length ? Math.floor(Math.log10(minOf(pos))) : -6;
+  let hi = pos.length ? Math.ceil(Math.log10(maxOf(pos))) : 0;
   if (lo === hi) hi = lo + 1;
   if (opts.floor !== undefined) lo = Math.max(lo, Math.floor(Math.log10(opts.floor)));
   const s = scaleLog().domain([10 ** lo, 10 ** hi]).range(range).clamp(true);

@@ -34,6 +34,7 @@ import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue
 import { getModelFile } from "~/lib/models.server";
 import type { Route } from "./+types/jobs.$jobId";
 import { plainText } from "~/lib/text-hygiene";
+import { maxOf } from "~/engine/util/extent";
 
 export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${plainText(data.facts.modelName)} · job ${data.job.id.slice(0, 8)} — Strutwise` : "Job — Strutwise" }];
@@ -214,7 +215,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
   const saving = head && head.objective.initial > 0 ? 1 - head.objective.final / head.objective.initial : null;
   const objUnit = head?.units ? (head.objective.kind === "mass" ? head.units.mass : `${head.units.force}·${head.units.length}`) : "";
   // a broken limit is never hidden behind a member utilization just under 100 %
-  const worstRatio = Math.max(head?.maxUtilization ?? 0, ...(head?.verification?.failures ?? []).map((f) => f.ratio));
+  const worstRatio = Math.max(head?.maxUtilization ?? 0, maxOf((head?.verification?.failures ?? []).map((f) => f.ratio)));
 
   return (
     <ResultCaseProvider result={result}>

@@ -23,6 +23,7 @@ import { ModelVersions } from "~/components/editor/ModelVersions";
 import { listModelVersions } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId";
 import { plainText } from "~/lib/text-hygiene";
+import { minOf } from "~/engine/util/extent";
 
 export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${plainText(data.model.name)} — Strutwise` : "Model — Strutwise" }];
@@ -78,7 +79,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     objective: d?.objective ?? "mass",
     maxIterations: d?.solver?.maxIterations ?? null,
     tolerance: d?.solver?.tolerance ?? null,
-    displacementLimit: dispLimits.length ? Math.min(...dispLimits.map((l) => l.limit)) : null,
+    displacementLimit: dispLimits.length ? minOf(dispLimits.map((l) => l.limit)) : null,
     volumeMax: d?.constraints?.volume?.max ?? null,
     stress: d?.constraints?.stress ?? null,
     buckling: d ? !!d.constraints?.buckling : null,

@@ -5,6 +5,7 @@
 import { useEffect, useRef, useState } from "react";
 import { formatNumber, formatResidual, linearAxis, logAxis, VIOLATION_FLOOR } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
+import { maxOf, minOf } from "~/engine/util/extent";
 
 export interface ConvergencePoint {
   iteration: number;
@@ -46,7 +47,7 @@ export function ConvergencePlot({
 
   const its = history.map((h) => h.iteration);
   // iterations are whole numbers: no tick between two of them
-  const x = linearAxis([Math.min(...its), Math.max(...its, Math.min(...its) + 1)], [M.left, width - M.right], { count: Math.max(2, Math.floor(width / 90)), integer: true });
+  const x = linearAxis([minOf(its), Math.max(maxOf(its), minOf(its) + 1)], [M.left, width - M.right], { count: Math.max(2, Math.floor(width / 90)), integer: true });
   const top: [number, number] = [M.top + PANEL_H, M.top];
   const bottom: [number, number] = [M.top + 2 * PANEL_H + GAP, M.top + PANEL_H + GAP];
   const yObj = linearAxis(history.map((h) => h.objective ?? NaN), top, { count: 4 });

@@ -4,6 +4,7 @@
 // (a mast on a wide screen) or wide (a roof on a phone). Plain numbers, no three.js, so the
 // math is tested in node; the scene (TrussScene.tsx) applies the result.
 import { deformedPositions, visualRadii, type TrussView, type Vec3 } from "./truss-view";
+import { maxOf } from "~/engine/util/extent";
 
 /** Share of the canvas half-width and half-height the framed box may fill; the rest is margin. */
 export const FIT_FILL = 0.86;
@@ -26,7 +27,7 @@ export function supportSize(view: TrussView): number {
 /** Radius of the joint spheres: a little thicker than the thickest member. */
 export function jointRadius(view: TrussView): number {
   const radii = visualRadii(view);
-  return (radii.length ? Math.max(...radii) : view.bounds.span * 0.005) * 1.25;
+  return (radii.length ? maxOf(radii) : view.bounds.span * 0.005) * 1.25;
 }
 
 export interface LoadArrow {

@@ -11,6 +11,7 @@ import type { ResultMember, ResultNode, ResultReaction, TrussResult } from "./re
 import { bucklingModel, responsesFor } from "./problem";
 import { eulerStress } from "./buckling";
 import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, reactions as supportReactions, resultCombinations } from "./responses";
+import { maxOf } from "../util/extent";
 
 export type { ResultReaction } from "./result-types";
 
@@ -65,7 +66,7 @@ export function analyseModel(model: TrussModel): AnalysisResult {
     displacement: nodeDisplacementMap(s, a, i),
   }));
   const reactions: ResultReaction[] = supportReactions(s, a);
-  const maxUtilization = Math.max(0, ...members.map((m) => m.utilization));
+  const maxUtilization = Math.max(0, maxOf(members.map((m) => m.utilization)));
 
   return {
     format: "strutwise.result",

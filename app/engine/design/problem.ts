@@ -23,6 +23,7 @@ import type { DesignModel } from "./model-shape";
 import { memberLengths } from "./element";
 import { fitSecondMoment } from "../sections/fit";
 import type { BucklingModel } from "./buckling";
+import { maxOf } from "../util/extent";
 
 export type Objective = "mass" | "compliance";
 export type Formulation = "nested" | "simultaneous";
@@ -107,7 +108,7 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
   const nodeIndex = new Map(s.nodeIds.map((id, i) => [id, i]));
 
   // Area variables: one per group, one per ungrouped member; groups start from their first member.
-  const maxInitial = Math.max(...model.members.map((mm) => mm.area));
+  const maxInitial = maxOf(model.members.map((mm) => mm.area));
   const defMin = design.areaBounds?.min ?? maxInitial * 1e-4;
   const defMax = design.areaBounds?.max ?? maxInitial * 1e2;
   const groupBounds = new Map((design.groups ?? []).map((g) => [g.id, g]));

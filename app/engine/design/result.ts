@@ -13,6 +13,7 @@ import { simultaneousFormulation } from "./simultaneous";
 import { reanalyze, VERIFY_TOLERANCE } from "./verify";
 import { activeConstraints, priceConstraints, shadowPrices } from "./shadow-prices";
 import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, reactions, resultCombinations } from "./responses";
+import { maxOf } from "../util/extent";
 
 const DESIGN_HINTS: Partial<Record<SolverStatus, string>> = {
   "not-converged":
@@ -201,7 +202,7 @@ export function summarizeResult(result: TrussResult): JobSummary {
     objectiveInitial: result.objective.initial,
     objectiveFinal: result.objective.final,
     iterations: result.iterations,
-    maxUtilization: result.verification?.maxUtilization ?? Math.max(0, ...result.members.map((m) => m.utilization)),
+    maxUtilization: result.verification?.maxUtilization ?? Math.max(0, maxOf(result.members.map((m) => m.utilization))),
     status: result.status,
     ...(result.lowerBound ? { lowerBoundGap: result.lowerBound.gap } : {}),
   };

@@ -20,6 +20,7 @@
 import { GrowingCholesky } from "./growing-cholesky";
 import type { ReducedInverse } from "./hessian";
 import { type QpRow, rowAxpy, rowDot } from "./rows";
+import { appendAll } from "../util/extent";
 
 export interface QpHessian {
   applyB(v: Float64Array, out: Float64Array): void;
@@ -165,9 +166,9 @@ export function solveQp(q: QpInput): QpOutput {
       } else isActive[active[a]] = 0;
     }
     active.length = 0;
-    active.push(...keep);
+    appendAll(active, keep);
     u.length = 0;
-    u.push(...keepU);
+    appendAll(u, keepU);
   };
 
   /** Fix bound j; w = N'H_F e_j (up to sign) and hjj = (H_F)_jj come from the caller's step. */

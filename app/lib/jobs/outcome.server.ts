@@ -10,6 +10,7 @@ import type { JobSummary } from "~/engine/design/result-types";
 import { mailInsert, type OutboxMail } from "~/lib/mail/outbox.server";
 import { jobFinishedMails, reviewWaitingMails, type JobEnd } from "~/lib/notify.server";
 import { cancelAbandonedJobs, completeJobStatement, exhaustedJobs, exhaustedMessage, failExhaustedStatement, failJobStatement, recordedBy, type Lease } from "./claim.server";
+import { appendAll } from "~/engine/util/extent";
 
 export interface MailChoice {
   /** queue the mails at all (off in the benchmark) */
@@ -27,8 +28,8 @@ export async function recordSuccess(
   const end: JobEnd = { status: "succeeded", outcome: done.outcome, summary: done.summary };
   const mails: OutboxMail[] = [];
   if (mail.notify) {
-    mails.push(...(await jobFinishedMails(database, lease.job.id, { reviewRequested: mail.reviewRequested, end })));
-    if (mail.reviewRequested) mails.push(...(await reviewWaitingMails(database, lease.job.id, end)));
+    appendAll(mails, await jobFinishedMails(database, lease.job.id, { reviewRequested: mail.reviewRequested, end }));
+    if (mail.reviewRequested) appendAll(mails, await reviewWaitingMails(database, lease.job.id, end));
   }
   const onlyIf = recordedBy(lease, "succeeded", now);
   const [rows] = await database.batch([completeJobStatement(database, lease, done, now), ...mails.map((m) => mailInsert(database, m, onlyIf, now))]);

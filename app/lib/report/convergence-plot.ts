@@ -4,6 +4,7 @@ import type { HistoryEntry } from "~/engine/design/result-types";
 import { linearAxis, logAxis, VIOLATION_FLOOR } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, BRASS_STRONG, INK, INK_MUTED, RULE } from "./palette";
+import { maxOf, minOf } from "~/engine/util/extent";
 
 export function convergencePlot(w: ReportWriter, history: HistoryEntry[], objectiveLabel: string, opts: { title?: string; height?: number } = {}) {
   const doc = w.doc;
@@ -18,8 +19,8 @@ export function convergencePlot(w: ReportWriter, history: HistoryEntry[], object
     return;
   }
   const iters = pts.map((p) => p.iteration);
-  const xMin = Math.min(...iters);
-  const xMax = Math.max(xMin + 1, ...iters);
+  const xMin = minOf(iters);
+  const xMax = Math.max(xMin + 1, maxOf(iters));
   const X = linearAxis([xMin, xMax], [box.x, box.x + box.w], { count: 8, integer: true });
   const Y = linearAxis(pts.map((p) => p.objective), [box.y + box.h, box.y]);
   // violations below the floor are limits met within tolerance: drawn on the floor, not at 1e-15

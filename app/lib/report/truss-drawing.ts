@@ -7,6 +7,7 @@ import type { ReportWriter } from "./layout";
 import type { ModelFile } from "./report-data";
 import { INK, INK_MUTED, RULE } from "./palette";
 import { isOverLimit, OVER_LIMIT_OUTLINE, utilizationColor } from "~/lib/utilization-scale";
+import { maxOf, minOf } from "~/engine/util/extent";
 
 type P3 = [number, number, number];
 
@@ -61,7 +62,7 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
   }
   const xs = pts.map((p) => p[0]);
   const ys = pts.map((p) => p[1]);
-  const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const [x0, x1, y0, y1] = [minOf(xs), maxOf(xs), minOf(ys), maxOf(ys)];
   const spanX = x1 - x0 || 1;
   const spanY = y1 - y0 || 1;
   // use the rest of the page when it leaves room for a useful drawing
@@ -90,7 +91,7 @@ export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHe
     doc.stroke().undash().restore();
   }
 
-  const maxArea = Math.max(...input.members.map((m) => m.area).filter((a) => Number.isFinite(a) && a > 0), 1e-300);
+  const maxArea = Math.max(maxOf(input.members.map((m) => m.area).filter((a) => Number.isFinite(a) && a > 0)), 1e-300);
   const thin = input.members.length > 600 ? 2 : 3.2;
   const order = [...input.members].sort((a, b) => (a.utilization || 0) - (b.utilization || 0));
   doc.lineCap("round");
