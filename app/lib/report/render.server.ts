@@ -4,11 +4,13 @@
 import { asc, eq, sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { reviews, user } from "~/db/schema";
-import type { TrussResult } from "~/engine/design/result-types";
 import { loadJobWithModel, type JobWithModel } from "~/lib/job-with-model.server";
 import { getObject, getText, putObject } from "~/lib/storage.server";
-import { buildReportPdf } from "./document";
-import type { ModelFile, ReportData } from "./report-data";
+import { renderOnThread } from "./pool.server";
+import type { ReportData } from "./report-data";
+import { ReportError, reportDataFromInputs, type ReportInputs } from "./report-inputs";
+
+export { ReportError };
 
 // oldest first, as the job page lists them (reviews.server.ts): rowid, the insertion order,
 // breaks ties between decisions of the same millisecond, so page and report agree on the latest
@@ -16,16 +18,6 @@ const REVIEW_ORDER = [asc(reviews.createdAt), asc(sql`"reviews"."rowid"`)] as co
 
 // Bump when the layout changes, so cached reports of the old layout are not served.
 const LAYOUT_VERSION = 1;
-
-export class ReportError extends Error {
-  constructor(
-    readonly status: 404 | 409 | 500,
-    message: string,
-  ) {
-    super(message);
-    this.name = "ReportError";
-  }
-}
 
 /** The job's rows; 404 without such a job, 409 unless it succeeded. */
 async function succeededJob(jobId: string): Promise<JobWithModel> {
@@ -35,33 +27,19 @@ async function succeededJob(jobId: string): Promise<JobWithModel> {
   return row;
 }
 
-/** Everything the report shows; `row` when the caller has loaded the job already. */
+/** Everything the report shows, parsed here (tests, small reports); `row` when loaded already. */
 export async function loadReportData(jobId: string, row?: JobWithModel): Promise<ReportData> {
+  return reportDataFromInputs(await gatherReportInputs(jobId, row));
+}
+
+/** The rows and the stored texts a report is drawn from, unparsed (they may be large). */
+export async function gatherReportInputs(jobId: string, row?: JobWithModel): Promise<ReportInputs> {
   const { job, model, project, submitter } = row ?? (await succeededJob(jobId));
   if (!job.resultKey) throw new ReportError(409, `Job ${jobId} succeeded but has no stored result`);
-
   const resultText = await getText(job.resultKey);
   if (resultText === null) throw new ReportError(500, `The stored result of job ${jobId} is missing from the bucket (${job.resultKey})`);
-  let result: TrussResult;
-  try {
-    result = JSON.parse(resultText) as TrussResult;
-  } catch {
-    throw new ReportError(500, `The stored result of job ${jobId} is not valid JSON`);
-  }
-  if (result.format !== "strutwise.result" || !Array.isArray(result.members) || !Array.isArray(result.nodes))
-    throw new ReportError(500, `The stored result of job ${jobId} is not a Strutwise result file`);
-
-  // the model file adds connectivity, supports and the design block; the report still says
-  // what it can without it
-  let file: ModelFile | null = null;
+  // without the model file the report still says what it can
   const modelText = await getText(model.fileKey).catch(() => null);
-  if (modelText) {
-    try {
-      file = JSON.parse(modelText) as ModelFile;
-    } catch {
-      file = null;
-    }
-  }
 
   const reviewRows = await db()
     .select({ review: reviews, name: user.name, email: user.email })
@@ -70,7 +48,7 @@ export async function loadReportData(jobId: string, row?: JobWithModel): Promise
     .where(eq(reviews.jobId, jobId))
     .orderBy(...REVIEW_ORDER);
 
-  return {
+  const meta: ReportInputs["meta"] = {
     job: {
       id: job.id,
       status: job.status,
@@ -82,8 +60,7 @@ export async function loadReportData(jobId: string, row?: JobWithModel): Promise
       attempts: job.attempts,
     },
     project: { code: project.code, name: project.name, client: project.client },
-    model: { id: model.id, name: model.name, fileName: model.fileName, sha256: model.sha256, sizeBytes: model.sizeBytes, uploadedAt: model.createdAt, file },
-    result,
+    model: { id: model.id, name: model.name, fileName: model.fileName, sha256: model.sha256, sizeBytes: model.sizeBytes, uploadedAt: model.createdAt },
     reviews: reviewRows.map((r) => ({
       id: r.review.id,
       decision: r.review.decision,
@@ -93,6 +70,7 @@ export async function loadReportData(jobId: string, row?: JobWithModel): Promise
     })),
     generatedAt: new Date(),
   };
+  return { meta, resultText, modelText };
 }
 
 export function reportCacheKey(jobId: string, latestReviewId: string | null): string {
@@ -132,10 +110,13 @@ export async function renderReportFile(jobId: string): Promise<RenderedReport> {
   const hit = await getObject(key);
   if (hit && hit.byteLength > 0) return { bytes: hit, fileName, cacheKey: key, cached: true };
 
-  const data = await loadReportData(jobId, f);
-  const bytes = await buildReportPdf(data);
+  const inputs = await gatherReportInputs(jobId, f);
+  // drawn on a report thread: the web thread goes on answering other requests meanwhile
+  const drawn = await renderOnThread(inputs);
+  if (!drawn.ok) throw new ReportError(drawn.status, drawn.message);
+  const bytes = drawn.bytes;
   // a decision made while this report was being gathered is in it: file it under that state
-  const storedKey = reportCacheKey(jobId, data.reviews[data.reviews.length - 1]?.id ?? null);
+  const storedKey = reportCacheKey(jobId, inputs.meta.reviews[inputs.meta.reviews.length - 1]?.id ?? null);
   try {
     await putObject(storedKey, bytes, "application/pdf");
   } catch (e) {

@@ -47,8 +47,24 @@ export function drawingInput(result: TrussResult, model: ModelFile | null): Draw
   return { dim: model?.dimension ?? (result.nodes.some((n) => Math.abs(n.z ?? 0) > 0) ? 3 : 2), nodes, members, loadCase: lc?.id ?? "", loads };
 }
 
+/**
+ * Beyond this many members a drawing on a report page is a grey mass: at a line width of
+ * 0.5 pt across ~480 pt, more than a few thousand bars overlap and none can be told apart.
+ * Such a report says so and keeps the tables, which list every member.
+ */
+export const MAX_DRAWN_MEMBERS = 2500;
+
 export function trussDrawing(w: ReportWriter, input: DrawingInput, opts: { maxHeight?: number; title?: string } = {}) {
   const doc = w.doc;
+  if (input.members.length > MAX_DRAWN_MEMBERS) {
+    if (opts.title) w.heading(opts.title, 2);
+    w.paragraph(
+      `Not drawn: the model has ${input.members.length.toLocaleString("en-GB")} members, more than a report page shows legibly (at most ${MAX_DRAWN_MEMBERS.toLocaleString("en-GB")}). ` +
+        "The tables below list every member; the job page shows the truss in 3D.",
+      { face: "sans-italic", color: INK_MUTED },
+    );
+    return;
+  }
   if (input.members.length === 0) {
     if (opts.title) w.heading(opts.title, 2);
     w.paragraph("The drawing needs the members' end nodes, which neither the result nor the model file gave.", { face: "sans-italic", color: INK_MUTED });
