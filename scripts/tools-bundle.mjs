@@ -16,7 +16,7 @@ export const TOOL_ENTRIES = {
   analyze: "scripts/analyze.ts",
   "solve-task": "workers/solve-task.ts",
   "start-task": "workers/start-task.ts",
-  "report-task": "workers/report-task.ts",
+  "web-task": "workers/web-task.ts",
 };
 
 /** Files that change every bundle without being one of its inputs. */

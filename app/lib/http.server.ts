@@ -1,6 +1,7 @@
 // Small helpers for loaders and actions: assert and throw a Response instead of nesting ifs.
 // API routes answer { error, details } JSON (api.md); pages get the same Response and their
 // ErrorBoundary words it.
+import { DEPENDENCY_WORDS, DependencyUnavailableError, describeError, isDatabaseUnavailable, type Dependency } from "./dependencies";
 export interface ErrorDetail {
   path: string;
   message: string;
@@ -40,4 +41,37 @@ export async function readJson(request: Request): Promise<unknown> {
 /** zod issues → api.md details */
 export function zodDetails(issues: { path: PropertyKey[]; message: string }[]): ErrorDetail[] {
   return issues.map((i) => ({ path: i.path.map(String).join(".") || "(body)", message: i.message }));
+}
+
+/**
+ * A service the request needs did not answer: 503 naming it ("storage", "database", "mail"),
+ * with Retry-After, instead of a bare 500. Null for any other error.
+ */
+export function dependencyResponse(e: unknown): Response | null {
+  let dependency: Dependency | null = null;
+  let reason = "";
+  if (e instanceof DependencyUnavailableError) [dependency, reason] = [e.dependency, e.reason];
+  else if (isDatabaseUnavailable(e)) [dependency, reason] = ["database", describeError(e)];
+  if (!dependency) return null;
+  const words = DEPENDENCY_WORDS[dependency];
+  console.error(`[http] ${dependency} unavailable: ${reason}`);
+  return Response.json(
+    { error: `${words[0]!.toUpperCase()}${words.slice(1)} is not answering. Try again in a moment.`, dependency },
+    { status: 503, headers: { "Cache-Control": "no-store", "Retry-After": "5" } },
+  );
+}
+
+/**
+ * Wraps a loader or action so that an unavailable service becomes dependencyResponse's 503;
+ * Responses and every other error pass through unchanged.
+ */
+export function withDependencies<A extends unknown[], R>(fn: (...args: A) => Promise<R>): (...args: A) => Promise<R> {
+  return async (...args: A) => {
+    try {
+      return await fn(...args);
+    } catch (e) {
+      if (e instanceof Response) throw e;
+      throw dependencyResponse(e) ?? e;
+    }
+  };
 }

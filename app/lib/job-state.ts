@@ -8,6 +8,8 @@ export interface JobStateFacts {
   outcome?: string | null;
   /** a cancelled run whose best design so far was kept (the worker stores it) */
   hasResult?: boolean;
+  /** a queued job handed back because a service did not answer ("storage") */
+  waitingFor?: string | null;
 }
 
 export interface JobState {
@@ -27,6 +29,8 @@ function state(sentence: string, tone: StateTone): JobState {
 export function jobState(j: JobStateFacts): JobState {
   switch (j.status) {
     case "queued":
+      // handed back without spending an attempt; it runs again once the store answers
+      if (j.waitingFor === "storage") return state("waiting for storage — the file store is not answering; it runs once it is back", "caution");
       return state("waiting in the queue", "neutral");
     case "running":
       return state("running", "active");

@@ -12,7 +12,8 @@ import { memberScope, type Caller } from "~/lib/project-scope.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { getText, putObject, s3 } from "~/lib/storage.server";
 import { modelFileKey } from "~/lib/jobs/keys";
-import { checkModelBytes, tooLargeRefusal } from "~/lib/models/model-gate";
+import { checkModelUpload } from "~/lib/models/gate-on-thread.server";
+import { tooLargeRefusal } from "~/lib/models/model-gate";
 
 export { locateJsonError } from "~/lib/models/json-error";
 
@@ -79,7 +80,7 @@ export async function storeModel(
   if (!project[0]) {
     return { ok: false, status: 404, error: `Project ${projectId} not found`, details: [{ path: "projectId", message: "no such project" }] };
   }
-  const gate = checkModelBytes(fileName, bytes, limit);
+  const gate = await checkModelUpload(fileName, bytes, limit);
   if (!gate.ok) return gate;
   const { model, summary, warnings, sha256 } = gate;
 

@@ -8,12 +8,13 @@ import { ROLE_LABELS } from "~/lib/auth/permissions";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/account";
 import { RouteError } from "~/components/ui/RouteError";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Your account — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "manage:apikey:own");
   const keys = await listApiKeys(user.id);
   return {
@@ -27,9 +28,9 @@ export async function loader({ request }: Route.LoaderArgs) {
       revokedAt: k.revokedAt?.toISOString() ?? null,
     })),
   };
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "manage:apikey:own");
   const values = formObject(await request.formData());
   if (values.intent === "create") {
@@ -47,7 +48,7 @@ export async function action({ request }: Route.ActionArgs) {
   }
   if (values.intent === "password") return changePassword(request, values);
   return data({ newKey: null, message: "Unknown request", errors: {} as Record<string, string> }, { status: 400 });
-}
+});
 
 async function changePassword(request: Request, values: Record<string, string>) {
   const parsed = passwordChangeSchema.safeParse(values);

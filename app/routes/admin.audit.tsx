@@ -3,6 +3,7 @@ import { listAudit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import type { Route } from "./+types/admin.audit";
 import { RouteError } from "~/components/ui/RouteError";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Audit trail — Strutwise" }];
@@ -25,7 +26,7 @@ function describe(detail: unknown): string {
     .join(" · ");
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "read:audit");
   const sp = new URL(request.url).searchParams;
   const to = day(sp.get("to"));
@@ -42,7 +43,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     rows: rows.slice(0, PAGE).map((r) => ({ ...r, at: r.at.toISOString(), detail: describe(r.detail) })),
     nextBefore: more ? rows[PAGE - 1]!.id : null,
   };
-}
+});
 
 export default function AdminAudit({ loaderData }: Route.ComponentProps) {
   const { rows, nextBefore } = loaderData;

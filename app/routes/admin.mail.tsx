@@ -7,17 +7,18 @@ import { listUndeliveredMail, outboxCounts } from "~/lib/mail/outbox.server";
 import { UndeliveredMail } from "~/components/mail/UndeliveredMail";
 import { RouteError } from "~/components/ui/RouteError";
 import type { Route } from "./+types/admin.mail";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Mail — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   // the delivery record is part of the trail: whoever may read the audit trail may read it
   await requirePermission(request, "read:audit");
   const [counts, undelivered] = await Promise.all([outboxCounts(db()), listUndeliveredMail(db())]);
   return { counts, undelivered };
-}
+});
 
 export default function AdminMail({ loaderData }: Route.ComponentProps) {
   const { counts, undelivered } = loaderData;

@@ -7,12 +7,13 @@ import { changeRole, inviteUser, listOpenInvitations, listUsers, setBanned } fro
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/admin.users";
 import { RouteError } from "~/components/ui/RouteError";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "People and roles — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const me = await requirePermission(request, "manage:users");
   const [users, invites, keys] = await Promise.all([listUsers(), listOpenInvitations(), listAllLiveApiKeys()]);
   return {
@@ -21,9 +22,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     users: users.map((u) => ({ ...u, createdAt: u.createdAt.toISOString() })),
     invites: invites.map((i) => ({ email: i.email, role: i.role, createdAt: i.createdAt.toISOString() })),
   };
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const by = await requirePermission(request, "manage:users");
   const values = formObject(await request.formData());
   const intent = values.intent;
@@ -48,7 +49,7 @@ export async function action({ request }: Route.ActionArgs) {
     return data({ intent, ok, message: ok ? "The key is revoked." : "That key does not exist or is revoked already.", errors: {} }, { status: ok ? 200 : 404 });
   }
   return data({ intent, ok: false, message: `Unknown request "${intent ?? ""}"`, errors: {} }, { status: 400 });
-}
+});
 
 export default function AdminUsers({ loaderData }: Route.ComponentProps) {
   const { users, invites, meId, keys } = loaderData;

@@ -7,7 +7,7 @@ import { ErrorNote, Stat } from "~/components/ui/States";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { can } from "~/lib/auth/permissions";
 import { getCatalogue, retireCatalogue } from "~/lib/catalogues/catalogues.server";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import type { Route } from "./+types/catalogues.$catalogueId";
 import { plainText } from "~/lib/text-hygiene";
 
@@ -15,20 +15,20 @@ export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${plainText(data.catalogue.name)} — section catalogue — Strutwise` : "Section catalogue — Strutwise" }];
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:catalogue");
   const catalogue = await getCatalogue(params.catalogueId);
   if (!catalogue) notFound(`Catalogue ${params.catalogueId}`);
   return { catalogue, mayRetire: can(user.role, "manage:catalogue") && !catalogue.builtIn && !catalogue.retiredAt };
-}
+});
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "manage:catalogue");
   const form = await request.formData();
   const r = await retireCatalogue({ id: params.catalogueId, reason: String(form.get("reason") ?? ""), user, request });
   if (!r.ok) return data({ error: r.error }, { status: r.status });
   return { ok: true as const };
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="catalogue" />;

@@ -9,18 +9,19 @@ import { requirePermission } from "~/lib/auth/authorize.server";
 import { can } from "~/lib/auth/permissions";
 import { listCatalogues, storeCatalogue } from "~/lib/catalogues/catalogues.server";
 import type { Route } from "./+types/catalogues._index";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Section catalogues — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:catalogue");
   const showRetired = new URL(request.url).searchParams.get("retired") === "1";
   return { catalogues: await listCatalogues({ includeRetired: showRetired }), showRetired, mayManage: can(user.role, "manage:catalogue") };
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "manage:catalogue");
   const form = await request.formData();
   const file = form.get("file");
@@ -37,7 +38,7 @@ export async function action({ request }: Route.ActionArgs) {
   });
   if (!stored.ok) return data<CatalogueUploadResult>({ error: stored.error, details: stored.details }, { status: stored.status });
   throw redirect(`/catalogues/${stored.catalogue.id}`);
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="catalogue list" />;

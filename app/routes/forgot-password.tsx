@@ -3,12 +3,13 @@ import { callAuthEndpoint } from "~/lib/auth/auth.server";
 import { fieldErrors, forgotPasswordSchema, formObject } from "~/lib/auth/forms";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/forgot-password";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Reset your password — Strutwise" }];
 }
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const values = formObject(await request.formData());
   const parsed = forgotPasswordSchema.safeParse(values);
   if (!parsed.success) return data({ sent: false, errors: fieldErrors(parsed.error) }, { status: 400 });
@@ -16,7 +17,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (res.status === 429) return data({ sent: false, errors: { form: `Too many requests from here. Wait ${res.retryAfter ?? 60} seconds.` } }, { status: 429 });
   // The same answer whether or not the address has an account, so this form cannot be used to probe.
   return { sent: true, errors: {} as Record<string, string> };
-}
+});
 
 export default function ForgotPassword() {
   const result = useActionData<typeof action>();

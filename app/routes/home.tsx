@@ -13,6 +13,7 @@ import { listProjects } from "~/lib/auth/projects.server";
 import { listJobs } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/home";
 import { RouteError } from "~/components/ui/RouteError";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta(_: Route.MetaArgs) {
   return [{ title: "Strutwise — truss optimization desk" }];
@@ -20,7 +21,7 @@ export function meta(_: Route.MetaArgs) {
 
 // The desk: what waits for me (reviews for checkers), the latest runs (my own for
 // engineers), and the projects. Signed out, a short word on what this is.
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
   if (!user) return { user: null };
   const reviewer = can(user.role, "review:job");
@@ -49,7 +50,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     projects: projects.slice(0, 9).map((p) => ({ id: p.id, code: p.code, name: p.name, client: p.client, createdAt: p.createdAt.toISOString() })),
     projectCount: projects.length,
   };
-}
+});
 
 export default function Home({ loaderData }: Route.ComponentProps) {
   if (!loaderData.user) return <Welcome />;

@@ -29,7 +29,7 @@ import { assertPermission, requireJob } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
 import { createReview, listReviews, reopenReview } from "~/lib/auth/reviews.server";
 import type { TrussResult } from "~/engine/design/result-types";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
 import { getModelFile } from "~/lib/models.server";
 import type { Route } from "./+types/jobs.$jobId";
@@ -79,7 +79,7 @@ function headOf(r: TrussResult) {
   };
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   const { user } = await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
@@ -116,6 +116,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       hasResult: job.hasResult,
       kind: job.kind,
       modelVersion: job.modelVersion,
+      waitingFor: job.waitingFor,
     },
     facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
     tolerance: toleranceOf(text, job.options),
@@ -132,7 +133,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       newVersion: can(user.role, "create:model"),
     },
   };
-}
+});
 
 async function errorOf(e: unknown): Promise<{ status: number; error: string; details?: { path: string; message: string }[] }> {
   if (e instanceof Response) {
@@ -142,7 +143,7 @@ async function errorOf(e: unknown): Promise<{ status: number; error: string; det
   throw e;
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   const { user } = await requireJob(request, params.jobId, "read:job");
   const form = await request.formData();
   const intent = form.get("intent");
@@ -183,7 +184,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     }
   }
   return data({ error: "Unknown action" }, { status: 400 });
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="job" />;
@@ -241,7 +242,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         </p>
         <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-semibold sm:text-3xl">
           <span>{job.kind === "analysis" ? "Analysis" : "Job"} {job.id.slice(0, 8)}</span>
-          <JobStateBadge status={shownStatus} outcome={shownStatus === job.status ? job.outcome : null} hasResult={job.hasResult} />
+          <JobStateBadge status={shownStatus} outcome={shownStatus === job.status ? job.outcome : null} hasResult={job.hasResult} waitingFor={job.waitingFor} />
           {reviewable && <ReviewBadge decision={current?.decision} />}
         </h1>
         <p className="mt-2 text-sm text-ink-muted">

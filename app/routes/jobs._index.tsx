@@ -9,6 +9,7 @@ import { listProjects } from "~/lib/auth/projects.server";
 import { REVIEW_FILTERS, type ReviewFilter } from "~/lib/job-state";
 import { listJobs } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs._index";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Jobs — Strutwise" }];
@@ -18,7 +19,7 @@ const PAGE = 25;
 
 // Filters and the page cursor live in the address (server-side), so a filtered view can be
 // bookmarked and shared; sorting within the page happens in the browser.
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:job");
   const sp = new URL(request.url).searchParams;
   const status = sp.get("status") ?? "";
@@ -44,7 +45,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     projects: projects.map((p) => ({ id: p.id, code: p.code, name: p.name })),
     pollUrl: `/api/jobs?${api}`,
   };
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="job list" />;

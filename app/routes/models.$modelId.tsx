@@ -16,7 +16,7 @@ import { projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import { requireModel } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import { enqueueJob, listJobs } from "~/lib/jobs/queue.server";
 import { getModel, getModelFile } from "~/lib/models.server";
 import { ModelVersions } from "~/components/editor/ModelVersions";
@@ -55,7 +55,7 @@ interface SummaryLike {
   stability?: { ok: boolean; message: string; node?: string; axis?: string };
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   const { user } = await requireModel(request, params.modelId, "read:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
@@ -127,9 +127,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     jobs: await toJobRows(jobs.jobs),
     may: { queue: can(user.role, "create:job") && model.hasDesign, canCreateJob: can(user.role, "create:job"), edit: can(user.role, "create:model") },
   };
-}
+});
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   const { user } = await requireModel(request, params.modelId, "create:job");
   const form = await request.formData();
   const parsed = parseQueueForm((n) => form.get(n));
@@ -145,7 +145,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     }
     throw e;
   }
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="model" />;

@@ -15,7 +15,7 @@ import { addMember, listMembers, removeMember } from "~/lib/members.server";
 import { MembersPanel } from "~/components/project/MembersPanel";
 import { can } from "~/lib/auth/permissions";
 import { config } from "~/lib/config.server";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import { listJobs } from "~/lib/jobs/queue.server";
 import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
 import type { Route } from "./+types/projects.$projectId";
@@ -25,7 +25,7 @@ export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${data.project.code} ${plainText(data.project.name)} — Strutwise` : "Project — Strutwise" }];
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   const { user } = await requireProject(request, params.projectId, "read:project");
   const [row] = await db()
     .select({ project: projects, createdByName: users.name })
@@ -50,12 +50,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     mayManageMembers: managesMembers(user, row.project),
     catalogues: can(user.role, "create:model") ? (await listCatalogues()).map((c) => ({ id: c.id, name: c.name, sectionCount: c.sectionCount, families: c.families })) : [],
   };
-}
+});
 
 // Multipart bodies carry a little framing around the file; allow for it before refusing.
 const FRAMING_ALLOWANCE = 64 * 1024;
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   // the members panel posts a plain form; an upload is multipart
   if (/application\/x-www-form-urlencoded/i.test(request.headers.get("content-type") ?? "")) return membersAction(request, params.projectId);
   const { user } = await requireProject(request, params.projectId, "create:model");
@@ -77,7 +77,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const m = res.model;
   await auditUpload(request, user, m);
   throw redirect(`/models/${m.id}`);
-}
+});
 
 async function membersAction(request: Request, projectId: string) {
   const { user, project } = await requireProject(request, projectId, "read:project");

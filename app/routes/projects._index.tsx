@@ -7,12 +7,13 @@ import { createProject, listProjects } from "~/lib/auth/projects.server";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/projects._index";
 import { RouteError } from "~/components/ui/RouteError";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Projects — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:project");
   const q = new URL(request.url).searchParams.get("q") ?? "";
   const rows = await listProjects({ q, visibleTo: user });
@@ -29,9 +30,9 @@ export async function loader({ request }: Route.LoaderArgs) {
       createdByName: p.createdByName,
     })),
   };
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "create:project");
   const values = formObject(await request.formData());
   const parsed = projectSchema.safeParse(values);
@@ -39,7 +40,7 @@ export async function action({ request }: Route.ActionArgs) {
   const res = await createProject(parsed.data, user, { request });
   if (!res.ok) return data({ ok: false as const, errors: { [res.field]: res.message } as FieldErrors, values }, { status: 409 });
   return { ok: true as const, created: res.project.code, errors: {} as FieldErrors, values: {} as Record<string, string> };
-}
+});
 
 export default function Projects({ loaderData }: Route.ComponentProps) {
   const { projects, q, canCreate } = loaderData;

@@ -3,12 +3,13 @@ import { callAuthEndpoint } from "~/lib/auth/auth.server";
 import { fieldErrors, formObject, resetPasswordSchema } from "~/lib/auth/forms";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/reset-password";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Choose a new password — Strutwise" }];
 }
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const values = formObject(await request.formData());
   const parsed = resetPasswordSchema.safeParse(values);
   if (!parsed.success) return data({ done: false, errors: fieldErrors(parsed.error) }, { status: 400 });
@@ -17,7 +18,7 @@ export async function action({ request }: Route.ActionArgs) {
     return data({ done: false, errors: { form: "This reset link is used up or has expired. Ask for a new one." } as Record<string, string> }, { status: 400 });
   }
   return { done: true, errors: {} as Record<string, string> };
-}
+});
 
 export default function ResetPassword() {
   const result = useActionData<typeof action>();

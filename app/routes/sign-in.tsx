@@ -5,18 +5,19 @@ import { fieldErrors, formObject, signInSchema, type FieldErrors } from "~/lib/a
 import { safeRedirect } from "~/lib/auth/redirect-target";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/sign-in";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Sign in — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
   if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get("redirectTo")));
   return null;
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const values = formObject(await request.formData());
   const parsed = signInSchema.safeParse(values);
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error), email: values.email ?? "" }, { status: 400 });
@@ -38,7 +39,7 @@ export async function action({ request }: Route.ActionArgs) {
     errors.form = "Signing in failed on our side. Try again in a moment.";
   }
   return data({ errors, email }, { status: res.status === 429 ? 429 : 400 });
-}
+});
 
 export default function SignIn() {
   const result = useActionData<typeof action>();

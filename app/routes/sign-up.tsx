@@ -6,12 +6,13 @@ import { signUpMode } from "~/lib/config.server";
 import { fieldErrors, formObject, signUpSchema, type FieldErrors } from "~/lib/auth/forms";
 import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/sign-up";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Create an account — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   if (await getUser(request)) throw redirect("/projects");
   const mode = signUpMode();
   return {
@@ -24,9 +25,9 @@ export async function loader({ request }: Route.LoaderArgs) {
           ? `Accounts are for addresses at ${mode.domains.join(", ")}, and for invited addresses.`
           : "Accounts are by invitation: use the address an administrator invited.",
   };
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   const values = formObject(await request.formData());
   const parsed = signUpSchema.safeParse(values);
   const keep = { name: values.name ?? "", email: values.email ?? "" };
@@ -45,7 +46,7 @@ export async function action({ request }: Route.ActionArgs) {
   else if (code.includes("PASSWORD")) errors.password = "Choose a password of 10 to 128 characters.";
   else errors.form = "The account could not be created. Check the fields and try again.";
   return data({ errors, ...keep }, { status: res.status === 429 ? 429 : 400 });
-}
+});
 
 export default function SignUp({ loaderData }: Route.ComponentProps) {
   const result = useActionData<typeof action>();

@@ -27,6 +27,7 @@ export interface JobListRow {
   /** the review decision in force, null when none */
   review?: string | null;
   hasResult?: boolean;
+  waitingFor?: string | null;
   /** the model's units, for the objective's unit */
   units?: { length: string; force: string; mass: string } | null;
 }
@@ -108,7 +109,7 @@ export function JobsList({
           const r = c.row.original;
           return (
             <span className="flex flex-wrap items-center gap-1.5" data-testid="job-status">
-              <JobStateBadge status={r.status} outcome={r.outcome} hasResult={r.hasResult} />
+              <JobStateBadge status={r.status} outcome={r.outcome} hasResult={r.hasResult} waitingFor={r.waitingFor} />
               {r.status === "running" && r.progress?.iteration != null && <span className="font-mono text-2xs text-ink-muted">it. {r.progress.iteration}</span>}
             </span>
           );

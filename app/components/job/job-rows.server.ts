@@ -35,6 +35,7 @@ export async function toJobRows(jobs: JobView[]): Promise<JobListRow[]> {
     gap: j.summary?.lowerBoundGap ?? null,
     progress: j.progress,
     hasResult: j.hasResult,
+    waitingFor: j.waitingFor,
     review: decisions.get(j.id) ?? null,
     units: unitsOf.get(j.modelId) ?? null,
   }));

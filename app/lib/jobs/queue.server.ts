@@ -49,6 +49,8 @@ export interface JobView {
   summary: JobSummary | null;
   progress: JobProgressView | null;
   hasResult: boolean;
+  /** set while a queued job waits for a service that did not answer ("storage") */
+  waitingFor: string | null;
 }
 
 export interface Actor {
@@ -95,6 +97,7 @@ export function toJobView(r: JobRow, extra: { modelName?: string | null; project
           },
     // a run stopped on request keeps its best design so far (stored by the worker)
     hasResult: (r.status === "succeeded" || r.status === "cancelled") && r.resultKey !== null,
+    waitingFor: r.status === "queued" ? r.waitingFor : null,
   };
 }
 

@@ -10,7 +10,7 @@ import { config } from "~/lib/config.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { modelVersionFileKey } from "~/lib/jobs/keys";
 import { getText, putObject, s3 } from "~/lib/storage.server";
-import { checkModelBytes } from "./model-gate";
+import { checkModelUpload } from "./gate-on-thread.server";
 
 export type ModelVersionRow = typeof modelVersions.$inferSelect;
 
@@ -66,7 +66,7 @@ export async function createModelVersion(
   if (note && note.length > NOTE_MAX) {
     return { ok: false, status: 400, error: `The note is ${note.length} characters; at most ${NOTE_MAX} fit`, details: [{ path: "note", message: `at most ${NOTE_MAX} characters` }] };
   }
-  const gate = checkModelBytes(input.fileName, input.bytes, config().UPLOAD_LIMIT_BYTES);
+  const gate = await checkModelUpload(input.fileName, input.bytes, config().UPLOAD_LIMIT_BYTES);
   if (!gate.ok) return gate;
   const { model: parsed, summary, warnings, sha256 } = gate;
 

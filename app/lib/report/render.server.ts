@@ -6,7 +6,7 @@ import { db } from "~/db/client.server";
 import { reviews, user } from "~/db/schema";
 import { loadJobWithModel, type JobWithModel } from "~/lib/job-with-model.server";
 import { getObject, getText, putObject } from "~/lib/storage.server";
-import { renderOnThread } from "./pool.server";
+import { renderReportOnThread } from "~/lib/web-pool.server";
 import type { ReportData } from "./report-data";
 import { ReportError, reportDataFromInputs, type ReportInputs } from "./report-inputs";
 
@@ -112,7 +112,7 @@ export async function renderReportFile(jobId: string): Promise<RenderedReport> {
 
   const inputs = await gatherReportInputs(jobId, f);
   // drawn on a report thread: the web thread goes on answering other requests meanwhile
-  const drawn = await renderOnThread(inputs);
+  const drawn = await renderReportOnThread(inputs);
   if (!drawn.ok) throw new ReportError(drawn.status, drawn.message);
   const bytes = drawn.bytes;
   // a decision made while this report was being gathered is in it: file it under that state

@@ -2,12 +2,12 @@
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { getCatalogue } from "~/lib/catalogues/catalogues.server";
 import { CATALOGUE_UNITS } from "~/lib/catalogues/types";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import type { Route } from "./+types/catalogues.$catalogueId";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requirePermission(request, "read:catalogue");
   const catalogue = await getCatalogue(params.catalogueId);
   if (!catalogue) notFound(`Catalogue ${params.catalogueId}`);
   return Response.json({ ...catalogue, units: CATALOGUE_UNITS });
-}
+});

@@ -4,16 +4,16 @@ import { MaxFileSizeExceededError, parseFormData, type FileUpload } from "@mjack
 import { requirePermission } from "~/lib/auth/authorize.server";
 import { listCatalogues, storeCatalogue } from "~/lib/catalogues/catalogues.server";
 import { config } from "~/lib/config.server";
-import { jsonError } from "~/lib/http.server";
+import { jsonError, withDependencies } from "~/lib/http.server";
 import type { Route } from "./+types/catalogues";
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "read:catalogue");
   const retired = new URL(request.url).searchParams.get("retired");
   return Response.json({ catalogues: await listCatalogues({ includeRetired: retired === "1" || retired === "true" }) });
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to upload a catalogue`);
   const user = await requirePermission(request, "manage:catalogue");
   if (!/^multipart\/form-data/i.test(request.headers.get("content-type") ?? "")) {
@@ -44,4 +44,4 @@ export async function action({ request }: Route.ActionArgs) {
   });
   if (!stored.ok) return jsonError(stored.status, stored.error, stored.details);
   return Response.json(stored.catalogue, { status: 201 });
-}
+});

@@ -2,10 +2,11 @@
 import { GENERATORS, parameterSchema } from "~/engine/generators";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import type { Route } from "./+types/generators";
+import { withDependencies } from "~/lib/http.server";
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "read:model");
   return Response.json({
     generators: GENERATORS.map((g) => ({ kind: g.kind, name: g.name, description: g.description, parameters: parameterSchema(g) })),
   });
-}
+});

@@ -1,11 +1,11 @@
 // GET /api/jobs/:jobId/report: the calculation record (PDF) of a succeeded job (api.md),
 // generated from the stored result and cached in the bucket per review state.
 import { requireJob } from "~/lib/access.server";
-import { jsonError } from "~/lib/http.server";
+import { jsonError, withDependencies, dependencyResponse } from "~/lib/http.server";
 import { renderReportFile, ReportError } from "~/lib/report/render.server";
 import type { Route } from "./+types/jobs.$jobId.report";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requireJob(request, params.jobId, "read:job");
   try {
     const report = await renderReportFile(params.jobId);
@@ -22,7 +22,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     });
   } catch (e) {
     if (e instanceof ReportError) return jsonError(e.status, e.message);
+    const unavailable = dependencyResponse(e);
+    if (unavailable) return unavailable;
     console.error(`[report] job ${params.jobId}: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`);
     return jsonError(500, `The report of job ${params.jobId} could not be generated; the error is logged on the server`);
   }
-}
+});

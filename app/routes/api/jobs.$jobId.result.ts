@@ -1,10 +1,10 @@
 // GET /api/jobs/:jobId/result: the result JSON of truss-format.md; 409 while there is none.
 import { requireJob } from "~/lib/access.server";
-import { jsonError, notFound } from "~/lib/http.server";
+import { jsonError, notFound, withDependencies } from "~/lib/http.server";
 import { getJob, getJobResultText } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs.$jobId.result";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
@@ -25,4 +25,4 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       ...(download ? { "Content-Disposition": `attachment; filename="job-${job.id}.result.json"` } : {}),
     },
   });
-}
+});

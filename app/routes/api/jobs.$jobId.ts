@@ -1,14 +1,14 @@
 // GET /api/jobs/:jobId: status, outcome, latest progress, summary and review decisions.
 import { requireJob } from "~/lib/access.server";
 import { listReviews } from "~/lib/auth/reviews.server";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import { getJob } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs.$jobId";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requireJob(request, params.jobId, "read:job");
   const job = await getJob(params.jobId);
   if (!job) notFound(`Job ${params.jobId}`);
   const reviews = await listReviews(job.id);
   return Response.json({ ...job, reviews }, { headers: { "Cache-Control": "no-store" } });
-}
+});

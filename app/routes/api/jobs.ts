@@ -3,7 +3,7 @@ import { z } from "zod";
 import { JOB_STATUSES } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import { assertModelVisible, assertProjectVisible, requirePermission } from "~/lib/access.server";
-import { jsonError, readJson, zodDetails } from "~/lib/http.server";
+import { jsonError, readJson, zodDetails, withDependencies } from "~/lib/http.server";
 import { enqueueJob, LIST_LIMIT_MAX, listJobsJson } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs";
 
@@ -26,7 +26,7 @@ const submitSchema = z.object({
   options: z.record(z.string(), z.unknown()).optional(),
 });
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:job");
   const params = Object.fromEntries([...new URL(request.url).searchParams].filter(([, v]) => v !== ""));
   const q = listQuerySchema.safeParse(params);
@@ -34,9 +34,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   if (q.data.projectId) await assertProjectVisible(user, q.data.projectId);
   const body = await listJobsJson({ ...q.data, visibleTo: user });
   return new Response(body, { headers: { "Content-Type": "application/json", "Cache-Control": "no-store" } });
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to queue a job`);
   const user = await requirePermission(request, "create:job");
   const body = submitSchema.safeParse(await readJson(request));
@@ -46,4 +46,4 @@ export async function action({ request }: Route.ActionArgs) {
   const job = await enqueueJob({ modelId, version, kind, options, user });
   await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, version: job.modelVersion, kind: job.kind, options: job.options } });
   return Response.json({ id: job.id, status: job.status }, { status: 202, headers: { Location: `/api/jobs/${job.id}` } });
-}
+});

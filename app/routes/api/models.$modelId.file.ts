@@ -1,11 +1,11 @@
 // GET /api/models/:modelId/file[?version=N]: one version's JSON exactly as it was stored
 // (the latest without a version).
 import { requireModel } from "~/lib/access.server";
-import { badRequest, notFound } from "~/lib/http.server";
+import { badRequest, notFound, withDependencies } from "~/lib/http.server";
 import { getModelVersionFile } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.file";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requireModel(request, params.modelId, "read:model");
   const raw = new URL(request.url).searchParams.get("version");
   let version: number | null = null;
@@ -25,4 +25,4 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       "Cache-Control": version === null ? "private, no-cache" : "private, max-age=3600",
     },
   });
-}
+});

@@ -2,20 +2,20 @@
 // GET lists the versions.
 import { audit } from "~/lib/auth/audit.server";
 import { requireModel } from "~/lib/access.server";
-import { jsonError, notFound } from "~/lib/http.server";
+import { jsonError, notFound, withDependencies } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
 import { readUploadForm } from "~/lib/models/upload-form.server";
 import { createModelVersion, listModelVersions } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.versions";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requireModel(request, params.modelId, "read:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
   return Response.json({ versions: await listModelVersions(model.id) });
-}
+});
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to add a version`);
   const { user } = await requireModel(request, params.modelId, "create:model");
   const read = await readUploadForm(request, ["file"], "the new version with the fields 'file' and 'note'");
@@ -31,4 +31,4 @@ export async function action({ request, params }: Route.ActionArgs) {
     { id: created.modelId, version: v.version, sha256: v.sha256, summary: v.summary, warnings: v.warnings, note: v.note },
     { status: 201, headers: { Location: `/api/models/${created.modelId}/file?version=${v.version}` } },
   );
-}
+});

@@ -2,22 +2,22 @@
 import { MaxFileSizeExceededError, parseFormData, type FileUpload } from "@mjackson/form-data-parser";
 import { assertProjectVisible, requirePermission } from "~/lib/access.server";
 import { config } from "~/lib/config.server";
-import { jsonError } from "~/lib/http.server";
+import { jsonError, withDependencies } from "~/lib/http.server";
 import { listModels, auditUpload, storeModel, uploadTooLarge } from "~/lib/models.server";
 import { sectionsFromUploadForm } from "~/lib/catalogues/catalogues.server";
 import type { Route } from "./+types/models";
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:model");
   const projectId = new URL(request.url).searchParams.get("projectId") ?? undefined;
   if (projectId) await assertProjectVisible(user, projectId);
   return Response.json({ models: await listModels({ projectId, visibleTo: user }) });
-}
+});
 
 // room for the form's other field and the multipart framing around the file
 const FORM_OVERHEAD_BYTES = 64 * 1024;
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST to upload a model`);
   const user = await requirePermission(request, "create:model");
   if (!/^multipart\/form-data/i.test(request.headers.get("content-type") ?? "")) {
@@ -65,4 +65,4 @@ export async function action({ request }: Route.ActionArgs) {
     const r = uploadTooLarge(null, null, limit);
     return jsonError(413, r.error, r.details);
   }
-}
+});

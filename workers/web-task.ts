@@ -1,12 +1,14 @@
-// A piscina task in the web process's report pool (app/lib/report/pool.server.ts): parse the
-// stored result and model file and draw the calculation record, off the request thread.
-// Errors come back as values: a class does not survive the trip between threads.
+// Tasks of the web process's thread pool (app/lib/web-pool.server.ts): the work a request
+// may need that takes more than a few milliseconds of CPU. Each is a named export piscina
+// calls by name. Errors come back as values: a class does not survive the trip between threads.
 import { buildReportPdf } from "~/lib/report/document";
 import { reportDataFromInputs, ReportError, type ReportInputs } from "~/lib/report/report-inputs";
+import { checkModelBytes, type GateResult } from "~/lib/models/model-gate";
 
 export type ReportTaskOutput = { ok: true; bytes: Uint8Array } | { ok: false; status: 404 | 409 | 500; message: string };
 
-export default async function renderReportTask(input: ReportInputs): Promise<ReportTaskOutput> {
+/** Parse the stored result and model file and draw the calculation record. */
+export async function renderReport(input: ReportInputs): Promise<ReportTaskOutput> {
   try {
     // the bytes are copied back to the web thread (a few MB at most: cheap next to drawing)
     return { ok: true, bytes: await buildReportPdf(reportDataFromInputs(input)) };
@@ -15,4 +17,9 @@ export default async function renderReportTask(input: ReportInputs): Promise<Rep
     console.error(`[report] job ${input.meta.job.id}: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`);
     return { ok: false, status: 500, message: `The report of job ${input.meta.job.id} could not be drawn; the error is logged on the server` };
   }
+}
+
+/** The upload gate (decode, parse, validate) of a large model file. */
+export function checkModel(input: { fileName: string; bytes: Uint8Array; limitBytes: number }): GateResult {
+  return checkModelBytes(input.fileName, input.bytes, input.limitBytes);
 }
