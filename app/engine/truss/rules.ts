@@ -1,6 +1,7 @@
 // Cross-reference rules of truss-format.md that a per-field schema cannot express. They run on
 // the raw input as well as it can be read, so they report alongside the schema's errors.
 import type { IssueList } from "./issues";
+import { checkMagnitudes } from "./magnitudes";
 
 type Obj = Record<string, unknown>;
 const isObj = (v: unknown): v is Obj => typeof v === "object" && v !== null && !Array.isArray(v);
@@ -35,6 +36,7 @@ export function checkReferences(raw: unknown, errors: IssueList): void {
   const sections = list(raw.sections);
   const sectionIds = duplicates(errors, sections, ["sections"], "section");
   checkCombinations(list(raw.combinations), caseIds, errors);
+  checkMagnitudes(raw, errors);
 
   members.forEach((m, e) => {
     const a = str(m.start);
