@@ -1,6 +1,7 @@
 // Small helpers for loaders and actions: assert and throw a Response instead of nesting ifs.
 // API routes answer { error, details } JSON (api.md); pages get the same Response and their
 // ErrorBoundary words it.
+import { findTooDeep, tooDeepMessage } from "./json-depth";
 import { DEPENDENCY_WORDS, DependencyUnavailableError, describeError, isDatabaseUnavailable, type Dependency } from "./dependencies";
 export interface ErrorDetail {
   path: string;
@@ -31,6 +32,8 @@ export function invariantResponse(condition: unknown, status: number, error: str
 export async function readJson(request: Request): Promise<unknown> {
   const text = await request.text();
   if (!text.trim()) return {};
+  const deep = findTooDeep(text);
+  if (deep) badRequest(tooDeepMessage("The request body", deep), [{ path: `(body) line ${deep.line}, column ${deep.column}`, message: "nested too deeply" }]);
   try {
     return JSON.parse(text);
   } catch {

@@ -3,7 +3,7 @@ import { listAudit } from "~/lib/auth/audit.server";
 import { requirePermission } from "~/lib/auth/authorize.server";
 import type { Route } from "./+types/admin.audit";
 import { RouteError } from "~/components/ui/RouteError";
-import { withDependencies } from "~/lib/http.server";
+import { withDependencies, badRequest } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Audit trail — Strutwise" }];
@@ -26,6 +26,14 @@ function describe(detail: unknown): string {
     .join(" · ");
 }
 
+/** The "older than" cursor: a positive whole entry id, or a 400 naming the parameter. */
+function beforeId(raw: string | null): number | undefined {
+  if (raw === null || raw === "") return undefined;
+  const n = Number(raw);
+  if (!Number.isSafeInteger(n) || n < 1) badRequest(`before must be a whole entry number from 1; got "${raw.slice(0, 40)}"`, [{ path: "before", message: "not an entry number" }]);
+  return n;
+}
+
 export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   await requirePermission(request, "read:audit");
   const sp = new URL(request.url).searchParams;
@@ -35,7 +43,7 @@ export const loader = withDependencies(async function loader({ request }: Route.
     actor: sp.get("actor") || undefined,
     from: day(sp.get("from")),
     to: to ? new Date(to.getTime() + 86_400_000) : undefined, // the "to" day is included
-    before: Number(sp.get("before")) || undefined,
+    before: beforeId(sp.get("before")),
     limit: PAGE + 1,
   });
   const more = rows.length > PAGE;

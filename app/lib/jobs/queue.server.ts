@@ -195,9 +195,14 @@ function encodeCursor(j: JobView): string {
 }
 
 export function decodeCursor(cursor: string): { at: Date; id: string } | null {
+  // a cursor is base64url of "<ms>:<job id>"; anything else (other alphabets, a time beyond
+  // what a Date holds, a control character) is not one of ours
+  if (cursor.length > 200 || !/^[A-Za-z0-9_-]+$/.test(cursor)) return null;
   const text = Buffer.from(cursor, "base64url").toString("utf8");
-  const m = /^(\d{1,16}):(.+)$/.exec(text);
-  return m ? { at: new Date(Number(m[1])), id: m[2]! } : null;
+  const m = /^(\d{1,15}):([\w-]{1,100})$/.exec(text);
+  if (!m) return null;
+  const at = new Date(Number(m[1]));
+  return Number.isFinite(at.getTime()) ? { at, id: m[2]! } : null;
 }
 
 export interface JobPage {

@@ -5,6 +5,7 @@ import { createHash } from "node:crypto";
 import { parseModel, type ModelSummary, type TrussModel } from "~/engine/truss";
 import type { ErrorDetail } from "~/lib/http.server";
 import { locateJsonError } from "./json-error";
+import { findTooDeep, tooDeepMessage } from "~/lib/json-depth";
 
 export type GateResult =
   | { ok: true; model: TrussModel; summary: ModelSummary; warnings: ErrorDetail[]; sha256: string; sizeBytes: number }
@@ -31,6 +32,8 @@ export function checkModelBytes(fileName: string, bytes: Uint8Array, limitBytes:
   }
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1); // editors on some systems add a BOM
 
+  const deep = findTooDeep(text);
+  if (deep) return invalid(tooDeepMessage(`The file ${fileName}`, deep), [{ path: `(file) line ${deep.line}, column ${deep.column}`, message: "nested too deeply" }]);
   let json: unknown;
   try {
     json = JSON.parse(text);
