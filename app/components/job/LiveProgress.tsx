@@ -9,6 +9,7 @@ import { ProgressBar } from "~/components/ui/ProgressBar";
 import { JobStateBadge } from "~/components/ui/StatusBadge";
 import { ErrorNote } from "~/components/ui/States";
 import type { LiveJob } from "./types";
+import { minOf } from "~/engine/util/extent";
 
 const TERMINAL = new Set(["succeeded", "failed", "cancelled"]);
 
@@ -168,6 +169,6 @@ export function convergenceShare(points: ConvergencePoint[], tolerance: number):
   const first = Math.log10(kkt[0]!);
   const goal = Math.log10(tolerance);
   if (first <= goal) return 1;
-  const now = Math.log10(Math.min(...kkt));
+  const now = Math.log10(minOf(kkt));
   return Math.min(1, Math.max(0, (first - now) / (first - goal)));
 }

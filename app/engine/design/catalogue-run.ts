@@ -11,6 +11,7 @@ import { buildResult, prepareRun, type OptimizeOptions, type PreparedRun } from 
 import { searchCatalogue } from "./catalogue-search";
 import type { DesignModel } from "./model-shape";
 import type { TrussModel } from "../truss";
+import { maxOf } from "../util/extent";
 
 export function optimizeCatalogue(model: TrussModel | DesignModel, options: OptimizeOptions = {}): TrussResult {
   const t0 = Date.now();
@@ -44,7 +45,7 @@ export function optimizeCatalogue(model: TrussModel | DesignModel, options: Opti
     x,
     ineq: found.limitValues,
     multipliers: { eq: zeros(r.multipliers.eq.length), ineq: zeros(r.multipliers.ineq.length), lower: zeros(r.multipliers.lower.length), upper: zeros(r.multipliers.upper.length) },
-    maxViolation: Math.max(0, ...found.limitValues),
+    maxViolation: Math.max(0, maxOf(found.limitValues)),
   };
   const catRun: PreparedRun = { ...run, design: pc, counters: { ...run.counters, analyses: run.counters.analyses + found.analyses } };
   const result = buildResult(catRun, point, Date.now() - t0);

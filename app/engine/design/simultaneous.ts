@@ -35,6 +35,7 @@ import { internalForceByGeometry, memberLengths } from "./element";
 import { Partials, limitPartials, limitValue, massPartials, objectiveValue, type LimitState } from "./limits";
 import { designState, type DesignProblem } from "./problem";
 import type { Counters, Formulation } from "./nested";
+import { appendAll } from "../util/extent";
 
 const AXIS = ["x", "y", "z"];
 
@@ -136,7 +137,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
       for (let k = 0; k < nFree; k++) u[freeDofs[k]] = u0[freeDofs[k]] + uRef[l] * (z[off + k] - 1);
       displacements.push(u);
     }
-    if (s.combinations.length > 0) displacements.push(...combineVectors(s.combinations, displacements));
+    if (s.combinations.length > 0) appendAll(displacements, combineVectors(s.combinations, displacements));
     return { areas, coords, lengths, volume, displacements, loads: caseLoads(s, areas, lengths) };
   }
   const weightPerLength = new Float64Array(m); // g rho / 2: a member end's own weight per unit A L

@@ -17,6 +17,7 @@ import type { LpSolver } from "./solver";
 import type { BoundOutcome } from "./outcome";
 import { plasticInputFromModel, resultCoords } from "./from-model";
 import { solvePlasticDesign } from "./plastic";
+import { maxOf } from "../util/extent";
 
 export function complianceLowerBound(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver): BoundOutcome {
   const volumeMax = options.volumeMax ?? model.design?.constraints?.volume?.max;
@@ -32,7 +33,7 @@ export function complianceLowerBound(model: TrussModel, result: TrussResult, opt
   const m = input.memberIds.length;
   const unit = new Float64Array(m).fill(1);
   const own = Int32Array.from({ length: m }, (_, e) => e);
-  const eMax = Math.max(...model.materials.map((mat) => mat.E));
+  const eMax = maxOf(model.materials.map((mat) => mat.E));
   // the compliance objective sums over load cases, never combinations
   let bound = 0;
   let solverName = "";

@@ -5,6 +5,7 @@ import { choleskyInPlace, choleskySolveInPlace } from "./sparse/skyline";
 import { assembleSkyline, checkMemberValues, dofPattern, loadedUnconnectedNodes, mechanismsFromPivots } from "./stiffness";
 import { caseLoads, memberLengths, type Structure } from "./structure";
 import { combineVectors } from "./loading";
+import { appendAll } from "../util/extent";
 
 export interface Analysis {
   areas: Float64Array;
@@ -112,7 +113,7 @@ export function analyze(s: Structure, opts: AnalyzeOptions = {}): Analysis {
   const loads = [...applied];
   if (s.combinations.length > 0) {
     for (const [all, perCase] of [[displacements, displacements.slice()], [forces, forces.slice()], [stresses, stresses.slice()], [reactions, reactions.slice()], [loads, applied]] as const) {
-      all.push(...combineVectors(s.combinations, perCase));
+      appendAll(all as unknown[], combineVectors(s.combinations, perCase));
     }
   }
 
