@@ -149,6 +149,8 @@ export interface TrussResult {
   /** catalogue sizing: the continuous optimum it started from */
   continuousObjective?: number;
   catalogue?: CatalogueSizing;
+  /** buckling with a model catalogue: the least-squares fit I = a A^b and its error over the sections */
+  sectionFit?: { a: number; b: number; count: number; maxRelativeError: number; worstSection: string; rmsLogError: number };
   variables: { id: string; value: number }[];
   activeConstraints: ActiveConstraint[];
   shadowPrices?: ShadowPrice[];

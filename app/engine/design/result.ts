@@ -181,6 +181,7 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
     loadCases: p.model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}), ...(lc.selfWeight ? { selfWeight: lc.selfWeight } : {}) })),
     ...(s.combinations.length ? { combinations: resultCombinations(s) } : {}),
     reactions: reactions(s, a),
+    ...(p.buckling?.fit ? { sectionFit: { ...p.buckling.fit } } : {}),
     reactionBalance: reactionBalance(s, a),
     variables: shapeValues(p, z),
     activeConstraints: activeConstraints(priced),

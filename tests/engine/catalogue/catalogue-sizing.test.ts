@@ -77,5 +77,7 @@ describe("catalogue sizing: 3D lattice tower with own weight and combinations", 
     // a group above the lightest section names the limit a lighter one breaks, on a strength or service combination
     for (const c of r.catalogue!.choices) expect(c.steppedBy).toMatch(/^(lightest|objective|(stress|buckling):.+:STR-\d|displacement:.+:SRV-1)$/);
     expect(r.reactions!.length).toBe(4);
+    expect(r.sectionFit!.count).toBe(40);
+    expect(r.sectionFit!.maxRelativeError).toBeGreaterThan(0);
   });
 });
