@@ -3,7 +3,7 @@
 // 0.1-0.7 s, a small solve a few milliseconds. The LP is handed over as sparse columns through
 // HiGHS's structured model API rather than as LP text, and solved by the interior-point method
 // without crossover: on ground structures of 2,500 members it is several times faster than the
-// simplex method (bench/lp.bench.ts measures both, and the text form; decision 0010). When the
+// simplex method (bench/lp.bench.ts measures both, and the text form; decision 0012). When the
 // interior-point method ends without a verdict the simplex method tries once more.
 import type { LinearProgram, LpSolution, LpSolver } from "./solver";
 
