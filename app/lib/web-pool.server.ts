@@ -2,7 +2,7 @@
 // calculation record of thousands of members, checking a large uploaded model. On the request
 // thread either would stall every other request. One piscina thread (WEB_THREADS) takes them
 // in turn; the web thread only gathers rows and texts and sends the answer.
-// Decision: docs/decisions/0008-heavy-requests-on-a-thread.md.
+// Decision: docs/decisions/0014-heavy-requests-on-a-thread.md.
 import path from "node:path";
 import { Piscina } from "piscina";
 import type { GateResult } from "~/lib/models/model-gate";
