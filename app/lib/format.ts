@@ -2,7 +2,7 @@
 // durations and axis ticks, for the pages, the CSV downloads, the PDF report and the mail.
 // Isomorphic (no DOM, no Node API), so the server render and the browser agree on the text.
 //
-// Rules (docs/decisions/0013-one-formatter.md):
+// Rules (docs/decisions/0015-one-formatter-one-state-sentence.md):
 // - significant figures, not decimals: 4 for measured values, 3 for residuals and multipliers;
 // - plain notation with thousands grouping from 1e-3 up to (not including) 1e6; outside it
 //   engineering notation, the exponent a multiple of three ("12.3e-6", "4.50e9");
