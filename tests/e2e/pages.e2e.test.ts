@@ -122,7 +122,7 @@ beforeAll(async () => {
   // the project the engineer works in, through the API with the engineer's session
   const page = await pageAs("engineer");
   const code = `KS-${Date.now().toString(36).toUpperCase()}`;
-  const res = await page.request.post(`${app.baseUrl}/api/projects`, { data: { code, name: "Kiln shed, Marlow Ridge brickworks", client: "Marlow Ridge Brick Co." } });
+  const res = await page.request.post(`${app.baseUrl}/api/projects`, { data: { code, name: "Kiln shed, Marlow Ridge brickworks", client: "Marlow Ridge Brick Co." }, headers: { origin: app.baseUrl } });
   expect(res.status(), await res.text()).toBe(201);
   const body = (await res.json()) as { id?: string; project?: { id: string } };
   state.projectId = body.id ?? body.project?.id;

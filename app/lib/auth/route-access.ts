@@ -62,6 +62,7 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/jobs/:id/progress": { GET: ALL },
   "/api/jobs/:id/reviews": { GET: ALL, POST: CHECKERS }, // and never on one's own job
   "/api/jobs/:id/report": { GET: ALL },
+  "/api/jobs/:id/clean-layout": { POST: PRODUCERS }, // stores the next version of the job's model
 
   // pages of other parts
   "/projects/:id": { GET: ALL, POST: PRODUCERS }, // POST uploads a model
