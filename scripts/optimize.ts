@@ -47,6 +47,7 @@ async function main() {
   const { parseModel } = await import("../app/engine/truss");
   const { optimizeModel, plannedStarts, DesignSetupError } = await import("../app/engine/design");
   const { attachLowerBound, loadHighsSolver } = await import("../app/engine/lp");
+  const { formatGap } = await import("../app/lib/lower-bound-words");
   let text: string;
   try {
     text = fs.readFileSync(args.file!, "utf8");
@@ -96,7 +97,7 @@ async function main() {
       `objective ${result.objective.initial.toPrecision(6)} -> ${result.objective.final.toPrecision(6)} ${objUnit} in ${result.iterations} iterations, ${result.analyses} analyses; ` +
       `re-analysis: max utilization ${result.verification?.maxUtilization.toFixed(3)}, ${result.verification?.allLimitsMet ? "all limits met" : `${result.verification?.failures.length} limit(s) not met`}\n` +
       (result.lowerBound
-        ? `lower bound ${result.lowerBound.value.toPrecision(6)} ${objUnit}${result.lowerBound.geometry === "final" ? " (at the final geometry)" : ""}: the design is ${(100 * result.lowerBound.gap).toFixed(2)} % above it\n`
+        ? `lower bound ${result.lowerBound.value.toPrecision(6)} ${objUnit}${result.lowerBound.geometry === "final" ? " (at the final geometry)" : ""}: the design is ${formatGap(result.lowerBound.gap)} above it\n`
         : `no lower bound: ${result.lowerBoundWithheld}\n`) +
       (result.status !== "optimal" && result.hint ? `hint: ${result.hint}\n` : ""),
   );

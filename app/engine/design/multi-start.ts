@@ -46,6 +46,9 @@ export function startCount(design: DesignProblem, options: OptimizeOptions): num
 
 /** Starts a run of this model with these options makes (builds the design problem, no solve). */
 export function plannedStarts(model: TrussModel | DesignModel, options: OptimizeOptions): number {
+  // catalogue sizing runs its own continuous solve and discrete search (optimizeModel); the
+  // several-starts path knows only continuous sizing, so it must not take such a model over
+  if (model.design?.sizing === "catalogue") return 1;
   return startCount(buildDesignProblem(model, buildStructure(model as TrussModel), options), options);
 }
 

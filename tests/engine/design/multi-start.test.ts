@@ -100,3 +100,21 @@ describe("combineStarts", () => {
     expect(r.starts!.summary).toMatch(/None of the 2 starts/);
   });
 });
+
+describe("which models take several starts", () => {
+  // regression: the several-starts path knows only continuous sizing; a catalogue-sized model
+  // sent down it came back with continuous areas and no sections
+  it("a catalogue-sized model takes one start, so optimizeModel runs its discrete search", async () => {
+    const { readFileSync } = await import("node:fs");
+    const { parseModel } = await import("~/engine/truss");
+    const { plannedStarts, optimizeModel } = await import("~/engine/design");
+    const parsed = parseModel(JSON.parse(readFileSync("tests/fixtures/results/gable-catalogue.model.json", "utf8")));
+    if (!parsed.ok) throw new Error(parsed.errors.map((e) => e.message).join("; "));
+    expect(parsed.model.design?.sizing).toBe("catalogue");
+    expect(plannedStarts(parsed.model, {})).toBe(1);
+    expect(plannedStarts({ ...parsed.model, design: { ...parsed.model.design!, sizing: "continuous" } }, {})).toBeGreaterThan(1);
+    const r = optimizeModel(parsed.model, {});
+    expect(r.continuousObjective).toBeGreaterThan(0);
+    expect(r.members.every((m) => typeof m.section === "string")).toBe(true);
+  });
+});
