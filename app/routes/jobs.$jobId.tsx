@@ -283,8 +283,8 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           <Cautions />
           <section className="card" aria-label="Summary">
             <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-3 lg:grid-cols-6">
-              <Stat label={`${head.objective.kind} initial`} value={formatNumber(head.objective.initial)} />
-              <Stat label={`${head.objective.kind} final`} value={<span data-testid="objective-final">{formatNumber(head.objective.final)}</span>} hint={u ? (head.objective.kind === "mass" ? u.mass : `${u.force}·${u.length}`) : undefined} />
+              <Stat label={`${head.objective.kind} initial${objUnit ? ` (${objUnit})` : ""}`} value={formatNumber(head.objective.initial)} />
+              <Stat label={`${head.objective.kind} final${objUnit ? ` (${objUnit})` : ""}`} value={<span data-testid="objective-final">{formatNumber(head.objective.final)}</span>} />
               <Stat label="change" value={saving !== null ? formatPercent(-saving) : "–"} />
               <Stat label="iterations" value={head.iterations} />
               <Stat label="analyses" value={head.analyses} hint="stiffness solves or KKT evaluations used" />

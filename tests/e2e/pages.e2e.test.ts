@@ -127,6 +127,11 @@ beforeAll(async () => {
   const body = (await res.json()) as { id?: string; project?: { id: string } };
   state.projectId = body.id ?? body.project?.id;
   expect(state.projectId).toBeTruthy();
+  // only members see a project (api.md, Additions): its creator brings in the checker and viewer
+  for (const role of ["checker", "viewer"]) {
+    const added = await page.request.post(`${app.baseUrl}/api/projects/${state.projectId}/members`, { data: { email: account(role).email }, headers: { origin: app.baseUrl } });
+    expect(added.status(), await added.text()).toBe(201);
+  }
   await page.close();
 });
 
@@ -311,7 +316,7 @@ describe("pages", () => {
     await page.goto(`${app.baseUrl}/jobs/${state.jobId}`);
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("members-csv").click()]);
     const csv = fs.readFileSync((await download.path())!, "utf8");
-    expect(csv.split("\r\n")[0]).toMatch(/^member,start,end,group,area_mm2,length_mm,force_SNOW_N,stress_SNOW,force_DRIFT_N,stress_DRIFT,utilization,governing$/);
+    expect(csv.split("\r\n")[0]).toMatch(/^member,start,end,group,area_mm2,length_mm,force_SNOW_N,stress_SNOW_MPa,force_DRIFT_N,stress_DRIFT_MPa,utilization,governing_check,governing_case$/);
     expect(csv.trim().split("\r\n").length).toBe(1 + 21);
     const json = await page.request.get(`${app.baseUrl}/api/jobs/${state.jobId}/result`);
     expect(json.status()).toBe(200);
