@@ -58,6 +58,8 @@ describe("workbench", () => {
     await page.getByRole("button", { name: "Build the model" }).click();
     await page.waitForURL(/\/models\/[^/]+$/);
     state.modelId = page.url().split("/models/")[1];
+    // the address changes as the navigation commits; the new page's heading may follow a frame later
+    await page.locator("h1", { hasText: "Pratt truss, 12 m span, 6 panels" }).waitFor({ timeout: 15_000 });
     expect(await page.locator("h1").innerText()).toBe("Pratt truss, 12 m span, 6 panels");
     await screenshot(page, "workbench-model");
   }, 60_000);
