@@ -1,5 +1,5 @@
 // `npm run -s analyze -- path/model.truss.json [--compact]`
-// Prints the analysis (truss-format.md result field names) as JSON on stdout.
+// Prints the analysis (docs/model-format.md result field names) as JSON on stdout.
 // Exit codes: 0 done, 2 invalid model (validation errors or the mechanism on stderr), 1 unreadable file or usage.
 import fs from "node:fs";
 import { analyzeModelToJson, MechanismError, parseModelText } from "../app/engine/truss";

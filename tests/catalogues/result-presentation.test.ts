@@ -33,7 +33,7 @@ const reaction = (node: string, c: string) => result.reactions!.find((r) => r.no
 describe("the fixture against its closed forms", () => {
   // geometry: feet 4000 mm apart, apex 1500 mm up, members 2500 mm: sin θ = 0.6, cos θ = 0.8
   const P = 180000; // N at the apex in S
-  const W = 7.85e-9 * 1067 * 2500 * 9.80665 * 1000; // N: one member's weight (t · 9.80665 kN/t), truss-format.md
+  const W = 7.85e-9 * 1067 * 2500 * 9.80665 * 1000; // N: one member's weight (t · 9.80665 kN/t), docs/model-format.md
   it("snow: N = -P/(2 sin θ) = -150 kN; each foot R = (±0.8, 0.6) · 150 kN (method of joints)", () => {
     expect(result.members[0]!.force.S).toBeCloseTo(-P / 1.2, 6);
     expect(reaction("A", "S")[0]).toBeCloseTo(120000, 4);

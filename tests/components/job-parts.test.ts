@@ -45,7 +45,7 @@ describe("queue form", () => {
 });
 
 describe("constraint words", () => {
-  it("reads the result's constraint ids (truss-format.md) in plain words", () => {
+  it("reads the result's constraint ids (docs/model-format.md) in plain words", () => {
     expect(describeConstraint("stress:AB:LC1")).toBe("stress limit of member AB in load case LC1");
     expect(describeConstraint("displacement:C:y:LC2")).toBe("displacement limit of node C in y under load case LC2");
     expect(describeConstraint("volume")).toBe("total volume limit");

@@ -1,4 +1,4 @@
-// Plain words for a constraint id of the result (truss-format.md: "stress:AB:LC1",
+// Plain words for a constraint id of the result (docs/model-format.md: "stress:AB:LC1",
 // "displacement:C:y:LC2", "volume", "buckling:AB:LC1", "area-min:bottom-chord", ...), for
 // results whose shadow prices carry no sentence of their own.
 export function describeConstraint(id: string): string {

@@ -16,7 +16,7 @@ export function topologyOf(file: unknown): ModelLike | null {
     dimension: m.dimension === 3 ? 3 : 2,
     units: m.units,
     nodes: m.nodes.map((n) => ({ id: n.id, x: n.x, y: n.y, z: n.z, fixed: n.fixed })),
-    // a member given by its catalogue section alone takes the section's area (truss-format.md, "Additions")
+    // a member given by its catalogue section alone takes the section's area (docs/model-format.md)
     members: m.members.map((x) => ({ id: x.id, start: x.start, end: x.end, area: x.area ?? sectionArea.get(x.section ?? "") ?? 0, group: x.group })),
     loadCases: m.loadCases.map((lc) => ({ id: lc.id, name: lc.name, loads: lc.loads })),
     ...(Array.isArray(m.combinations) ? { combinations: m.combinations.map((c) => ({ id: c.id, name: c.name, factors: c.factors ?? {} })) } : {}),

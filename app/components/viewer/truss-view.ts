@@ -12,7 +12,7 @@ export interface ModelLike {
   nodes: { id: string; x: number; y: number; z?: number; fixed?: AxisName[] }[];
   members: { id: string; start: string; end: string; area: number; group?: string; material?: string }[];
   loadCases: { id: string; name?: string; loads: { node: string; fx?: number; fy?: number; fz?: number }[] }[];
-  /** factored sums of load cases (truss-format.md, "Additions") */
+  /** factored sums of load cases (docs/model-format.md) */
   combinations?: { id: string; name?: string; factors: Record<string, number> }[];
 }
 

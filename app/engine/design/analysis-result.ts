@@ -1,5 +1,5 @@
 // analyseModel: the model as given (its own areas and coordinates, no design block needed)
-// in, a result JSON of truss-format.md out with status "analysed". The same member, node and
+// in, a result JSON of docs/model-format.md out with status "analysed". The same member, node and
 // reaction fields as an optimized result, so the job page, the report and the review read it
 // alike. Utilization is the worst of stress (against the material allowables) and, when the
 // model's design block asks for it, the Euler buckling check, over the strength responses

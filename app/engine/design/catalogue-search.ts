@@ -1,4 +1,4 @@
-// The discrete stage of catalogue sizing (truss-format.md, "Additions"; docs/model-format.md):
+// The discrete stage of catalogue sizing (docs/model-format.md):
 // every area variable takes one rung of its section ladder (sections/ladder.ts), node positions
 // stay where the continuous optimum put them, and every candidate is judged by a full
 // analysis: all limits of the design problem evaluated with each member's own section I.

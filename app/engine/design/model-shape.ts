@@ -1,4 +1,4 @@
-// The parts of a parsed model (truss-format.md) the design engine reads. Kept structural so
+// The parts of a parsed model (docs/model-format.md) the design engine reads. Kept structural so
 // that the validated TrussModel of app/engine/truss fits it without a cast.
 
 export interface DesignModelNode {

@@ -1,4 +1,4 @@
-// optimizeModel: a validated model in, the result JSON of truss-format.md out; continuous
+// optimizeModel: a validated model in, the result JSON of docs/model-format.md out; continuous
 // sizing (result.ts) or catalogue sizing (catalogue-run.ts) as the design block asks.
 import type { TrussModel } from "../truss";
 import type { DesignModel } from "./model-shape";

@@ -1,4 +1,4 @@
-// A design problem read from a model's `design` block (truss-format.md) and the job options:
+// A design problem read from a model's `design` block (docs/model-format.md) and the job options:
 // the design variables with their scaling, and the catalogue of limits.
 //
 // Conditioning (what the SQP solver sees):

@@ -1,4 +1,4 @@
-// Per-response result fields (truss-format.md, "Additions"): the force, stress and
+// Per-response result fields (docs/model-format.md): the force, stress and
 // displacement maps over every load case and combination, the support reactions, and the
 // check that the reactions balance the applied loads and own weight. Shared by design results
 // and analysis-only results.

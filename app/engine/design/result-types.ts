@@ -1,4 +1,4 @@
-// The result JSON (truss-format.md, "Result"), plus the fields Strutwise adds.
+// The result JSON (docs/model-format.md, "Result files"), plus the fields Strutwise adds.
 export type SolverStatus = "optimal" | "not-converged" | "infeasible" | "failed" | "analysed"; // analysed: an analysis-only run
 
 export interface Units {
@@ -157,7 +157,7 @@ export interface TrussResult {
   verification?: Verification;
   history: HistoryEntry[];
   solver?: { name: string; version: string; elapsedMs?: number };
-  /** truss-format.md Additions: a proven lower bound on the objective (app/engine/lp) */
+  /** docs/model-format.md: a proven lower bound on the objective (app/engine/lp) */
   lowerBound?: LowerBound;
   /** why a result carries no lowerBound, in words (compliance without a volume limit, no stress checks, ...) */
   lowerBoundWithheld?: string;

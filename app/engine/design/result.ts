@@ -1,4 +1,4 @@
-// optimizeModel: a validated model in, the result JSON of truss-format.md out. The solver runs
+// optimizeModel: a validated model in, the result JSON of docs/model-format.md out. The solver runs
 // on one of the two formulations; everything reported about the final design (forces,
 // stresses, displacements, utilization, limits met) comes from a fresh re-analysis.
 import { buildStructure } from "../truss";

@@ -1,4 +1,4 @@
-// The plastic-design LP's input read from a validated model (truss-format.md): area variables
+// The plastic-design LP's input read from a validated model (docs/model-format.md): area variables
 // from groups, the checked cases from load cases or strength combinations (format additions),
 // own weight in model units.
 import { buildStructure, type TrussModel } from "../truss";

@@ -1,4 +1,4 @@
-// The smooth I(A) that continuous sizing uses with a catalogue (truss-format.md, "Additions"):
+// The smooth I(A) that continuous sizing uses with a catalogue (docs/model-format.md):
 // I = a * A^b, a and b fitted by least squares to (ln A, ln I) over every section. A straight
 // line in log-log coordinates is the usual form for a family of similar shapes: I scales as
 // A^2 when a section grows geometrically similar, and faster (b > 2) when its walls thin out.

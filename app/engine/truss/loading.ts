@@ -1,4 +1,4 @@
-// Loads that depend on the design (own weight) and the load combinations (truss-format.md,
+// Loads that depend on the design (own weight) and the load combinations (docs/model-format.md,
 // "Additions"). Responses are numbered load cases first, then combinations: every per-case
 // array of an analysis continues with one entry per combination, and a combination's entry
 // is the factored sum of the cases' entries (the analysis is linear, one factorization).

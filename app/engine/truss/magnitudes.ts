@@ -1,4 +1,4 @@
-// Sane ranges for the magnitudes of a model (truss-format.md, "Sane magnitudes"). The schema
+// Sane ranges for the magnitudes of a model (docs/model-format.md, "Rules the gate enforces"). The schema
 // refuses what is not a finite number; these refuse finite numbers no truss can have, such as
 // a node at y = -1e300 or a modulus of 1e40, which would otherwise overflow the analysis into
 // Infinity and NaN. The ranges hold in any of the model's units (mm or m, N or kN or kip):

@@ -1,5 +1,5 @@
 // The analysis of a model as plain JSON, with the field names of the result format
-// (truss-format.md): what `npm run analyze` prints.
+// (docs/model-format.md): what `npm run analyze` prints.
 import { analyze, internalForces, type Analysis } from "./analysis";
 import type { TrussModel, Units } from "./schema";
 import { AXIS_NAMES, buildStructure, type Structure } from "./structure";

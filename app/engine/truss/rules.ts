@@ -1,4 +1,4 @@
-// Cross-reference rules of truss-format.md that a per-field schema cannot express. They run on
+// Cross-reference rules of docs/model-format.md that a per-field schema cannot express. They run on
 // the raw input as well as it can be read, so they report alongside the schema's errors.
 import type { IssueList } from "./issues";
 import { checkMagnitudes } from "./magnitudes";

@@ -1,4 +1,4 @@
-// The model file format (docs truss-format.md, version 1) as a zod schema, and the types
+// The model file format (docs/model-format.md, version 1) as a zod schema, and the types
 // inferred from it. Shape and value checks live here; cross-references between items
 // (unknown ids, zero-length members, mechanisms, ...) are checked in rules.ts.
 import { z } from "zod";
@@ -168,7 +168,7 @@ export type Member = Omit<ParsedModelObject["members"][number], "area"> & { area
 export type TrussModel = Omit<ParsedModelObject, "members"> & { members: Member[] };
 
 /**
- * A member with a section starts from the section's area (truss-format.md, "Additions"); the
+ * A member with a section starts from the section's area (docs/model-format.md); the
  * rules (rules.ts) report a member with neither an area nor a known section, so every member of
  * a model that passes them has an area.
  */

@@ -1,5 +1,5 @@
 // A model takes its sections from a catalogue: the catalogue's sections (optionally only some
-// families) are copied into the model's "sections" list (truss-format.md, "Additions"),
+// families) are copied into the model's "sections" list (docs/model-format.md),
 // converted from the catalogue's mm to the model's length unit. A copy, not a reference, so a
 // stored model stays self-contained: retiring the catalogue later changes no model and no job.
 import type { CatalogueSection } from "./types";

@@ -2,7 +2,7 @@
 // uploaded model file and the stored result. The document code reads only this.
 import type { TrussResult } from "~/engine/design/result-types";
 
-/** The parts of the uploaded model file (truss-format.md, "Model") that the report prints. */
+/** The parts of the uploaded model file (docs/model-format.md) that the report prints. */
 export interface ModelFile {
   name?: string;
   description?: string;

@@ -1,4 +1,4 @@
-// Unit labels derived from the model's declared units (truss-format.md: stress is force per
+// Unit labels derived from the model's declared units (docs/model-format.md: stress is force per
 // length squared, volume is length cubed).
 import type { Units } from "~/engine/design/result-types";
 

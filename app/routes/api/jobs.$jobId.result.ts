@@ -1,4 +1,4 @@
-// GET /api/jobs/:jobId/result: the result JSON of truss-format.md; 409 while there is none.
+// GET /api/jobs/:jobId/result: the result JSON of docs/model-format.md; 409 while there is none.
 import { requireJob } from "~/lib/access.server";
 import { jsonError, notFound, withDependencies } from "~/lib/http.server";
 import { getJob, getJobResultText } from "~/lib/jobs/queue.server";

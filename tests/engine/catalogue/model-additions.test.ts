@@ -1,4 +1,4 @@
-// The "Additions to version 1" of truss-format.md: bucklingFactor, section, sections,
+// The "Additions to version 1" of docs/model-format.md: bucklingFactor, section, sections,
 // selfWeight, combinations, design.sizing. Valid files load; bad ones are refused with a
 // message naming the item.
 import { describe, expect, it } from "vitest";

@@ -1,4 +1,4 @@
-// The result JSON against truss-format.md ("Result"), progress, cancellation and the job summary.
+// The result JSON against docs/model-format.md ("Result"), progress, cancellation and the job summary.
 import { describe, expect, it } from "vitest";
 import { optimizeModel, summarizeResult, DesignSetupError, type DesignProgress } from "~/engine/design";
 import { fixture, mast3d, parse } from "./models";

@@ -1,4 +1,4 @@
-// Every rule of truss-format.md ("Rules that bad input must meet") with the message it gives.
+// Every rule of docs/model-format.md ("Rules that bad input must meet") with the message it gives.
 import { describe, expect, it } from "vitest";
 import { parseModel, parseModelText, type ModelIssue } from "~/engine/truss";
 
@@ -56,7 +56,7 @@ describe("parseModel accepts a valid model", () => {
   });
 });
 
-describe("every rule names the item and what is wrong (truss-format.md)", () => {
+describe("every rule names the item and what is wrong (docs/model-format.md)", () => {
   it("format, version, name", () => {
     expectError((m) => (m.format = "other"), "format", /exactly "strutwise.truss"/);
     expectError((m) => ((m as { version: number }).version = 2), "version", /version must be 1/);
