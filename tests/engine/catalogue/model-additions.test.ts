@@ -2,7 +2,8 @@
 // selfWeight, combinations, design.sizing. Valid files load; bad ones are refused with a
 // message naming the item.
 import { describe, expect, it } from "vitest";
-import { parseModel, type ModelIssue } from "~/engine/truss";
+import { rejections } from "../../support/model-rejections";
+import { parseModel } from "~/engine/truss";
 
 const base = () => ({
   format: "strutwise.truss",
@@ -43,18 +44,7 @@ const base = () => ({
 });
 
 type M = ReturnType<typeof base>;
-function errorsOf(edit: (m: M) => void): ModelIssue[] {
-  const m = base();
-  edit(m);
-  const r = parseModel(m);
-  if (r.ok) throw new Error("expected the model to be rejected");
-  return r.errors;
-}
-function expectError(edit: (m: M) => void, path: string, words: RegExp) {
-  const errs = errorsOf(edit);
-  const hit = errs.find((e) => e.path === path && words.test(e.message));
-  expect(hit, `no error at ${path} matching ${words}; got ${JSON.stringify(errs)}`).toBeDefined();
-}
+const { expectError } = rejections(base);
 
 describe("model additions: valid files", () => {
   it("load, and a member with a section takes the section's area", () => {

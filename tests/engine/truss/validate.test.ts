@@ -1,6 +1,7 @@
 // Every rule of docs/model-format.md ("Rules that bad input must meet") with the message it gives.
 import { describe, expect, it } from "vitest";
-import { parseModel, parseModelText, type ModelIssue } from "~/engine/truss";
+import { rejections } from "../../support/model-rejections";
+import { parseModel, parseModelText } from "~/engine/truss";
 
 const base = () => ({
   format: "strutwise.truss",
@@ -29,18 +30,7 @@ const base = () => ({
 });
 
 type M = ReturnType<typeof base>;
-function errorsOf(edit: (m: M) => void): ModelIssue[] {
-  const m = base();
-  edit(m);
-  const r = parseModel(m);
-  if (r.ok) throw new Error("expected the model to be rejected");
-  return r.errors;
-}
-function expectError(edit: (m: M) => void, path: string, words: RegExp) {
-  const errs = errorsOf(edit);
-  const hit = errs.find((e) => e.path === path && words.test(e.message));
-  expect(hit, `no error at ${path} matching ${words}; got ${JSON.stringify(errs)}`).toBeDefined();
-}
+const { errorsOf, expectError } = rejections(base);
 
 describe("parseModel accepts a valid model", () => {
   it("with summary and no warnings", () => {
