@@ -8,7 +8,8 @@
 import { analyze, buildStructure, type TrussModel } from "../truss";
 import { ENGINE_VERSION, SOLVER_NAME } from "./result";
 import type { ResultMember, ResultNode, ResultReaction, TrussResult } from "./result-types";
-import { bucklingModel, responsesFor } from "./problem";
+import { bucklingModel, displacementLimitMap, displacementSpecs, responsesFor } from "./problem";
+import { deflectionSummary } from "./deflection-summary";
 import { eulerStress } from "./buckling";
 import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, reactions as supportReactions, resultCombinations } from "./responses";
 import { maxOf } from "../util/extent";
@@ -88,6 +89,8 @@ export function analyseModel(model: TrussModel): AnalysisResult {
     loadCases: model.loadCases.map((lc) => ({ id: lc.id, ...(lc.name ? { name: lc.name } : {}), ...(lc.selfWeight ? { selfWeight: lc.selfWeight } : {}) })),
     ...(s.combinations.length ? { combinations: resultCombinations(s) } : {}),
     reactionBalance: reactionBalance(s, a),
+    // against the model's deflection limits, when its design block has any
+    deflections: deflectionSummary(s, model.dimension, a.displacements, displacementLimitMap(displacementSpecs(model), s)),
     variables: [],
     activeConstraints: [],
     history: [],

@@ -76,6 +76,9 @@ export function optimizeCatalogue(model: TrussModel | DesignModel, options: Opti
   };
   result.activeConstraints = [];
   result.shadowPrices = [];
+  // a discrete design has no multipliers: the continuous optimum's criterion costs stand in, named as such
+  result.criterionCosts = continuous.criterionCosts ?? [];
+  if (result.criterionCosts.length) result.criterionCostsOf = "continuous optimum";
   const kind = p.objective === "mass" ? "mass" : "compliance";
   if (found.feasible && result.status !== "not-converged") {
     result.message = `Catalogue design: ${p.areaVars.length} variable${p.areaVars.length === 1 ? "" : "s"} sized from ${sections.length} sections, every limit met in a fresh analysis; ${kind} ${fmt(result.objective.final)} against ${fmt(cObj)} for the continuous optimum (+${(100 * result.catalogue.gap).toFixed(1)}%), ${found.roundedFeasible ? `${fmt(found.roundedObjective)} by rounding up and repairing` : "rounding up and repairing found no feasible design"}.`;

@@ -55,6 +55,8 @@ export interface Limit {
   sign: 1 | -1; // displacement: which side of |u| <= limit
   loadCase: number; // response index (load case, then combination); -1 for volume and length
   limit: number; // in model units (stress, length, volume)
+  /** displacement: index into displacementSpecs() of the deflection limit that sets it */
+  spec?: number;
 }
 
 /** Share of the starting length below which a shape change may not shorten a member. */
@@ -75,6 +77,8 @@ export interface DesignProblem {
   /** members whose length can change with the shape variables */
   shapeMembers: Int32Array;
   limits: Limit[];
+  /** the deflection limits as written (Limit.spec indexes them) */
+  deflectionSpecs: DisplacementSpec[];
   buckling: BucklingModel | null;
   /** responses checked for stress and buckling, and for displacements */
   strengthResponses: number[];
@@ -186,34 +190,15 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
       if (buckling) limits.push({ kind: "buckling", id: `buckling:${id}:${lc}`, member: e, dof: -1, sign: -1, loadCase: l, limit: 0 });
     }
   }
-  let dispSpecs = c.displacement ?? [];
-  if (options.displacementLimit !== undefined) {
-    dispSpecs = dispSpecs.length
-      ? dispSpecs.map((d) => ({ ...d, limit: options.displacementLimit! }))
-      : [{ node: "*", axis: "all", limit: options.displacementLimit }];
-  }
-  const dispLimit = new Map<number, number>(); // dof -> tightest limit
-  for (const spec of dispSpecs) {
-    if (!(spec.limit > 0)) throw new DesignSetupError(`Displacement limit at node "${spec.node}" must be positive, got ${spec.limit}.`);
-    const nodes = spec.node === "*" ? s.nodeIds.map((_, i) => i) : [nodeIndex.get(spec.node)];
-    if (nodes[0] === undefined) throw new DesignSetupError(`Displacement limit names unknown node "${spec.node}".`);
-    const axes = spec.axis === "all" ? [0, 1, 2] : [AXES[spec.axis]];
-    for (const n of nodes as number[]) {
-      for (const a of axes) {
-        const dof = n * 3 + a;
-        if (s.fixed[dof]) continue;
-        const prev = dispLimit.get(dof);
-        if (prev === undefined || spec.limit < prev) dispLimit.set(dof, spec.limit);
-      }
-    }
-  }
+  const deflectionSpecs = displacementSpecs(model, options);
+  const dispLimit = displacementLimitMap(deflectionSpecs, s);
   const dispDofs = [...dispLimit.keys()].sort((a, b) => a - b);
   for (const l of serviceResponses) {
     for (const dof of dispDofs) {
       const id = `displacement:${s.nodeIds[Math.floor(dof / 3)]}:${AXIS_NAMES[dof % 3]}:${s.responseIds[l]}`;
-      const limit = dispLimit.get(dof)!;
-      limits.push({ kind: "displacement", id, member: -1, dof, sign: 1, loadCase: l, limit });
-      limits.push({ kind: "displacement", id, member: -1, dof, sign: -1, loadCase: l, limit });
+      const { limit, spec } = dispLimit.get(dof)!;
+      limits.push({ kind: "displacement", id, member: -1, dof, sign: 1, loadCase: l, limit, spec });
+      limits.push({ kind: "displacement", id, member: -1, dof, sign: -1, loadCase: l, limit, spec });
     }
   }
   const volumeMax = options.volumeMax ?? c.volume?.max;
@@ -249,13 +234,54 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
 
   return {
     model, structure: s, objective, formulation, areaVars, shapeVars, memberVar, dofShape,
-    shapeMembers: Int32Array.from(shapeMemberList), limits, buckling, strengthResponses, serviceResponses, coords0, lengths0, nDesign,
+    shapeMembers: Int32Array.from(shapeMemberList), limits, deflectionSpecs, buckling, strengthResponses, serviceResponses, coords0, lengths0, nDesign,
     x0, lower, upper,
     // the active bound set of a ground structure settles a few members per iteration, so the
     // default budget grows with the design variable count
     maxIterations: options.maxIterations ?? design.solver?.maxIterations ?? Math.min(20000, Math.max(200, 4 * nDesign)),
     tolerance: options.tolerance ?? design.solver?.tolerance ?? 1e-6,
   };
+}
+
+export interface DisplacementSpec {
+  node: string; // a node id, or "*" for every node
+  axis: "x" | "y" | "z" | "all";
+  limit: number;
+}
+
+/**
+ * The deflection limits as the engineer wrote them (design.constraints.displacement), with the
+ * job's displacementLimit option replacing every limit (or standing alone for every node).
+ */
+export function displacementSpecs(model: DesignModel, options: JobOptions = {}): DisplacementSpec[] {
+  const specs: DisplacementSpec[] = (model.design?.constraints?.displacement ?? []).map((d) => ({ node: d.node, axis: d.axis, limit: d.limit }));
+  const override = options.displacementLimit;
+  if (override === undefined) return specs;
+  return specs.length ? specs.map((d) => ({ ...d, limit: override })) : [{ node: "*", axis: "all", limit: override }];
+}
+
+/**
+ * The limit of each checked free coordinate (dof = node*3 + axis): the tightest spec naming it,
+ * and which spec that is (the first of equal ones).
+ */
+export function displacementLimitMap(specs: readonly DisplacementSpec[], s: Structure): Map<number, { limit: number; spec: number }> {
+  const nodeIndex = new Map(s.nodeIds.map((id, i) => [id, i]));
+  const out = new Map<number, { limit: number; spec: number }>();
+  specs.forEach((spec, k) => {
+    if (!(spec.limit > 0)) throw new DesignSetupError(`Displacement limit at node "${spec.node}" must be positive, got ${spec.limit}.`);
+    const nodes = spec.node === "*" ? s.nodeIds.map((_, i) => i) : [nodeIndex.get(spec.node)];
+    if (nodes[0] === undefined) throw new DesignSetupError(`Displacement limit names unknown node "${spec.node}".`);
+    const axes = spec.axis === "all" ? [0, 1, 2] : [AXES[spec.axis]];
+    for (const n of nodes as number[]) {
+      for (const a of axes) {
+        const dof = n * 3 + a;
+        if (s.fixed[dof]) continue;
+        const prev = out.get(dof);
+        if (prev === undefined || spec.limit < prev.limit) out.set(dof, { limit: spec.limit, spec: k });
+      }
+    }
+  });
+  return out;
 }
 
 /** Responses a limit use applies to: the combinations of that use, else every load case. */

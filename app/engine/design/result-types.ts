@@ -98,6 +98,57 @@ export interface ShadowPrice {
   sentence: string; // plain words for the engineer
 }
 
+/** What the engineer can change about a design, as criterionCosts groups the multipliers. */
+export type CriterionKind =
+  | "allowable-tension" // a material's allowableTension
+  | "allowable-compression" // a material's allowableCompression
+  | "deflection" // one entry of design.constraints.displacement
+  | "volume" // design.constraints.volume.max
+  | "buckling-length" // the bucklingFactor of one area variable's members (group, or ungrouped member)
+  | "min-size" // a minimum area: areaBounds.min, or a group's own min
+  | "max-size" // a maximum area: areaBounds.max, or a group's own max
+  | "shape-range"; // the range min..max of one shape variable
+
+/** One limit or bound that binds inside a criterion: where, and what relaxing only it would save. */
+export interface CriterionPlace {
+  member?: string;
+  node?: string;
+  axis?: "x" | "y" | "z";
+  /** load case or combination of the limit */
+  case?: string;
+  /** area variable (group id, or the member id of an ungrouped member) of a size bound */
+  variable?: string;
+  saving: number;
+}
+
+/**
+ * The first-order objective saving of relaxing one design criterion by 1 % (sensitivity theorem:
+ * the sum over its binding limits of multiplier times the change of the limit), the form
+ * "relaxing the allowable stress of S355 by 1 % would save about 3.1 kg, 0.5 %".
+ */
+export interface CriterionCost {
+  /** e.g. "allowable-tension:S355", "deflection:0", "volume", "buckling-length:top-chord", "min-size:*", "min-size:diagonals" */
+  id: string;
+  kind: CriterionKind;
+  /** material name (or id), group or member id, shape variable id; "*" for the model-wide area bound */
+  subject: string;
+  /** the criterion's value in model units: stress, length, volume, area, or the bucklingFactor (1 = the member length) */
+  value: number;
+  /** unit of value, e.g. "N/mm²", "mm", "mm³", "mm²", "" */
+  unit: string;
+  /** a deflection criterion: the node ("*" every node) and axis as written */
+  node?: string;
+  axis?: "x" | "y" | "z" | "all";
+  /** objective units saved by relaxing it 1 % (raising a limit, lowering a minimum, shortening a buckling length, widening a shape range by 1 % of itself); 0 when it does not bind */
+  saving: number;
+  /** saving / objective.final */
+  share: number;
+  /** binding limits or bounds it holds */
+  count: number;
+  /** the binding places, largest saving first, at most CRITERION_PLACES of them */
+  places: CriterionPlace[];
+}
+
 export interface VerificationCheck {
   id: string;
   kind: "stress" | "displacement" | "buckling" | "volume" | "bounds" | "equilibrium";
@@ -114,6 +165,18 @@ export interface Verification {
   checked: number;
   failures: VerificationCheck[];
   worst: VerificationCheck[];
+}
+
+/** The worst displacement of one load case or combination, against its deflection limit. */
+export interface DeflectionSummary {
+  /** load case or combination id */
+  case: string;
+  /** whether the deflection limits apply to it (service combinations, else every load case) */
+  checked: boolean;
+  /** the largest displacement component over the free nodes */
+  largest: { node: string; axis: "x" | "y" | "z"; value: number };
+  /** the limited coordinate closest to its limit (checked responses of a model with deflection limits) */
+  governing?: { node: string; axis: "x" | "y" | "z"; value: number; limit: number; ratio: number; spec: number };
 }
 
 export interface HistoryEntry {
@@ -154,6 +217,12 @@ export interface TrussResult {
   variables: { id: string; value: number }[];
   activeConstraints: ActiveConstraint[];
   shadowPrices?: ShadowPrice[];
+  /** what each design criterion costs, largest saving first (criterion-costs.ts) */
+  criterionCosts?: CriterionCost[];
+  /** catalogue sizing: the criterion costs are those of the continuous optimum it started from */
+  criterionCostsOf?: "continuous optimum";
+  /** per load case and combination: the worst displacement against its limit (deflection-summary.ts) */
+  deflections?: DeflectionSummary[];
   verification?: Verification;
   history: HistoryEntry[];
   solver?: { name: string; version: string; elapsedMs?: number };

@@ -14,6 +14,8 @@ import { reanalyze, VERIFY_TOLERANCE } from "./verify";
 import { activeConstraints, priceConstraints, shadowPrices } from "./shadow-prices";
 import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, reactions, resultCombinations } from "./responses";
 import { maxOf } from "../util/extent";
+import { criterionCosts } from "./criterion-costs";
+import { deflectionSummary, problemDeflectionLimits } from "./deflection-summary";
 
 const DESIGN_HINTS: Partial<Record<SolverStatus, string>> = {
   "not-converged":
@@ -186,6 +188,9 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
     variables: shapeValues(p, z),
     activeConstraints: activeConstraints(priced),
     shadowPrices: shadowPrices(p, priced, objectiveFinal, run.objectiveScale),
+    // only a proved optimum has multipliers that price a relaxation
+    criterionCosts: status === "optimal" ? criterionCosts(p, r, run.objectiveScale, objectiveFinal) : [],
+    deflections: deflectionSummary(s, p.model.dimension, a.displacements, problemDeflectionLimits(p)),
     verification: re.verification,
     history: r.history.map((h) => ({
       iteration: h.iteration,

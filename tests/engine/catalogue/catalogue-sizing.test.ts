@@ -53,6 +53,9 @@ describe("catalogue sizing: ten-bar cantilever with the generic catalogue in inc
     expect(u).toBeLessThanOrEqual(2 * (1 + 1e-9));
     for (const m of r.members) expect(sections.find((s) => s.id === m.section)!.area).toBe(m.area);
     expect(r.catalogue!.choices.every((c) => c.steppedBy.length > 0)).toBe(true);
+    // a discrete design has no multipliers: the continuous optimum's criterion costs stand in, named so
+    expect(r.criterionCostsOf).toBe("continuous optimum");
+    expect(r.criterionCosts!.find((c) => c.id === "deflection:0")!.saving).toBeGreaterThan(0);
   });
 });
 
