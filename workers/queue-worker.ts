@@ -35,7 +35,7 @@ async function main() {
   if (bundled) console.log(`[worker] solver threads: ${bundled}`);
   const pool = createSolvePool();
   const workerId = newWorkerId();
-  const mailSender = new MailSender({ db: db(), senderId: workerId });
+  const mailSender = new MailSender({ db: db(), senderId: workerId, claimMs: c.MAIL_CLAIM_MS });
   const runner = new QueueRunner({
     db: db(),
     pool,

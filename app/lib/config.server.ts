@@ -53,6 +53,14 @@ const schema = z.object({
   JOB_TIME_LIMIT_MS: z.coerce.number().int().positive().default(15 * 60_000),
   JOB_LEASE_MS: z.coerce.number().int().min(1000).default(30_000),
   JOB_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(3),
+  // how long an outbox sender holds a mail it claimed before another sender may deliver it
+  // (longer than one SMTP delivery may take: connection, greeting and socket timeouts)
+  MAIL_CLAIM_MS: z.coerce.number().int().min(1000).default(120_000),
+  // the web process's threads for heavy requests (report drawing, checks of large uploads):
+  // how many, how long one request may wait and run there, how many may wait at once
+  WEB_THREADS: z.coerce.number().int().min(1).max(16).default(1),
+  WEB_TASK_TIMEOUT_MS: z.coerce.number().int().min(100).default(120_000),
+  WEB_TASK_QUEUE: z.coerce.number().int().min(1).max(1000).default(16),
   // who may create an account: only invited addresses (default), addresses of these domains
   // (and invited ones), or anyone; every new account still proves its address by a link
   SIGN_UP: z

@@ -3,6 +3,7 @@
 // ErrorBoundary words it.
 import { findTooDeep, tooDeepMessage } from "./json-depth";
 import { DEPENDENCY_WORDS, DependencyUnavailableError, describeError, isDatabaseUnavailable, type Dependency } from "./dependencies";
+import { HeavyTaskStoppedError } from "./heavy-task";
 export interface ErrorDetail {
   path: string;
   message: string;
@@ -48,9 +49,17 @@ export function zodDetails(issues: { path: PropertyKey[]; message: string }[]): 
 
 /**
  * A service the request needs did not answer: 503 naming it ("storage", "database", "mail"),
- * with Retry-After, instead of a bare 500. Null for any other error.
+ * with Retry-After, instead of a bare 500. The web process's own threads for heavy requests
+ * count as such a service: a report or upload check they stopped or refused is a 503 too,
+ * with the reason in words. Null for any other error.
  */
 export function dependencyResponse(e: unknown): Response | null {
+  if (e instanceof HeavyTaskStoppedError) {
+    return Response.json(
+      { error: e.message, limit: e.why === "time" ? "time" : "queue" },
+      { status: 503, headers: { "Cache-Control": "no-store", "Retry-After": e.why === "time" ? "120" : "30" } },
+    );
+  }
   let dependency: Dependency | null = null;
   let reason = "";
   if (e instanceof DependencyUnavailableError) [dependency, reason] = [e.dependency, e.reason];

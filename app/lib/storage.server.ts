@@ -64,6 +64,22 @@ export async function getObject(key: string): Promise<Uint8Array | null> {
   }
 }
 
+/**
+ * The object as a stream with its length, or null when there is no such key: for downloads,
+ * which pass the stored bytes on as they arrive instead of holding a whole result in memory.
+ * A store that stops answering mid-way cuts the download short (the status is sent by then).
+ */
+export async function getObjectStream(key: string): Promise<{ body: ReadableStream<Uint8Array>; length: number | null } | null> {
+  try {
+    const out = await s3().send(new GetObjectCommand({ Bucket: config().S3_BUCKET, Key: key }));
+    const body = out.Body ? (out.Body.transformToWebStream() as ReadableStream<Uint8Array>) : new Blob([]).stream();
+    return { body, length: out.ContentLength ?? null };
+  } catch (e) {
+    if (e instanceof NoSuchKey || (e as { name?: string }).name === "NoSuchKey") return null;
+    throw storageError(e);
+  }
+}
+
 export async function getText(key: string): Promise<string | null> {
   const bytes = await getObject(key);
   return bytes ? new TextDecoder().decode(bytes) : null;

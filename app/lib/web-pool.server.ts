@@ -1,10 +1,15 @@
 // The web process's worker threads, for the requests that need seconds of CPU: drawing a
 // calculation record of thousands of members, checking a large uploaded model. On the request
 // thread either would stall every other request. One piscina thread (WEB_THREADS) takes them
-// in turn; the web thread only gathers rows and texts and sends the answer.
+// in turn; the web thread only gathers rows and texts and sends the answer. A task that has
+// not finished WEB_TASK_TIMEOUT_MS after it was asked for (waiting included) is stopped (its
+// thread ended, a fresh one started); past WEB_TASK_QUEUE waiting tasks, new ones are refused.
+// Either way the request gets a 503 in words (HeavyTaskStoppedError), never a hung socket.
 // Decision: docs/decisions/0014-heavy-requests-on-a-thread.md.
 import path from "node:path";
 import { Piscina } from "piscina";
+import { config } from "~/lib/config.server";
+import { HeavyTaskStoppedError, type HeavyTask } from "~/lib/heavy-task";
 import type { GateResult } from "~/lib/models/model-gate";
 import type { ReportInputs } from "~/lib/report/report-inputs";
 import { ensureToolsBundle, toolFile } from "../../scripts/tools-bundle.mjs";
@@ -33,11 +38,11 @@ function webPool(): Promise<Piscina> {
     // built server bundle has no source-relative paths to go by
     const root = process.cwd();
     const filename = await taskFile(root);
-    const threads = Math.max(1, Number(process.env.WEB_THREADS ?? 1) || 1);
+    const c = config();
     const p = new Piscina({
       filename,
       minThreads: 1,
-      maxThreads: threads,
+      maxThreads: c.WEB_THREADS,
       concurrentTasksPerWorker: 1,
       idleTimeout: 120_000,
       // a .ts task needs the TypeScript loader in its thread
@@ -49,12 +54,41 @@ function webPool(): Promise<Piscina> {
   return pool;
 }
 
+export interface TaskLimits {
+  /** from the moment the task is asked for; WEB_TASK_TIMEOUT_MS by default */
+  timeoutMs?: number;
+}
+
+// tasks asked for and not yet settled, running or waiting (counted here: piscina's own
+// maxQueue lets its balancer hand a busy thread more tasks than the limit)
+let inFlight = 0;
+
+async function runTask<T>(task: HeavyTask, name: string, input: unknown, limits: TaskLimits): Promise<T> {
+  const c = config();
+  if (inFlight >= c.WEB_THREADS + c.WEB_TASK_QUEUE) throw new HeavyTaskStoppedError(task, "busy", inFlight - c.WEB_THREADS);
+  inFlight++;
+  try {
+    const p = await webPool();
+    const timeoutMs = limits.timeoutMs ?? c.WEB_TASK_TIMEOUT_MS;
+    const signal = AbortSignal.timeout(timeoutMs);
+    try {
+      return (await p.run(input, { name, signal })) as T;
+    } catch (e) {
+      if (!signal.aborted) throw e;
+      console.error(`[web pool] ${task} stopped after ${timeoutMs} ms`);
+      throw new HeavyTaskStoppedError(task, "time", timeoutMs);
+    }
+  } finally {
+    inFlight--;
+  }
+}
+
 /** Draw a report on a pool thread. */
-export function renderReportOnThread(input: ReportInputs): Promise<ReportTaskOutput> {
-  return webPool().then((p) => p.run(input, { name: "renderReport" }) as Promise<ReportTaskOutput>);
+export function renderReportOnThread(input: ReportInputs, limits: TaskLimits = {}): Promise<ReportTaskOutput> {
+  return runTask("report", "renderReport", input, limits);
 }
 
 /** Run the upload gate of a model file on a pool thread. */
-export function checkModelOnThread(input: { fileName: string; bytes: Uint8Array; limitBytes: number }): Promise<GateResult> {
-  return webPool().then((p) => p.run(input, { name: "checkModel" }) as Promise<GateResult>);
+export function checkModelOnThread(input: { fileName: string; bytes: Uint8Array; limitBytes: number }, limits: TaskLimits = {}): Promise<GateResult> {
+  return runTask("model check", "checkModel", input, limits);
 }

@@ -9,19 +9,20 @@ import { UndeliveredMail } from "~/components/mail/UndeliveredMail";
 import type { CaughtMail } from "../../local-services/mail-catcher";
 import type { Route } from "./+types/dev.inbox";
 import { RouteError } from "~/components/ui/RouteError";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "Development inbox — Strutwise" }];
 }
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const c = config();
   if (c.NODE_ENV !== "development" && user.role !== "admin")
     throw forbidden(`The development inbox is for admins outside development; your role is ${user.role}`);
   const undelivered = await listUndeliveredMail(db());
   return { ...(await caughtMail(c.MAIL_CATCHER_URL)), undelivered };
-}
+});
 
 async function caughtMail(url: string | undefined) {
   const base = url?.replace(/\/+$/, "");

@@ -5,7 +5,7 @@ import { ModelEditor } from "~/components/editor/ModelEditor";
 import { RouteError } from "~/components/ui/RouteError";
 import { audit } from "~/lib/auth/audit.server";
 import { requireModel } from "~/lib/access.server";
-import { badRequest, notFound } from "~/lib/http.server";
+import { badRequest, notFound, withDependencies } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
 import { createModelVersion, getModelVersionFile } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.edit";
@@ -22,7 +22,7 @@ function versionParam(request: Request): number | null {
   return v;
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   await requireModel(request, params.modelId, "create:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
@@ -30,9 +30,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!file) notFound(`That version of model ${params.modelId}`);
   const json = JSON.parse(file.text) as Record<string, unknown>;
   return { id: model.id, name: model.name, version: file.version, model: json, units: json.units as { length: string; force: string; mass: string } };
-}
+});
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   const { user } = await requireModel(request, params.modelId, "create:model");
   const form = await request.formData();
   const text = form.get("model");
@@ -42,7 +42,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!created.ok) return data({ error: `${created.error}${created.details[0] ? ` — ${created.details[0].path}: ${created.details[0].message}` : ""}` }, { status: created.status });
   await audit({ request, actor: user, action: "model.version", entityType: "model", entityId: created.modelId, detail: { version: created.version.version, sha256: created.version.sha256, note: created.version.note } });
   throw redirect(`/models/${created.modelId}/versions/${created.version.version}`);
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="model" />;

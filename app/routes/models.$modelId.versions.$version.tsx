@@ -6,7 +6,7 @@ import { audit } from "~/lib/auth/audit.server";
 import { requireModel } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
 import { formatDateTime } from "~/lib/format";
-import { notFound } from "~/lib/http.server";
+import { notFound, withDependencies } from "~/lib/http.server";
 import { enqueueJob } from "~/lib/jobs/queue.server";
 import { getModel } from "~/lib/models.server";
 import { describeChanges } from "~/lib/models/describe-changes";
@@ -17,7 +17,7 @@ export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${data.name}, version ${data.version.version} — Strutwise` : "Model version — Strutwise" }];
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   const { user } = await requireModel(request, params.modelId, "read:model");
   const model = await getModel(params.modelId);
   const n = Number(params.version);
@@ -37,9 +37,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     changes,
     may: { run: can(user.role, "create:job"), edit: can(user.role, "create:model") },
   };
-}
+});
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   const { user } = await requireModel(request, params.modelId, "create:job");
   const form = await request.formData();
   const kind = form.get("kind") === "analysis" ? "analysis" : "design";
@@ -54,7 +54,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     }
     throw e;
   }
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="model version" />;

@@ -10,6 +10,7 @@ import { generateCheckedModel } from "~/lib/models/generate";
 import { importModel } from "~/lib/models/import.server";
 import type { SpreadsheetFiles } from "~/lib/models/spreadsheet";
 import type { Route } from "./+types/projects.$projectId.new-model";
+import { withDependencies } from "~/lib/http.server";
 
 export function meta() {
   return [{ title: "New model — Strutwise" }];
@@ -33,15 +34,15 @@ function fieldsOf(schema: Record<string, unknown>): Field[] {
   });
 }
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
   const { project } = await requireProject(request, params.projectId, "create:model");
   return {
     project: { id: project.id, code: project.code, name: project.name },
     generators: GENERATORS.map((g) => ({ kind: g.kind, name: g.name, description: g.description, fields: fieldsOf(parameterSchema(g)) })),
   };
-}
+});
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   const { user, project } = await requireProject(request, params.projectId, "create:model");
   const form = await request.formData();
   const intent = form.get("intent");
@@ -79,7 +80,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     throw redirect(`/models/${stored.model.id}`);
   }
   return data({ error: "Choose a generator or a spreadsheet", details: [] }, { status: 400 });
-}
+});
 
 export function ErrorBoundary() {
   return <RouteError what="project" />;

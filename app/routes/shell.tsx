@@ -3,14 +3,15 @@ import { Form, NavLink, Outlet, useLocation, useNavigation } from "react-router"
 import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { getUser } from "~/lib/auth/authorize.server";
 import type { Route } from "./+types/shell";
+import { withDependencies } from "~/lib/http.server";
 
 // The desk's frame: a top bar with the mark, the sections this role may use and the
 // account menu; content below. The loader only says who is signed in (pages check
 // permissions themselves); the nav hides what the role cannot do.
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await getUser(request);
   return { user: user && { name: user.name, email: user.email, role: user.role } };
-}
+});
 
 export default function Shell({ loaderData }: Route.ComponentProps) {
   const { user } = loaderData;

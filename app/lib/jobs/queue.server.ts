@@ -12,7 +12,7 @@ import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
 import { getModelVersion } from "~/lib/models/versions.server";
 import { memberScope, seesEveryProject } from "~/lib/project-scope.server";
-import { getText } from "~/lib/storage.server";
+import { getText, getObjectStream } from "~/lib/storage.server";
 import { fromStatuses, isTerminal } from "./transitions";
 
 export type JobRow = typeof jobs.$inferSelect;
@@ -318,11 +318,22 @@ export async function getJobResult(id: string, database: Db = defaultDb()): Prom
   return text === null ? null : (JSON.parse(text) as TrussResult);
 }
 
-/** The stored result as text, for downloads that pass it through unchanged. */
-export async function getJobResultText(id: string, database: Db = defaultDb()): Promise<string | null> {
+async function storedResultKey(id: string, database: Db): Promise<string | null> {
   const [row] = await database.select({ status: jobs.status, resultKey: jobs.resultKey }).from(jobs).where(eq(jobs.id, id)).limit(1);
   if (!row || (row.status !== "succeeded" && row.status !== "cancelled") || !row.resultKey) return null;
-  return getText(row.resultKey);
+  return row.resultKey;
+}
+
+/** The stored result as text. */
+export async function getJobResultText(id: string, database: Db = defaultDb()): Promise<string | null> {
+  const key = await storedResultKey(id, database);
+  return key === null ? null : getText(key);
+}
+
+/** The stored result as a stream, for downloads that pass it through unchanged. */
+export async function getJobResultStream(id: string, database: Db = defaultDb()) {
+  const key = await storedResultKey(id, database);
+  return key === null ? null : getObjectStream(key);
 }
 
 /** The convergence history of the job's latest attempt, oldest iteration first. */

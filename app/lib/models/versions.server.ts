@@ -9,7 +9,7 @@ import { models, modelVersions } from "~/db/schema";
 import { config } from "~/lib/config.server";
 import type { ErrorDetail } from "~/lib/http.server";
 import { modelVersionFileKey } from "~/lib/jobs/keys";
-import { getText, putObject, s3 } from "~/lib/storage.server";
+import { getObjectStream, getText, putObject, s3 } from "~/lib/storage.server";
 import { checkModelUpload } from "./gate-on-thread.server";
 
 export type ModelVersionRow = typeof modelVersions.$inferSelect;
@@ -140,4 +140,13 @@ export async function getModelVersionFile(
   const text = await getText(row.fileKey);
   if (text === null) throw new Error(`The file of model ${modelId} version ${row.version} is missing from storage (${row.fileKey})`);
   return { fileName: row.fileName, version: row.version, text };
+}
+
+/** The same file as a stream with its length, for the download route. */
+export async function getModelVersionStream(modelId: string, version: number | null, database: Db = defaultDb()) {
+  const row = await getModelVersion(modelId, version, database);
+  if (!row) return null;
+  const stored = await getObjectStream(row.fileKey);
+  if (stored === null) throw new Error(`The file of model ${modelId} version ${row.version} is missing from storage (${row.fileKey})`);
+  return { fileName: row.fileName, version: row.version, ...stored };
 }

@@ -5,10 +5,10 @@
 import { audit } from "~/lib/auth/audit.server";
 import { requireJob } from "~/lib/access.server";
 import { cleanLayoutFormSchema, storeCleanLayout } from "~/lib/clean-layout.server";
-import { jsonError, readJson, zodDetails } from "~/lib/http.server";
+import { jsonError, readJson, zodDetails, withDependencies } from "~/lib/http.server";
 import type { Route } from "./+types/jobs.$jobId.clean-layout";
 
-export async function action({ request, params }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; use POST`);
   const { user, job } = await requireJob(request, params.jobId, "create:model");
   const isForm = /form/.test(request.headers.get("content-type") ?? "");
@@ -19,4 +19,4 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!out.ok) return jsonError(out.status, out.error, out.details);
   await audit({ request, actor: user, action: "model.clean-layout", entityType: "model", entityId: out.modelId, detail: { job: job.id, version: out.version, source: parsed.data.source, threshold: parsed.data.threshold } });
   return Response.json({ modelId: out.modelId, version: out.version, summary: out.summary }, { status: 201, headers: { Location: `/models/${out.modelId}` } });
-}
+});

@@ -1,7 +1,8 @@
-// GET /api/jobs/:jobId/result: the result JSON of docs/model-format.md; 409 while there is none.
+// GET /api/jobs/:jobId/result: the result JSON of docs/model-format.md, passed on from the bucket
+// as a stream (a large result is never held whole in the web process); 409 while there is none.
 import { requireJob } from "~/lib/access.server";
 import { jsonError, notFound, withDependencies } from "~/lib/http.server";
-import { getJob, getJobResultText } from "~/lib/jobs/queue.server";
+import { getJob, getJobResultStream } from "~/lib/jobs/queue.server";
 import type { Route } from "./+types/jobs.$jobId.result";
 
 export const loader = withDependencies(async function loader({ request, params }: Route.LoaderArgs) {
@@ -15,12 +16,13 @@ export const loader = withDependencies(async function loader({ request, params }
   if (job.status !== "succeeded" && !job.hasResult) {
     return jsonError(409, `Job ${job.id} ${job.status === "failed" ? "failed" : "was cancelled"}, so it has no result${job.error ? `: ${job.error}` : ""}`);
   }
-  const text = await getJobResultText(job.id);
-  if (text === null) return jsonError(500, `The result of job ${job.id} is missing from storage`);
+  const stored = await getJobResultStream(job.id);
+  if (stored === null) return jsonError(500, `The result of job ${job.id} is missing from storage`);
   const download = new URL(request.url).searchParams.has("download");
-  return new Response(text, {
+  return new Response(stored.body, {
     headers: {
       "Content-Type": "application/json; charset=utf-8",
+      ...(stored.length !== null ? { "Content-Length": String(stored.length) } : {}),
       "Cache-Control": "private, max-age=3600", // a stored result never changes
       ...(download ? { "Content-Disposition": `attachment; filename="job-${job.id}.result.json"` } : {}),
     },

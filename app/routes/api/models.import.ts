@@ -1,14 +1,14 @@
 // POST /api/models/import: nodes, members and loads CSV files and a settings JSON (or one
 // .xlsx workbook in the field "workbook"), filed under projectId as a new model.
 import { assertProjectVisible, requirePermission } from "~/lib/access.server";
-import { jsonError } from "~/lib/http.server";
+import { jsonError, withDependencies } from "~/lib/http.server";
 import { auditUpload } from "~/lib/models.server";
 import { importModel } from "~/lib/models/import.server";
 import type { SpreadsheetFiles } from "~/lib/models/spreadsheet";
 import { readUploadForm } from "~/lib/models/upload-form.server";
 import type { Route } from "./+types/models.import";
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = withDependencies(async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, `${request.method} is not supported here; POST the spreadsheet files`);
   const user = await requirePermission(request, "create:model");
   const read = await readUploadForm(request, ["nodes", "members", "loads", "workbook", "settings"], "the spreadsheet with the fields projectId, nodes, members, loads and settings (or workbook)");
@@ -35,4 +35,4 @@ export async function action({ request }: Route.ActionArgs) {
   const m = stored.model;
   await auditUpload(request, user, m);
   return Response.json({ id: m.id, name: m.name, sha256: m.sha256, summary: m.summary, warnings: m.warnings, projectId: m.projectId }, { status: 201 });
-}
+});
