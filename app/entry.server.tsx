@@ -1,24 +1,19 @@
-// React Router's Node entry (its default template), plus the security headers of
-// app/lib/security-headers.ts on every page and page-data response, with a fresh nonce for the
-// inline hydration scripts of each page.
+// React Router's Node entry (its default template), plus the page content security policy of
+// app/lib/security-headers.ts with a fresh nonce for the inline hydration scripts of each page
+// (the root route's middleware, app/root.tsx, puts the other headers on every response).
 import { randomBytes } from "node:crypto";
 import { PassThrough } from "node:stream";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
-import type { EntryContext, HandleDataRequestFunction } from "react-router";
+import type { EntryContext } from "react-router";
 import { ServerRouter } from "react-router";
 import { applySecurityHeaders, NonceContext } from "~/lib/security-headers";
 
 export const streamTimeout = 5_000;
 
 const development = process.env.NODE_ENV === "development";
-
-export const handleDataRequest: HandleDataRequestFunction = (response) => {
-  applySecurityHeaders(response.headers, { development });
-  return response;
-};
 
 export default function handleRequest(request: Request, responseStatusCode: number, responseHeaders: Headers, routerContext: EntryContext) {
   const nonce = randomBytes(16).toString("base64");

@@ -1,13 +1,31 @@
 import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import { useContext } from "react";
 import type { Route } from "./+types/root";
-import { NonceContext } from "~/lib/security-headers";
+import { z } from "zod";
+import { NonceContext, withSecurityHeaders } from "~/lib/security-headers";
 import "@fontsource/ibm-plex-sans/400.css";
 import "@fontsource/ibm-plex-sans/500.css";
 import "@fontsource/ibm-plex-sans/600.css";
 import "@fontsource/roboto-mono/400.css";
 import "@fontsource/roboto-mono/500.css";
 import "./app.css";
+
+// zod probes for eval (to compile its parsers) the first time it parses; the page policy
+// forbids eval, so in the browser it is told not to try, instead of drawing a policy
+// violation on every page. The server keeps the compiled parsers.
+if (typeof document !== "undefined") z.config({ jitless: true });
+
+// Every response passes here on its way out: pages, page data, the /api resource routes (JSON,
+// PDF, CSV, file downloads) and their error answers get the security headers in one place.
+export const middleware: Route.MiddlewareFunction[] = [
+  async (_args, next) => {
+    try {
+      return withSecurityHeaders(await next());
+    } catch (e) {
+      throw e instanceof Response ? withSecurityHeaders(e) : e;
+    }
+  },
+];
 
 export const meta: Route.MetaFunction = () => [
   { title: "Strutwise — truss optimization desk" },

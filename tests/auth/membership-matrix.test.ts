@@ -2,7 +2,10 @@
 // the app's own access table: every route of app/routes.ts, each of its server functions,
 // called in-process as an anonymous caller and as each role, as a member of the project and
 // as a non-member, by session cookie and by API key. A route of routes.ts without a rule
-// here fails the first test, so routes added later must be placed in this table.
+// here fails the first test, so routes added later must be placed in this table. Actions that
+// do different things by their body (a form's "intent") are called once per body as well.
+// The app's own table (app/lib/auth/route-access.ts, which every route needs an entry in) is
+// checked against this one and against the route modules, so the two cannot drift apart.
 //
 // product.md "Who uses it":
 //   admin    manage users and roles, see everything, manage API keys
@@ -87,6 +90,19 @@ const RULES: Record<string, Rule> = {
   "/api/catalogues/:p/retire": { POST: "produce" },
 };
 
+/**
+ * Actions that branch on their body, one call per body (page forms as multipart, /api/* as
+ * JSON). The project fixture's job has failed: past the gate a review or cancel answers 400/409.
+ */
+const BODY_CASES: { route: string; method: Method; body: Record<string, string>; who: Who }[] = [
+  { route: "/jobs/:p", method: "POST", body: { intent: "review", decision: "approved", comment: "checked" }, who: "review" },
+  { route: "/jobs/:p", method: "POST", body: { intent: "cancel" }, who: "submitter-or-admin" },
+  { route: "/api/jobs/:p/reviews", method: "POST", body: { decision: "approved", comment: "checked" }, who: "review" },
+  { route: "/admin/users", method: "POST", body: { intent: "invite", email: "invited@hollowmere-matrix.example", role: "viewer" }, who: "admin" },
+  { route: "/account", method: "POST", body: { intent: "create", name: "matrix key" }, who: "signed-in" },
+  { route: "/projects", method: "POST", body: { code: "HM-MATRIX", name: "Hollowmere annex" }, who: "produce" },
+];
+
 const ROLES: Role[] = ["admin", "engineer", "checker", "viewer"];
 function roleMay(who: Who, role: Role): boolean {
   switch (who) {
@@ -103,6 +119,17 @@ function roleMay(who: Who, role: Role): boolean {
     case "submitter-or-admin": // the submitter (not among the callers) or an admin
       return role === "admin";
   }
+}
+
+/**
+ * What the role gate alone lets through, before a rule about the particular record: the
+ * creator of a project may be of any role that creates projects, and is asked for after the
+ * gate; so is the submitter of a job (an engineer or an admin).
+ */
+function gateMay(who: Who, role: Role): boolean {
+  if (who === "managers") return true;
+  if (who === "submitter-or-admin") return roleMay("produce", role);
+  return roleMay(who, role);
 }
 
 type Expect = { code: number | "302 to sign-in" | "pass"; why: string };
@@ -200,7 +227,7 @@ function classify(status: number, location: string | null): string {
   return String(status);
 }
 
-async function call(mod: Record<string, unknown>, method: Method, pattern: string, c: Caller): Promise<{ status: number; location: string | null }> {
+async function call(mod: Record<string, unknown>, method: Method, pattern: string, c: Caller, fields: Record<string, string> = {}): Promise<{ status: number; location: string | null }> {
   const fn = (method === "GET" ? mod.loader : mod.action) as ((a: unknown) => Promise<unknown>) | undefined;
   if (!fn) return { status: 200, location: null };
   const { url, params } = urlFor(pattern);
@@ -211,8 +238,13 @@ async function call(mod: Record<string, unknown>, method: Method, pattern: strin
     headers.origin = "http://localhost:4310"; // our own pages; the same-origin rule has its own test
     if (api) {
       headers["content-type"] = "application/json";
-      body = "{}";
-    } else body = new FormData(); // an empty multipart form: uploads and intents alike stop at validation
+      body = JSON.stringify(fields);
+    } else {
+      // multipart, as the page forms send uploads: without fields, uploads and intents alike stop at validation
+      const form = new FormData();
+      for (const [k, v] of Object.entries(fields)) form.set(k, v);
+      body = form;
+    }
   }
   const cred = c.role ? creds[`${c.role}:${c.member}`]! : null;
   const request = req(url, { method, headers, body, cookie: c.via === "session" ? cred?.cookie : undefined, key: c.via === "key" ? cred?.key : undefined });
@@ -225,21 +257,75 @@ async function call(mod: Record<string, unknown>, method: Method, pattern: strin
   }
 }
 
+const ruleOf = (key: string) => Object.entries(RULES).find(([k]) => norm(k) === norm(key))?.[1];
+
+function allCallers(): Caller[] {
+  const callers: Caller[] = [{ label: "anonymous", role: null, member: false, via: null }];
+  for (const role of ROLES)
+    for (const member of [true, false])
+      for (const via of ["session", "key"] as const) callers.push({ label: `${role} ${member ? "member" : "non-member"} by ${via}`, role, member, via });
+  return callers;
+}
+
+/** Whether an answer matches what the role table expects. */
+function matches(want: Expect, who: Who, rule: Rule, got: { status: number; location: string | null }): boolean {
+  const code = classify(got.status, got.location);
+  const pass = !["401", "403", "302 to sign-in"].includes(code) && (code !== "404" || !rule.project) && got.status !== 500;
+  return want.code === "pass" ? pass || (who === "anyone" && got.status !== 500) : code === String(want.code);
+}
+
 describe("role x membership x route matrix (product.md role table)", () => {
   it("every route of app/routes.ts has a rule here", () => {
-    const missing = flat.filter((f) => !Object.keys(RULES).some((k) => norm(k) === norm(f.key))).map((f) => `${f.key} (${f.file})`);
+    const missing = flat.filter((f) => !ruleOf(f.key)).map((f) => `${f.key} (${f.file})`);
     expect(missing, `add a rule for: ${missing.join(", ")}`).toEqual([]);
   });
 
+  it("every route has an entry in app/lib/auth/route-access.ts that says what this table says", async () => {
+    const { accessFor, allows } = await import("~/lib/auth/route-access");
+    const problems: string[] = [];
+    for (const f of flat) {
+      const access = accessFor(f.key);
+      const rule = ruleOf(f.key);
+      if (!access) {
+        problems.push(`${f.key} (${f.file}): no entry in route-access.ts`);
+        continue;
+      }
+      if (!rule) continue; // reported by the test above
+      const listed = Object.keys(access).sort().join(",");
+      const here = (["GET", "POST", "DELETE"] as Method[]).filter((m) => rule[m]).sort().join(",");
+      if (listed !== here) problems.push(`${f.key}: route-access.ts lists ${listed}, the role table ${here}`);
+      for (const method of ["GET", "POST", "DELETE"] as Method[]) {
+        const who = rule[method];
+        const gate = access[method];
+        if (!who || !gate) continue;
+        if (allows(gate, null) !== (who === "anyone")) problems.push(`${method} ${f.key}: anonymous ${allows(gate, null) ? "allowed" : "refused"} by route-access.ts`);
+        for (const role of ROLES)
+          if (allows(gate, role) !== gateMay(who, role)) problems.push(`${method} ${f.key}: route-access.ts ${allows(gate, role) ? "lets" : "stops"} ${role}, the role table (${who}) does not`);
+      }
+    }
+    expect(problems).toEqual([]);
+  });
+
+  it("every server function of a route module has its rule, and a guarded page has a loader", async () => {
+    const problems: string[] = [];
+    for (const f of flat) {
+      const rule = ruleOf(f.key);
+      if (!rule) continue;
+      const mod = (await import(/* @vite-ignore */ path.resolve("app", f.file))) as Record<string, unknown>;
+      if (mod.loader && !rule.GET) problems.push(`${f.key}: has a loader but no GET rule`);
+      if (mod.action && !rule.POST && !rule.DELETE) problems.push(`${f.key}: has an action but no POST/DELETE rule`);
+      if (!mod.loader && rule.GET && rule.GET !== "anyone" && mod.default) problems.push(`${f.key}: GET is restricted but the page has no loader to enforce it`);
+      if ((rule.POST || rule.DELETE) && !mod.action) problems.push(`${f.key}: POST/DELETE has a rule but there is no action`);
+    }
+    expect(problems).toEqual([]);
+  });
+
   it("each caller gets the code the role table gives", async () => {
-    const callers: Caller[] = [{ label: "anonymous", role: null, member: false, via: null }];
-    for (const role of ROLES)
-      for (const member of [true, false])
-        for (const via of ["session", "key"] as const) callers.push({ label: `${role} ${member ? "member" : "non-member"} by ${via}`, role, member, via });
+    const callers = allCallers();
     const mismatches: string[] = [];
     let calls = 0;
     for (const f of flat) {
-      const rule = Object.entries(RULES).find(([k]) => norm(k) === norm(f.key))?.[1];
+      const rule = ruleOf(f.key);
       if (!rule) continue;
       const mod = (await import(/* @vite-ignore */ path.resolve("app", f.file))) as Record<string, unknown>;
       const api = f.pattern.startsWith("/api/");
@@ -251,10 +337,7 @@ describe("role x membership x route matrix (product.md role table)", () => {
           const want = expected(rule, who, c, api, f.pattern.includes(":"));
           const got = await call(mod, method, f.pattern, c);
           calls++;
-          const code = classify(got.status, got.location);
-          const pass = !["401", "403", "302 to sign-in"].includes(code) && (code !== "404" || !rule.project) && got.status !== 500;
-          const ok = want.code === "pass" ? pass || (who === "anyone" && got.status !== 500) : code === String(want.code);
-          if (!ok) mismatches.push(`${method} ${f.key} as ${c.label}: expected ${want.code} (${want.why}), got ${got.status}${got.location ? ` ${got.location}` : ""}`);
+          if (!matches(want, who, rule, got)) mismatches.push(`${method} ${f.key} as ${c.label}: expected ${want.code} (${want.why}), got ${got.status}${got.location ? ` ${got.location}` : ""}`);
           // a sign-out ends that session; sign the caller in again for the next routes
           if (f.key === "/sign-out" && c.via === "session" && c.role) creds[`${c.role}:${c.member}`]!.cookie = await sessionCookie(creds[`${c.role}:${c.member}`]!.email);
         }
@@ -263,6 +346,27 @@ describe("role x membership x route matrix (product.md role table)", () => {
     expect(mismatches).toEqual([]);
     expect(calls).toBeGreaterThan(500);
   }, 600_000);
+
+  it("actions that branch on their body answer per body as the role table says", async () => {
+    const mismatches: string[] = [];
+    let calls = 0;
+    for (const bc of BODY_CASES) {
+      const f = flat.find((x) => norm(x.key) === norm(bc.route));
+      expect(f, `${bc.route} is a route of app/routes.ts`).toBeDefined();
+      const rule = ruleOf(bc.route)!;
+      const mod = (await import(/* @vite-ignore */ path.resolve("app", f!.file))) as Record<string, unknown>;
+      const api = f!.pattern.startsWith("/api/");
+      for (const c of allCallers()) {
+        if (!api && c.via === "key" && c.role !== "admin") continue;
+        const want = expected(rule, bc.who, c, api, true);
+        const got = await call(mod, bc.method, f!.pattern, c, bc.body);
+        calls++;
+        if (!matches(want, bc.who, rule, got)) mismatches.push(`${bc.method} ${bc.route} ${JSON.stringify(bc.body)} as ${c.label}: expected ${want.code} (${want.why}), got ${got.status}${got.location ? ` ${got.location}` : ""}`);
+      }
+    }
+    expect(mismatches).toEqual([]);
+    expect(calls).toBeGreaterThan(60);
+  }, 300_000);
 
   it("admins see every project; others only their own, in lists too", async () => {
     const { loader } = await import("~/routes/api/projects");

@@ -1,6 +1,8 @@
-// Who may call each route of app/routes.ts, as data. tests/auth/route-matrix.test.ts calls
-// every route with every role and an anonymous caller and checks the outcome against this
-// table; a route of app/routes.ts without an entry here fails that test.
+// Who may call each route of app/routes.ts, as data: the role gate of each server function,
+// before any rule about the particular record (membership: 404 outside one's projects; the
+// project's creator, the job's submitter). tests/auth/membership-matrix.test.ts holds this
+// table against the product's role table and against the route modules; a route of
+// app/routes.ts without an entry here fails it.
 //
 // Keys: the URL pattern as routes.ts builds it ("/api/jobs/:jobId/reviews"; parameter names
 // do not matter), or "layout:<file>" for a pathless layout. Values per HTTP method:
@@ -80,25 +82,6 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/api/catalogues/:id/retire": { POST: PRODUCERS },
   "/dev/inbox": { GET: ADMIN }, // any signed-in role too, but only when NODE_ENV=development
 };
-
-/**
- * Actions that do different things by their body (a form's "intent") have their cases here:
- * the matrix test also sends each body and checks the outcome per role.
- */
-export interface BodyCase {
-  route: string; // a key of ROUTE_ACCESS
-  method: Exclude<Method, "GET">;
-  body: Record<string, string>; // form fields for pages, JSON for /api/*
-  access: Access;
-}
-
-export const BODY_CASES: BodyCase[] = [
-  { route: "/jobs/:id", method: "POST", body: { intent: "review", decision: "approved", comment: "checked" }, access: CHECKERS },
-  { route: "/api/jobs/:id/reviews", method: "POST", body: { decision: "approved", comment: "checked" }, access: CHECKERS },
-  { route: "/admin/users", method: "POST", body: { intent: "invite", email: "someone@example.com", role: "viewer" }, access: ADMIN },
-  { route: "/account", method: "POST", body: { intent: "create", name: "matrix key" }, access: ALL },
-  { route: "/projects", method: "POST", body: { code: "MATRIX", name: "matrix" }, access: PRODUCERS },
-];
 
 /** "/api/jobs/:jobId/reviews" and "/api/jobs/:id/reviews" are the same route. */
 export function normalizePattern(pattern: string): string {
