@@ -1,8 +1,7 @@
 // The elastic subproblem's Hessian: B extended by the relaxation variable.
 import type { QpHessian } from "./dual-qp";
 import { type HessianApprox, type ReducedInverse, dot } from "./hessian";
-
-const ELASTIC_WEIGHT = 1e6;
+import { ELASTIC_WEIGHT } from "./thresholds";
 
 /**
  * B extended by the elastic variable at index n, with curvature ELASTIC_WEIGHT times a size

@@ -52,7 +52,7 @@ export interface SqpProgress {
 export interface SqpOptions {
   /** Major (SQP) iterations; default 200. */
   maxIterations?: number;
-  /** Scaled KKT tolerance; default 1e-8 (see the module doc comment in minimize.ts). */
+  /** Scaled KKT tolerance; default 1e-8 (see termination.ts). */
   tolerance?: number;
   timeLimitMs?: number;
   /** Default: "bfgs" up to 400 variables, "lbfgs" above. */
