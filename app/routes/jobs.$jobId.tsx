@@ -2,7 +2,8 @@ import { eq } from "drizzle-orm";
 import { useEffect, useMemo, useState } from "react";
 import { data, Link } from "react-router";
 import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
-import { GoverningConstraints } from "~/components/job/GoverningConstraints";
+import { CriterionCostsPanel } from "~/components/job/CriterionCostsPanel";
+import { DeflectionSummaryPanel } from "~/components/job/DeflectionSummaryPanel";
 import { LowerBoundGauge } from "~/components/job/LowerBoundGauge";
 import { CleanLayoutPanel } from "~/components/job/CleanLayoutPanel";
 import { LiveProgress, normalizeHistory } from "~/components/job/LiveProgress";
@@ -326,13 +327,10 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             <h2 className="mb-3 font-semibold">Convergence</h2>
             {result ? <ConvergencePlot history={normalizeHistory(result.history)} objectiveLabel={objectiveLabel} /> : <LoadingNote>Loading the iteration history…</LoadingNote>}
           </section>
-          <section className="card min-w-0" aria-label="Governing limits">
-            <h2 className="mb-1 font-semibold">Governing limits and their shadow prices</h2>
-            <p className="mb-3 text-sm text-ink-muted">What each binding limit costs: the change of the {head.objective.kind} per unit the limit is relaxed.</p>
-            <GoverningConstraints result={head} total={head.activeCount} />
-          </section>
+          <DeflectionSummaryPanel result={head} />
         </div>
       )}
+      {head && <CriterionCostsPanel result={head} activeCount={head.activeCount} />}
 
       {head && head.variables.length > 0 && (
         <section className="card" aria-label="Shape variables">

@@ -35,9 +35,9 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
         {shown.map((r) => (
           <li key={r.id} className="rounded-md border border-rule px-3 py-2">
             <div className="flex flex-wrap items-baseline justify-between gap-x-4">
-              <code className="min-w-0 truncate font-mono text-xs text-ink-muted" title={r.id}>
-                {r.id}
-              </code>
+              <span className="min-w-0 text-xs text-ink-muted" title={r.id}>
+                {describeConstraint(r.id)}
+              </span>
               <span className="num text-sm text-ink" title="shadow price (Lagrange multiplier)">
                 {formatResidual(r.multiplier)} {r.unit}
               </span>
@@ -52,7 +52,7 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
           <ul className="mt-2 space-y-1">
             {rows.slice(limit).map((r) => (
               <li key={r.id} className="flex gap-3">
-                <code className="font-mono text-xs text-ink-muted">{r.id}</code>
+                <span className="text-xs text-ink-muted" title={r.id}>{describeConstraint(r.id)}</span>
                 <span className="num">{formatResidual(r.multiplier)} {r.unit}</span>
               </li>
             ))}
