@@ -81,11 +81,15 @@ export function randomTruss(seed: number, opts: RandomTrussOptions = {}): Random
   let generated;
   if (kind === "girder" || kind === "roof") {
     const span = between(6, 36);
-    const panels = large ? int(10, 40) : int(4, 10);
+    let panels = large ? int(10, 40) : int(4, 10);
+    const pattern = pick(["pratt", "howe", "warren", "warren-verticals"] as const);
+    const chord = kind === "girder" ? "flat" : pick(["duo-pitch", "mono-pitch"] as const);
+    // a duo-pitch Pratt or Howe truss needs a node at the ridge
+    if (chord === "duo-pitch" && (pattern === "pratt" || pattern === "howe") && panels % 2 === 1) panels++;
     generated = generateModel("planar-truss", {
       ...common,
-      pattern: pick(["pratt", "howe", "warren", "warren-verticals"] as const),
-      chord: kind === "girder" ? "flat" : pick(["duo-pitch", "mono-pitch"] as const),
+      pattern,
+      chord,
       span,
       panels,
       depth: kind === "girder" ? span / between(7, 14) : span / between(20, 40),
@@ -120,7 +124,7 @@ export function randomTruss(seed: number, opts: RandomTrussOptions = {}): Random
       areaLoad: between(0.5, 4),
     });
   }
-  if (!generated || !generated.ok) throw new Error(`random truss ${seed}: the generator refused its parameters`);
+  if (!generated || !generated.ok) throw new Error(`random truss ${seed}: the generator refused its parameters: ${JSON.stringify(generated && !generated.ok ? generated.errors : kind)}`);
   const model = structuredClone(generated.model);
   const design = model.design!;
 

@@ -1,6 +1,15 @@
-// The Euler check of one member in ratio form (problem.ts): -sigma / sigma_E - 1 with
-// sigma_E = pi^2 E I / ((k L)^2 A). Writing sigma = E (d.du) / L^2, E and L^2 cancel:
-//   value = -c (d.du) - 1,   c = k^2 A / (pi^2 I)
+// The Euler check of one member, compressive stress against the Euler stress
+// sigma_E = pi^2 E I / ((k L)^2 A), written as a stress difference over a fixed reference
+// stress (problem.ts):  value = (-sigma - sigma_E(A)) / sigma_ref  <= 0.
+// With sigma = E (d.du) / L^2 and q(A) = I / A:
+//   value = -E / (sigma_ref L^2) * ((d.du) + pi^2 q(A) / k^2)
+// Why not the ratio -sigma / sigma_E - 1: with I = ratio A^2, sigma_E shrinks in proportion to
+// A, so the ratio grows like 1/A and curves like 1/A^3 at small areas. A member at its minimum
+// area whose strain the rest of the structure sets then has a row whose linearization is
+// wrong after a 1 % change of any area, and the solver crawled there (KKT measure stuck at
+// 1e-2 on ungrouped buckling-limited space grids, steps of 1e-4). The difference form is
+// linear in A for I = ratio A^2, as smooth in the strain as a stress row, and has the same
+// zero set (sigma_E > 0).
 // I comes from one of three places: the chosen section (catalogue designs: fixed per member),
 // a fit I = a A^b over the model's sections, or I = sectionRatio A^2 (a = ratio, b = 2).
 import type { SectionFit } from "../sections/fit";
@@ -22,12 +31,15 @@ export function secondMoment(b: BucklingModel, e: number, A: number): number {
   return b.memberI ? b.memberI[e] : b.a * A ** b.b;
 }
 
-/** c of the ratio form and dc/dA (0 when I is fixed, A is then fixed too). */
-export function bucklingCoefficient(b: BucklingModel, e: number, A: number): { c: number; dcdA: number } {
-  const k2 = b.k[e] * b.k[e];
-  if (b.memberI) return { c: (k2 * A) / (Math.PI * Math.PI * b.memberI[e]), dcdA: 0 };
-  const c = (k2 * A ** (1 - b.b)) / (Math.PI * Math.PI * b.a);
-  return { c, dcdA: ((1 - b.b) * c) / A };
+/**
+ * pi^2 q(A) / k^2 with q = I / A (the Euler stress times L^2 / E) and its derivative by A
+ * (0 when I is fixed by a chosen section: A is then fixed too).
+ */
+export function eulerStrainTerm(b: BucklingModel, e: number, A: number): { w: number; dwdA: number } {
+  const c = (Math.PI * Math.PI) / (b.k[e] * b.k[e]);
+  if (b.memberI) return { w: (c * b.memberI[e]) / A, dwdA: 0 };
+  const w = c * b.a * A ** (b.b - 1);
+  return { w, dwdA: ((b.b - 1) * w) / A };
 }
 
 /** Euler stress pi^2 E I / ((k L)^2 A), positive. */

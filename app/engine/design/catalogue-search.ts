@@ -18,7 +18,7 @@ import type { LadderStep } from "../sections";
 import { limitValue, objectiveValue, type LimitState } from "./limits";
 import type { DesignProblem } from "./problem";
 
-/** A limit value above this (ratio form, 0 on the limit) is a failure. */
+/** A limit value above this (problem.ts forms, 0 on the limit) is a failure. */
 export const CATALOGUE_FEASIBILITY = 1e-9;
 /** Default cap on full analyses of the discrete search. */
 export const CATALOGUE_MAX_ANALYSES = 50000;

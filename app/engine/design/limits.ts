@@ -1,9 +1,9 @@
-// Values and explicit partial derivatives of every limit (see problem.ts for the ratio forms).
+// Values and explicit partial derivatives of every limit (see problem.ts for their forms).
 // Each limit is g(A, x, u) with u entering linearly, so one routine serves both formulations:
 // the nested one adds the adjoint term for u = u(A, x), the simultaneous one keeps the u part
 // as Jacobian entries on the displacement variables.
 import type { DesignProblem, Limit } from "./problem";
-import { bucklingCoefficient } from "./buckling";
+import { eulerStrainTerm } from "./buckling";
 
 /** Sparse partials of one limit: by member area, by coordinate dof, by displacement dof. */
 export class Partials {
@@ -75,10 +75,11 @@ export function limitValue(p: DesignProblem, lim: Limit, st: LimitState): number
       return (lim.sign * sigma) / lim.limit - 1;
     }
     case "buckling": {
-      // -sigma / sigma_E - 1 = -c (d.du) - 1, c = k^2 A / (pi^2 I)   (E and L^2 cancel)
+      // (-sigma - sigma_E) / sigma_ref = -E / (sigma_ref L^2) ((d.du) + w(A))   (buckling.ts)
       memberVectors(p, st, lim.member, st.displacements[lim.loadCase]);
-      const e = d[0] * du[0] + d[1] * du[1] + d[2] * du[2];
-      return -bucklingCoefficient(p.buckling!, lim.member, st.areas[lim.member]).c * e - 1;
+      const L2 = d[0] * d[0] + d[1] * d[1] + d[2] * d[2];
+      const W = d[0] * du[0] + d[1] * du[1] + d[2] * du[2] + eulerStrainTerm(p.buckling!, lim.member, st.areas[lim.member]).w;
+      return (-s.E[lim.member] * W) / (lim.limit * L2);
     }
     case "displacement":
       return (lim.sign * st.displacements[lim.loadCase][lim.dof]) / lim.limit - 1;
@@ -109,13 +110,18 @@ export function limitPartials(p: DesignProblem, lim: Limit, st: LimitState, out:
       return;
     }
     case "buckling": {
+      // g = -S W, S = E / (sigma_ref L^2), W = (d.du) + w(A):
+      // dg/dA = -S w'(A); dg/d(du) = -S d; dg/dd = -S du + 2 S W d / L^2
       memberVectors(p, st, e, st.displacements[lim.loadCase]);
-      const { c, dcdA } = bucklingCoefficient(p.buckling!, e, st.areas[e]);
-      const ed = d[0] * du[0] + d[1] * du[1] + d[2] * du[2];
+      const { w, dwdA } = eulerStrainTerm(p.buckling!, e, st.areas[e]);
+      const L2 = d[0] * d[0] + d[1] * d[1] + d[2] * d[2];
+      const S = s.E[e] / (lim.limit * L2);
+      const W = d[0] * du[0] + d[1] * du[1] + d[2] * du[2] + w;
       out.aIdx.push(e);
-      out.aVal.push(-dcdA * ed);
-      out.addMemberVector(p, e, du, -c);
-      out.addMemberRelative(p, e, d, -c);
+      out.aVal.push(-S * dwdA);
+      for (let a = 0; a < 3; a++) gd[a] = -du[a] + (2 * W * d[a]) / L2;
+      out.addMemberVector(p, e, gd, S);
+      out.addMemberRelative(p, e, d, -S);
       return;
     }
     case "displacement":

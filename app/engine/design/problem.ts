@@ -8,7 +8,10 @@
 // - objective F = f / f_0, f_0 = the objective at the starting design;
 // - every limit as a ratio that is 0 on the limit and -1 far away from it:
 //     stress       sigma/sigma_t - 1,  -sigma/sigma_c - 1
-//     buckling     -sigma/sigma_E - 1, sigma_E = pi^2 E I / ((k L)^2 A) (Euler; I see buckling.ts)
+//     buckling     (-sigma - sigma_E) / sigma_ref, sigma_E = pi^2 E I / ((k L)^2 A) (Euler; I see
+//                  buckling.ts), sigma_ref = sigma_E of the member at its starting area and
+//                  length (Limit.limit): a stress difference, not the ratio -sigma/sigma_E - 1,
+//                  whose 1/A^3 curvature at small areas stalled the solver (buckling.ts)
 //     displacement +-u/limit - 1
 //     volume       V/V_max - 1
 //     length       1 - L/L_min (shape only: L_min = 0.2 L_0 keeps members from collapsing or
@@ -22,7 +25,7 @@ import type { JobOptions } from "./options";
 import type { DesignModel } from "./model-shape";
 import { memberLengths } from "./element";
 import { fitSecondMoment } from "../sections/fit";
-import type { BucklingModel } from "./buckling";
+import { eulerStress, type BucklingModel } from "./buckling";
 import { maxOf } from "../util/extent";
 
 export type Objective = "mass" | "compliance";
@@ -54,7 +57,7 @@ export interface Limit {
   dof: number; // displacement limits: node*3 + axis; else -1
   sign: 1 | -1; // displacement: which side of |u| <= limit
   loadCase: number; // response index (load case, then combination); -1 for volume and length
-  limit: number; // in model units (stress, length, volume)
+  limit: number; // in model units (stress, length, volume; buckling: the reference stress sigma_ref)
   /** displacement: index into displacementSpecs() of the deflection limit that sets it */
   spec?: number;
 }
@@ -174,6 +177,8 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
   const useStress = options.stress ?? c.stress ?? false;
   const useBuckling = options.buckling ?? Boolean(c.buckling);
   const buckling = useBuckling ? bucklingModel(model, c.buckling) : null;
+  const lengthsAtStart = memberLengths(s, s.coords);
+  const bucklingReference = (e: number) => eulerStress(buckling!, e, s.E[e], areaVars[memberVar[e]].initial, lengthsAtStart[e]);
   const strengthResponses = responsesFor(s, "strength");
   const serviceResponses = responsesFor(s, "service");
   void nLc;
@@ -187,7 +192,7 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
       if (useStress && Number.isFinite(s.allowCompression[e])) {
         limits.push({ kind: "stress-compression", id: `stress:${id}:${lc}`, member: e, dof: -1, sign: -1, loadCase: l, limit: s.allowCompression[e] });
       }
-      if (buckling) limits.push({ kind: "buckling", id: `buckling:${id}:${lc}`, member: e, dof: -1, sign: -1, loadCase: l, limit: 0 });
+      if (buckling) limits.push({ kind: "buckling", id: `buckling:${id}:${lc}`, member: e, dof: -1, sign: -1, loadCase: l, limit: bucklingReference(e) });
     }
   }
   const deflectionSpecs = displacementSpecs(model, options);

@@ -4,10 +4,11 @@
 // At the optimum dF*/d(limit) = -mu dg/d(limit) = -mu r / limit^2 = -mu (1 + g) / limit, so
 // relaxing a limit by one model unit lowers the objective by about
 //   price = f0 mu (1 + g) / limit        [objective units per limit unit].
+// Buckling is a stress difference over a reference stress, g = (-sigma - sigma_E) / sigma_ref:
+// price = f0 mu / sigma_ref per unit of Euler stress.
 // Area and shape bounds in scaled variables z = A / A_ref: price = f0 mu / A_ref.
 // The dimensionless mu itself is the relative change of F per relative relaxation (times
 // f0 / f*), which is what ranks the limits by how much they cost.
-import { eulerStress } from "./buckling";
 import type { SqpResult } from "../sqp";
 import type { ActiveConstraint, ShadowPrice } from "./result-types";
 import type { DesignProblem, Limit } from "./problem";
@@ -72,14 +73,10 @@ export function priceConstraints(p: DesignProblem, r: SqpResult, objectiveScale:
     const g = r.ineq[k];
     if (!(mu > MULTIPLIER_FLOOR) && !(Math.abs(g) < ACTIVE_GAP)) return;
     const words = limitWords(p, lim);
-    let scaleLimit = lim.limit;
-    if (lim.kind === "buckling") {
-      // the limit is the Euler stress of the final member: price per unit of it
-      const A = p.areaVars[p.memberVar[lim.member]].scale * r.x[p.memberVar[lim.member]];
-      const L = memberLengthAt(p, r.x, lim.member);
-      scaleLimit = eulerStress(p.buckling!, lim.member, p.structure.E[lim.member], A, L);
-    }
-    const price = mu > MULTIPLIER_FLOOR ? (objectiveScale * mu * (1 + g)) / scaleLimit : 0;
+    // buckling is the stress difference (-sigma - sigma_E) / sigma_ref (problem.ts): relaxing
+    // the Euler stress by one unit moves g by 1 / sigma_ref, whatever g is
+    const perUnit = lim.kind === "buckling" ? 1 / lim.limit : (1 + g) / lim.limit;
+    const price = mu > MULTIPLIER_FLOOR ? objectiveScale * mu * perUnit : 0;
     add(lim.id, mu > MULTIPLIER_FLOOR ? mu : 0, price, words.what, words.relaxUnit);
   });
   const areaUnit = `${p.model.units.length}²`;
@@ -98,23 +95,6 @@ export function priceConstraints(p: DesignProblem, r: SqpResult, objectiveScale:
     if (hi > MULTIPLIER_FLOOR) add(`shape-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, `upper end of shape variable ${v.id}`, len);
   });
   return [...out.values()].sort((a, b) => b.scaled - a.scaled || a.id.localeCompare(b.id));
-}
-
-function memberLengthAt(p: DesignProblem, x: Float64Array, e: number): number {
-  const s = p.structure;
-  const nA = p.areaVars.length;
-  const c = (dof: number) => {
-    let v = p.coords0[dof];
-    for (const t of p.dofShape.get(dof) ?? []) v += t.c * x[t.v];
-    return v;
-  };
-  let L2 = 0;
-  for (let a = 0; a < 3; a++) {
-    const d = c(3 * s.end[e] + a) - c(3 * s.start[e] + a);
-    L2 += d * d;
-  }
-  void nA;
-  return Math.sqrt(L2);
 }
 
 export function activeConstraints(priced: PricedConstraint[]): ActiveConstraint[] {
