@@ -211,7 +211,7 @@ function convertUnits(model: TrussModelInput, u: UnitSystem): void {
     if (mat.allowableTension !== undefined) mat.allowableTension *= stress;
     if (mat.allowableCompression !== undefined) mat.allowableCompression *= stress;
   }
-  for (const m of model.members) m.area *= L * L;
+  for (const m of model.members) if (m.area !== undefined) m.area *= L * L;
   for (const lc of model.loadCases) for (const l of lc.loads) for (const k of ["fx", "fy", "fz"] as const) if (l[k] !== undefined) l[k]! *= F;
   const d = model.design!;
   if (d.areaBounds) d.areaBounds = { min: d.areaBounds.min! * L * L, max: d.areaBounds.max! * L * L };
