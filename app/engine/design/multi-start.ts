@@ -175,10 +175,10 @@ export function combineStarts(runs: { label: string; result: TrussResult }[], el
     ? `${reached} of ${runs.length} starts reached this design`
     : `None of the ${runs.length} starts reached a design proved optimal; this is the run from your start`;
   if (trusted(best.result) && others.length > 0) {
-    const parts: string[] = [];
-    if (otherEnds.length > 0) parts.push(`stopped at ${otherEnds.join(", ")}`);
-    if (unfinished > 0) parts.push(`${unfinished} did not converge`);
-    summary += `; the others ${parts.join(" and ")}`;
+    const ends = otherEnds.join(", ");
+    if (unfinished === 0) summary += `; the others stopped at ${ends}`;
+    else if (otherEnds.length === 0) summary += unfinished === 1 ? "; the other did not converge" : `; the other ${unfinished} did not converge`;
+    else summary += `; the others stopped at ${ends} and ${unfinished} did not converge`;
   }
   summary += ".";
   const starts: StartsSummary = {

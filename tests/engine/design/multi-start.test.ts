@@ -93,6 +93,11 @@ describe("combineStarts", () => {
     expect(r.starts!.summary).toMatch(/^2 of 4 starts reached this design; the others stopped at 110 .* and 1 did not converge\.$/);
   });
 
+  it("says plainly when the only other start did not converge", () => {
+    const r = combineStarts([{ label: "your start", result: variant(100) }, { label: "b", result: variant(90, "not-converged") }], 1);
+    expect(r.starts!.summary).toBe("1 of 2 starts reached this design; the other did not converge.");
+  });
+
   it("falls back to the engineer's own start when no start converged", () => {
     const r = combineStarts([{ label: "your start", result: variant(110, "not-converged") }, { label: "b", result: variant(90, "not-converged") }], 1);
     expect(r.objective.final).toBe(110);
