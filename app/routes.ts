@@ -22,6 +22,7 @@ export default [
     route("projects/:projectId/new-model", "routes/projects.$projectId.new-model.tsx"),
     route("jobs", "routes/jobs._index.tsx"),
     route("jobs/:jobId", "routes/jobs.$jobId.tsx"),
+    route("compare", "routes/compare.tsx"),
     route("catalogues", "routes/catalogues._index.tsx"),
     route("catalogues/:catalogueId", "routes/catalogues.$catalogueId.tsx"),
     route("dev/inbox", "routes/dev.inbox.tsx"),

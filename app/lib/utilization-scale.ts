@@ -19,7 +19,7 @@ const STOPS: [number, [number, number, number]][] = [
   [1, [0.36, 0.02, -0.11]],
 ];
 
-function oklabToHex([L, a, b]: [number, number, number]): string {
+export function oklabToHex([L, a, b]: [number, number, number]): string {
   const l = (L + 0.3963377774 * a + 0.2158037573 * b) ** 3;
   const m = (L - 0.1055613458 * a - 0.0638541728 * b) ** 3;
   const s = (L - 0.0894841775 * a - 1.291485548 * b) ** 3;

@@ -1,6 +1,6 @@
 import { eq } from "drizzle-orm";
 import { useEffect, useMemo, useState } from "react";
-import { data, Link } from "react-router";
+import { data, Form, Link } from "react-router";
 import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
 import { CriterionCostsPanel } from "~/components/job/CriterionCostsPanel";
 import { DeflectionSummaryPanel } from "~/components/job/DeflectionSummaryPanel";
@@ -32,9 +32,11 @@ import { createReview, listReviews, reopenReview } from "~/lib/auth/reviews.serv
 import type { TrussResult } from "~/engine/design/result-types";
 import { notFound, withDependencies } from "~/lib/http.server";
 import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
+import { comparableRuns } from "~/lib/jobs/compare.server";
 import { getModelFile } from "~/lib/models.server";
 import type { Route } from "./+types/jobs.$jobId";
 import { plainText } from "~/lib/text-hygiene";
+import { jobState } from "~/lib/job-state";
 import { maxOf } from "~/engine/util/extent";
 
 export function meta({ data }: Route.MetaArgs) {
@@ -95,11 +97,12 @@ export const loader = withDependencies(async function loader({ request, params }
   if (!facts) notFound(`The model of job ${job.id}`);
 
   const live = job.status === "queued" || job.status === "running";
-  const [file, result, history, reviews] = await Promise.all([
+  const [file, result, history, reviews, comparable] = await Promise.all([
     live ? getModelFile(job.modelId).catch(() => null) : Promise.resolve(null),
     job.hasResult ? getJobResult(job.id) : Promise.resolve(null),
     live ? getJobHistory(job.id) : Promise.resolve([]),
     listReviews(job.id),
+    job.hasResult ? comparableRuns(job.modelId, job.id) : Promise.resolve([]),
   ]);
   const text = file?.text ?? "";
   const own = job.submittedBy === user.id;
@@ -125,6 +128,7 @@ export const loader = withDependencies(async function loader({ request, params }
     head: result ? headOf(result) : null,
     history: normalizeHistory(history),
     reviews: reviews.map((r) => ({ id: r.id, decision: r.decision, comment: r.comment, reviewerName: r.reviewerName || r.reviewerEmail, createdAt: r.createdAt })),
+    comparable,
     may: {
       cancel: can(user.role, "cancel:job:any") || (own && can(user.role, "cancel:job:own")),
       review: can(user.role, "review:job") && !own,
@@ -427,6 +431,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               </span>
             </li>
           </ul>
+          {loaderData.comparable.length > 0 && <CompareWith jobId={job.id} others={loaderData.comparable} />}
           {may.rerun && !live && (
             <div className="mt-4 flex flex-wrap gap-2">
               <Link to={`/models/${facts.modelId}`} className="btn btn-secondary">
@@ -441,5 +446,27 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       </div>
     </div>
     </ResultCaseProvider>
+  );
+}
+
+/** "Compare with…": another run of this model with a result, opened side by side (a GET form to /compare). */
+function CompareWith({ jobId, others }: { jobId: string; others: { id: string; modelVersion: number | null; createdAt: string | Date; outcome: string | null; status: string }[] }) {
+  return (
+    <Form method="get" action="/compare" className="mt-4 flex flex-wrap items-end gap-2 border-t border-rule pt-4" aria-label="Compare with another run">
+      <label className="block min-w-0 flex-1">
+        <span className="field-label">Compare with…</span>
+        <select name="jobs" className="field-input" data-testid="compare-with">
+          {others.map((o) => (
+            <option key={o.id} value={`${jobId},${o.id}`}>
+              job {o.id.slice(0, 8)}
+              {o.modelVersion !== null ? ` · version ${o.modelVersion}` : ""} · {formatDateTime(o.createdAt)} · {jobState({ status: o.status, outcome: o.outcome, hasResult: true }).sentence}
+            </option>
+          ))}
+        </select>
+      </label>
+      <button type="submit" className="btn btn-secondary" data-testid="compare-with-go">
+        Compare
+      </button>
+    </Form>
   );
 }

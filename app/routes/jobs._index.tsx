@@ -116,6 +116,7 @@ export default function JobsIndex({ loaderData }: Route.ComponentProps) {
           rows={rows}
           pollUrl={pollUrl}
           pageSize={PAGE}
+          selectable
           empty={
             <EmptyState title={filters.status || filters.projectId || filters.review ? "No jobs match these filters" : "No jobs yet"}>
               {filters.status || filters.projectId || filters.review ? "Clear the filters to see every job." : "Upload a model on a project page and queue its first run."}

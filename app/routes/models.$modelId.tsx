@@ -295,7 +295,7 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
 
       <section className="card min-w-0" aria-label="Jobs of this model">
         <h2 className="mb-3 font-semibold">Runs of this model</h2>
-        <JobsList rows={jobs} showProject={false} showModel={false} pollUrl={`/api/jobs?modelId=${model.id}&limit=20`} empty={<EmptyState title="No runs yet">{may.queue ? "Queue the first one above." : "An engineer queues runs from this page."}</EmptyState>} />
+        <JobsList rows={jobs} selectable showProject={false} showModel={false} pollUrl={`/api/jobs?modelId=${model.id}&limit=20`} empty={<EmptyState title="No runs yet">{may.queue ? "Queue the first one above." : "An engineer queues runs from this page."}</EmptyState>} />
       </section>
     </div>
   );

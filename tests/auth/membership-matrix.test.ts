@@ -60,6 +60,7 @@ const RULES: Record<string, Rule> = {
   "/models/:p/versions/:p": { project: true, GET: "read", POST: "produce" },
   "/jobs": { GET: "read" },
   "/jobs/:p": { project: true, GET: "read", POST: "read" }, // the action's intents check review/cancel rights themselves
+  "/compare": { GET: "read" }, // the runs are named in ?jobs=; their 404 rule has its own test below
   "/catalogues": { GET: "read", POST: "produce" },
   "/catalogues/:p": { GET: "read", POST: "produce" },
   "/dev/inbox": { GET: "admin" }, // any signed-in role only when NODE_ENV=development
@@ -367,6 +368,24 @@ describe("role x membership x route matrix (product.md role table)", () => {
     expect(mismatches).toEqual([]);
     expect(calls).toBeGreaterThan(60);
   }, 300_000);
+
+  it("compares only runs in the caller's projects: a run outside them answers 404, even beside one inside", async () => {
+    const { loader } = await import("~/routes/compare");
+    const status = async (cookie: string, jobsParam: string) => {
+      try {
+        return outcome(await loader({ request: req(`/compare?jobs=${jobsParam}`, { cookie }), params: {}, context: {} } as never));
+      } catch (e) {
+        if (e instanceof Response) return e.status;
+        throw e;
+      }
+    };
+    // one run of the matrix project named twice: members get the page (it explains that two runs are needed)
+    expect(await status(creds["viewer:true"]!.cookie, `${fx.jobId},${fx.jobId}`)).toBe(400);
+    expect(await status(creds["viewer:false"]!.cookie, `${fx.jobId},${fx.jobId}`)).toBe(404);
+    expect(await status(creds["engineer:false"]!.cookie, `${fx.jobId},no-such-run`)).toBe(404);
+    expect(await status(creds["checker:true"]!.cookie, `${fx.jobId},no-such-run`)).toBe(404);
+    expect(await status(creds["admin:false"]!.cookie, fx.jobId)).toBe(400);
+  });
 
   it("admins see every project; others only their own, in lists too", async () => {
     const { loader } = await import("~/routes/api/projects");

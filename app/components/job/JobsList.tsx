@@ -2,7 +2,7 @@
 // Sorting runs over the rows on the page; while any row is queued or running the table asks
 // /api/jobs for fresh figures every two seconds (a fetch, not a page reload) and merges them.
 import { createColumnHelper } from "@tanstack/react-table";
-import { useEffect, useMemo, useRef, type ReactNode } from "react";
+import { useEffect, useMemo, useRef, useState, type ReactNode } from "react";
 import { Link, useFetcher } from "react-router";
 import { DataTable } from "~/components/tables/DataTable";
 import { gapColumn } from "./gap-column";
@@ -70,6 +70,7 @@ export function JobsList({
   showModel = true,
   empty,
   pageSize = 25,
+  selectable = false,
 }: {
   rows: JobListRow[];
   pollUrl?: string;
@@ -77,7 +78,11 @@ export function JobsList({
   showModel?: boolean;
   empty?: ReactNode;
   pageSize?: number;
+  /** a checkbox per finished run and "Compare selected" (the compare page) */
+  selectable?: boolean;
 }) {
+  const [picked, setPicked] = useState<string[]>([]);
+  const toggle = (id: string, on: boolean) => setPicked((p) => (on ? [...p.filter((x) => x !== id), id] : p.filter((x) => x !== id)));
   const fetcher = useFetcher<{ jobs?: ApiJob[] }>();
   const merged = useMemo(() => mergeLive(rows, fetcher.data?.jobs), [rows, fetcher.data]);
   const anyLive = merged.some((r) => LIVE.has(r.status));
@@ -95,6 +100,30 @@ export function JobsList({
   const col = createColumnHelper<JobListRow>();
   const columns = useMemo(
     () => [
+      ...(selectable
+        ? [
+            col.display({
+              id: "pick",
+              header: () => <span className="sr-only">select to compare</span>,
+              cell: (c) => {
+                const r = c.row.original;
+                const comparable = r.hasResult ?? r.status === "succeeded";
+                return (
+                  <input
+                    type="checkbox"
+                    className="h-4 w-4 accent-[var(--color-brass)]"
+                    aria-label={`Compare job ${r.id.slice(0, 8)} of ${r.modelName}`}
+                    disabled={!comparable}
+                    title={comparable ? undefined : "only runs with a result can be compared"}
+                    checked={picked.includes(r.id)}
+                    onChange={(e) => toggle(r.id, e.target.checked)}
+                    data-testid="compare-pick"
+                  />
+                );
+              },
+            }),
+          ]
+        : []),
       col.accessor("id", {
         header: "job",
         cell: (c) => (
@@ -108,7 +137,7 @@ export function JobsList({
         cell: (c) => {
           const r = c.row.original;
           return (
-            <span className="flex flex-wrap items-center gap-1.5" data-testid="job-status">
+            <span className="flex max-w-[15rem] flex-wrap items-center gap-1.5 whitespace-normal" data-testid="job-status">
               <JobStateBadge status={r.status} outcome={r.outcome} hasResult={r.hasResult} waitingFor={r.waitingFor} />
               {r.status === "running" && r.progress?.iteration != null && <span className="font-mono text-2xs text-ink-muted">it. {r.progress.iteration}</span>}
             </span>
@@ -125,10 +154,19 @@ export function JobsList({
           return <span className="text-xs text-ink-muted" data-review="none">nothing to review</span>;
         },
       }),
-      ...(showModel ? [col.accessor("modelName", { header: "model", cell: (c) => <span className="block max-w-[16rem] truncate" title={c.getValue()}>{c.getValue()}</span> })] : []),
+      ...(showModel ? [col.accessor("modelName", { header: "model", cell: (c) => <span className="block max-w-[13rem] truncate" title={c.getValue()}>{c.getValue()}</span> })] : []),
       ...(showProject ? [col.accessor("projectCode", { header: "project" })] : []),
-      col.accessor((r) => r.submitter ?? "", { id: "submitter", header: "submitted by", meta: { className: "hidden md:table-cell" } }),
-      col.accessor("createdAt", { header: "queued", cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>, meta: { className: "hidden sm:table-cell" } }),
+      // who and when share a column, so the figures at the end stay in view at desktop widths
+      col.accessor("createdAt", {
+        header: "queued",
+        cell: (c) => (
+          <span className="block leading-tight">
+            <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>
+            {c.row.original.submitter && <span className="block max-w-[11rem] truncate text-xs text-ink-muted">by {c.row.original.submitter}</span>}
+          </span>
+        ),
+        meta: { className: "hidden sm:table-cell" },
+      }),
       col.accessor((r) => (r.startedAt && r.finishedAt ? Date.parse(r.finishedAt) - Date.parse(r.startedAt) : null), {
         id: "duration",
         header: "ran",
@@ -156,7 +194,33 @@ export function JobsList({
       gapColumn(col),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [showModel, showProject],
+    [showModel, showProject, selectable, picked],
   );
-  return <DataTable label="Jobs" data={merged} columns={columns} pageSize={pageSize} empty={empty} getRowId={(r) => r.id} rowTestId="job-row" />;
+  const pickedModels = new Set(merged.filter((r) => picked.includes(r.id)).map((r) => r.modelId ?? r.modelName));
+  const toolbar = selectable ? (
+    <span className="flex flex-wrap items-center gap-2 text-sm" data-testid="compare-bar">
+      <span className="text-ink-muted" aria-live="polite">
+        {picked.length === 0
+          ? "Tick two or more runs of one model to compare them."
+          : pickedModels.size > 1
+            ? `${picked.length} runs of ${pickedModels.size} different models selected: pick runs of one model.`
+            : `${picked.length} selected${picked.length < 2 ? ": pick one more" : ""}.`}
+      </span>
+      {picked.length >= 2 && pickedModels.size === 1 ? (
+        <Link to={`/compare?jobs=${picked.join(",")}`} className="btn btn-primary px-3 py-1" data-testid="compare-selected">
+          Compare selected
+        </Link>
+      ) : (
+        <button type="button" className="btn btn-secondary px-3 py-1" disabled data-testid="compare-selected">
+          Compare selected
+        </button>
+      )}
+      {picked.length > 0 && (
+        <button type="button" className="btn btn-secondary px-3 py-1" onClick={() => setPicked([])}>
+          Clear selection
+        </button>
+      )}
+    </span>
+  ) : undefined;
+  return <DataTable label="Jobs" data={merged} columns={columns} pageSize={pageSize} empty={empty} getRowId={(r) => r.id} rowTestId="job-row" toolbar={toolbar} />;
 }

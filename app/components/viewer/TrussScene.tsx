@@ -29,14 +29,26 @@ export interface SceneSettings {
   fitNonce: number; // bump to re-frame the camera
 }
 
+/** Where the pointer rests over a member: its index and the pointer position inside the canvas (CSS pixels). */
+export interface MemberHover {
+  index: number;
+  x: number;
+  y: number;
+}
+
 interface Props {
   view: TrussView;
   settings: SceneSettings;
+  /** colours by member id that replace the colour mode (the compare view's change in area) */
+  paint?: Record<string, string> | null;
+  /** the selected member, outlined */
+  selected?: number | null;
   onSelectMember?: (index: number | null) => void;
+  onHoverMember?: (hover: MemberHover | null) => void;
   onContextLost?: () => void;
 }
 
-export default function TrussScene({ view, settings, onSelectMember, onContextLost }: Props) {
+export default function TrussScene({ view, settings, paint, selected, onSelectMember, onHoverMember, onContextLost }: Props) {
   const up = upAxis(view);
   const ortho = view.planar && settings.projection2d;
   const span = view.bounds.span;
@@ -71,9 +83,10 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
       <ambientLight intensity={0.85} />
       <directionalLight position={[1, 2, 3]} intensity={1.6} />
       <directionalLight position={[-2, -1, -1]} intensity={0.5} />
-      <Members view={view} settings={settings} onSelect={onSelectMember} />
+      <Members view={view} settings={settings} paint={paint ?? null} onSelect={onSelectMember} onHover={onHoverMember} />
       <Joints view={view} />
-      {view.hasResult && settings.colourMode === "utilization" && <OverLimitOutlines view={view} />}
+      {view.hasResult && !paint && settings.colourMode === "utilization" && <OverLimitOutlines view={view} />}
+      {selected !== null && selected !== undefined && view.members[selected] && <SelectionOutline view={view} index={selected} />}
       {settings.showInitial && view.hasResult && <InitialOverlay view={view} />}
       {settings.showDeformed && view.hasResult && <DeformedOverlay view={view} settings={settings} />}
       {settings.showSupports && <Supports view={view} />}
@@ -84,9 +97,10 @@ export default function TrussScene({ view, settings, onSelectMember, onContextLo
   );
 }
 
-function memberColours(view: TrussView, settings: SceneSettings): THREE.Color[] {
+function memberColours(view: TrussView, settings: SceneSettings, paint: Record<string, string> | null): THREE.Color[] {
   const lc = view.loadCases[settings.loadCase];
   const plain = new THREE.Color(cssColor("--color-ink-soft", "#3b4757"));
+  if (paint) return view.members.map((m) => (paint[m.id] ? new THREE.Color(paint[m.id]) : plain));
   if (!view.hasResult || settings.colourMode === "plain") return view.members.map(() => plain);
   if (settings.colourMode === "force") {
     const cache = Object.fromEntries(
@@ -97,7 +111,19 @@ function memberColours(view: TrussView, settings: SceneSettings): THREE.Color[] 
   return view.members.map((m) => (m.utilization === null ? plain : new THREE.Color(utilizationColor(m.utilization))));
 }
 
-function Members({ view, settings, onSelect }: { view: TrussView; settings: SceneSettings; onSelect?: (i: number | null) => void }) {
+function Members({
+  view,
+  settings,
+  paint,
+  onSelect,
+  onHover,
+}: {
+  view: TrussView;
+  settings: SceneSettings;
+  paint: Record<string, string> | null;
+  onSelect?: (i: number | null) => void;
+  onHover?: (h: MemberHover | null) => void;
+}) {
   const invalidate = useThree((s) => s.invalidate);
   const mesh = useMemo(() => {
     // few radial segments: at 2,500 members the triangle count stays modest and members still read as round
@@ -132,47 +158,90 @@ function Members({ view, settings, onSelect }: { view: TrussView; settings: Scen
 
   const colourKey = `${settings.colourMode}:${settings.loadCase}`;
   useLayoutEffect(() => {
-    memberColours(view, settings).forEach((c, i) => mesh.setColorAt(i, c));
+    memberColours(view, settings, paint).forEach((c, i) => mesh.setColorAt(i, c));
     if (mesh.instanceColor) mesh.instanceColor.needsUpdate = true;
     invalidate();
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [mesh, view, colourKey, invalidate]);
+  }, [mesh, view, colourKey, paint, invalidate]);
 
   return (
     <>
       <primitive object={mesh} />
-      {onSelect && <Picker mesh={mesh} onSelect={onSelect} />}
+      {(onSelect || onHover) && <Picker mesh={mesh} onSelect={onSelect} onHover={onHover} />}
     </>
   );
 }
 
 /**
- * Click a member to select it. One raycast per click, not per pointer move: with thousands
- * of instances a hover test on every move would cost more than drawing the frame.
+ * Click a member to select it; rest the pointer on one to read it. The hover test runs at most
+ * once a frame and never while a button is held (orbiting), so thousands of instances cost one
+ * raycast per drawn frame at worst.
  */
-function Picker({ mesh, onSelect }: { mesh: THREE.InstancedMesh; onSelect: (i: number | null) => void }) {
+function Picker({ mesh, onSelect, onHover }: { mesh: THREE.InstancedMesh; onSelect?: (i: number | null) => void; onHover?: (h: MemberHover | null) => void }) {
   const gl = useThree((s) => s.gl);
   const camera = useThree((s) => s.camera);
   useEffect(() => {
     const el = gl.domElement;
     const ray = new THREE.Raycaster();
     let down: { x: number; y: number } | null = null;
+    let frame = 0;
+    let last: number | null = null;
+    const hitAt = (e: PointerEvent) => {
+      const r = el.getBoundingClientRect();
+      ray.setFromCamera(new THREE.Vector2(((e.clientX - r.left) / r.width) * 2 - 1, -((e.clientY - r.top) / r.height) * 2 + 1), camera);
+      return { id: ray.intersectObject(mesh, false)[0]?.instanceId ?? null, x: e.clientX - r.left, y: e.clientY - r.top };
+    };
     const onDown = (e: PointerEvent) => (down = { x: e.clientX, y: e.clientY });
     const onUp = (e: PointerEvent) => {
       if (!down || Math.hypot(e.clientX - down.x, e.clientY - down.y) > 4) return; // a drag, not a click
-      const r = el.getBoundingClientRect();
-      ray.setFromCamera(new THREE.Vector2(((e.clientX - r.left) / r.width) * 2 - 1, -((e.clientY - r.top) / r.height) * 2 + 1), camera);
-      const hit = ray.intersectObject(mesh, false)[0];
-      onSelect(hit?.instanceId ?? null);
+      onSelect?.(hitAt(e).id);
+    };
+    const onMove = (e: PointerEvent) => {
+      if (!onHover || e.buttons !== 0 || frame) return;
+      frame = requestAnimationFrame(() => {
+        frame = 0;
+        const h = hitAt(e);
+        if (h.id === null && last === null) return;
+        last = h.id;
+        onHover(h.id === null ? null : { index: h.id, x: h.x, y: h.y });
+      });
+    };
+    const onLeave = () => {
+      last = null;
+      onHover?.(null);
     };
     el.addEventListener("pointerdown", onDown);
     el.addEventListener("pointerup", onUp);
+    el.addEventListener("pointermove", onMove);
+    el.addEventListener("pointerleave", onLeave);
     return () => {
+      cancelAnimationFrame(frame);
       el.removeEventListener("pointerdown", onDown);
       el.removeEventListener("pointerup", onUp);
+      el.removeEventListener("pointermove", onMove);
+      el.removeEventListener("pointerleave", onLeave);
     };
-  }, [gl, camera, mesh, onSelect]);
+  }, [gl, camera, mesh, onSelect, onHover]);
   return null;
+}
+
+/** The selected member: a wide shell in the brass accent around it, drawn from its back faces. */
+function SelectionOutline({ view, index }: { view: TrussView; index: number }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const mesh = useMemo(() => {
+    const m = new THREE.Mesh(new THREE.CylinderGeometry(1, 1, 1, 12, 1, true), new THREE.MeshBasicMaterial({ color: new THREE.Color(cssColor("--color-brass-strong", "#9c6314")), side: THREE.BackSide }));
+    m.matrixAutoUpdate = false;
+    return m;
+  }, []);
+  useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); }, [mesh]);
+  useLayoutEffect(() => {
+    const m = view.members[index]!;
+    const radii = visualRadii(view);
+    placeCylinder(mesh.matrix, view.nodes[m.a]!.position, view.nodes[m.b]!.position, radii[index]! * 2.4 + view.medianLength * 0.006);
+    mesh.matrixWorldNeedsUpdate = true;
+    invalidate();
+  }, [mesh, view, index, invalidate]);
+  return <primitive object={mesh} raycast={() => null} />;
 }
 
 function Joints({ view }: { view: TrussView }) {

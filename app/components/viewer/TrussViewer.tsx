@@ -1,11 +1,11 @@
 // The 3D view of a truss with its controls and legend. The canvas is created only after the
 // page has mounted in a browser that offers WebGL (three.js cannot render on the server);
 // until then, and without WebGL, the box says what is happening instead of staying blank.
-import { Component, lazy, Suspense, useEffect, useMemo, useState, type ReactNode } from "react";
+import { Component, lazy, Suspense, useCallback, useEffect, useMemo, useState, type ReactNode } from "react";
 import { formatNumber, formatPercent } from "~/lib/format";
 import { Legend } from "./Legend";
-import type { ColourMode, SceneSettings } from "./TrussScene";
-import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike } from "./truss-view";
+import type { ColourMode, MemberHover, SceneSettings } from "./TrussScene";
+import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike, type TrussView } from "./truss-view";
 
 const loadScene = () => import("./TrussScene");
 // In the browser, fetch the three.js chunk while the page hydrates rather than after mount
@@ -41,11 +41,13 @@ interface Props {
   /** a controlled selection (the editor ties it to its member table) */
   selectedMember?: number | null;
   onSelectMember?: (index: number | null) => void;
+  /** colours by member id in place of the colour modes, with their own legend and hover words */
+  paint?: { colours: Record<string, string>; legend: ReactNode; describe: (memberId: string) => string } | null;
 }
 
 const SCALE_STEPS = 40; // slider positions, on a log scale around the default magnification
 
-export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember }: Props) {
+export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, paint }: Props) {
   const view = useMemo(() => buildTrussView(model, result), [model, result]);
   const hasReactions = view.loadCases.some((c) => c.reactions.length > 0);
   const [mounted, setMounted] = useState(false);
@@ -54,6 +56,8 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
   const [ownSelected, setOwnSelected] = useState<number | null>(null);
   const selected = selectedMember !== undefined ? selectedMember : ownSelected;
   const setSelected = onSelectMember ?? setOwnSelected;
+  const [hover, setHover] = useState<MemberHover | null>(null);
+  const onHover = useCallback((h: MemberHover | null) => setHover(h), []);
   const [ownCase, setLoadCase] = useState(0);
   const pickedIndex = caseId === undefined ? -1 : view.loadCases.findIndex((c) => c.id === caseId);
   const loadCase = pickedIndex >= 0 ? pickedIndex : ownCase;
@@ -94,7 +98,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
     <section className="card p-0" aria-label={title} data-testid="truss-viewer">
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2 border-b border-rule px-4 py-3 text-sm">
         <h2 className="mr-auto font-semibold">{title}</h2>
-        {view.hasResult && (
+        {view.hasResult && !paint && (
           <label className="flex items-center gap-2">
             <span className="text-ink-muted">Colour</span>
             <select
@@ -109,9 +113,9 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
           </label>
         )}
         {view.loadCases.length > 1 && caseId === undefined && (
-          <label className="flex items-center gap-2">
-            <span className="text-ink-muted">Load case</span>
-            <select className="field-input w-auto py-1" value={loadCase} onChange={(e) => setLoadCase(Number(e.target.value))}>
+          <label className="flex min-w-0 max-w-full items-center gap-2">
+            <span className="whitespace-nowrap text-ink-muted">Load case</span>
+            <select className="field-input w-auto min-w-0 max-w-full py-1" value={loadCase} onChange={(e) => setLoadCase(Number(e.target.value))}>
               {view.loadCases.map((c, i) => (
                 <option key={c.id} value={i}>
                   {c.name ? `${c.id} — ${c.name}` : c.id}
@@ -181,11 +185,24 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
               <TrussScene
                 view={view}
                 settings={{ ...settings, loadCase, deformationScale }}
+                paint={paint?.colours ?? null}
+                selected={selected}
                 onSelectMember={setSelected}
+                onHoverMember={onHover}
                 onContextLost={() => setLost(true)}
               />
             </Suspense>
           </SceneBoundary>
+        )}
+        {hover && view.members[hover.index] && (
+          <p
+            className="pointer-events-none absolute z-10 max-w-[18rem] rounded-md border border-rule bg-paper-raised px-2 py-1 text-xs shadow-sm"
+            style={{ left: Math.max(4, hover.x + 12), top: Math.max(4, hover.y + 12) }}
+            role="status"
+            data-testid="member-hover"
+          >
+            {paint ? paint.describe(view.members[hover.index]!.id) : memberWords(view.members[hover.index]!, lc?.id, units)}
+          </p>
         )}
         <p className="pointer-events-none absolute bottom-2 left-3 text-2xs text-ink-muted">
           {view.planar && settings.projection2d ? "drag or arrow keys to pan · wheel to zoom · F to fit" : "drag to orbit · right-drag or arrow keys to pan · wheel to zoom · F to fit"}
@@ -193,24 +210,20 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
       </div>
 
       <div className="flex flex-col gap-3 border-t border-rule px-4 py-3 text-sm sm:flex-row sm:items-start sm:justify-between">
-        <Legend
-          mode={view.hasResult ? settings.colourMode : "plain"}
-          showInitial={settings.showInitial && view.hasResult}
-          showDeformed={settings.showDeformed && view.hasResult}
-          showReactions={!!settings.showReactions && hasReactions}
-        />
+        {paint ? (
+          paint.legend
+        ) : (
+          <Legend
+            mode={view.hasResult ? settings.colourMode : "plain"}
+            showInitial={settings.showInitial && view.hasResult}
+            showDeformed={settings.showDeformed && view.hasResult}
+            showReactions={!!settings.showReactions && hasReactions}
+          />
+        )}
         <p className="text-ink-muted sm:text-right" aria-live="polite" data-testid="selected-member">
           {sel ? (
             <>
-              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): area {formatNumber(sel.area)}
-              {units ? ` ${units.length}²` : ""}
-              {sel.utilization !== null && <>, utilization {formatPercent(sel.utilization)}</>}
-              {sel.force && lc && (
-                <>
-                  , force {formatNumber(sel.force[lc.id] ?? 0)}
-                  {units ? ` ${units.force}` : ""} in {lc.id}
-                </>
-              )}
+              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): {paint ? paint.describe(sel.id) : memberWords(sel, lc?.id, units)}
             </>
           ) : (
             `${view.members.length} members, ${view.nodes.length} nodes${view.planar ? ", planar" : ""}. Click a member for its values.`
@@ -219,6 +232,14 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
       </div>
     </section>
   );
+}
+
+/** "area 1,234 mm², force −56.78 kN in LC1, utilization 95.3 %" */
+function memberWords(m: TrussView["members"][number], caseId: string | undefined, units: TrussView["units"]): string {
+  const parts = [`area ${formatNumber(m.area)}${units ? ` ${units.length}²` : ""}`];
+  if (m.force && caseId) parts.push(`force ${formatNumber(m.force[caseId] ?? 0)}${units ? ` ${units.force}` : ""} in ${caseId}`);
+  if (m.utilization !== null) parts.push(`utilization ${formatPercent(m.utilization)}`);
+  return parts.join(", ");
 }
 
 function Toggle({ label, checked, onChange }: { label: string; checked: boolean; onChange: (v: boolean) => void }) {

@@ -74,6 +74,7 @@ export const ROUTE_ACCESS: Record<string, Partial<Record<Method, Access>>> = {
   "/projects/:id/new-model": { GET: PRODUCERS, POST: PRODUCERS },
   "/jobs": { GET: ALL },
   "/jobs/:id": { GET: ALL, POST: "signed-in" }, // actions inside check review/cancel rights
+  "/compare": { GET: ALL }, // ?jobs=a,b: each run must be in one of the caller's projects (else 404)
   // section catalogues: the desk's, read by everyone signed in, kept by admins and engineers
   "/catalogues": { GET: ALL, POST: PRODUCERS }, // POST uploads a CSV catalogue
   "/catalogues/:id": { GET: ALL, POST: PRODUCERS }, // POST retires it
