@@ -85,10 +85,15 @@ describe("the report before review", () => {
     expect(all).toMatch(/D1 −188,700 /);
   });
 
-  it("states the shadow prices in plain words and the verification record", () => {
+  it("lists the governing limits apart from the members at their minimum size, and the verification record", () => {
     const all = unreviewed.join("\n");
-    expect(all).toContain("4 Governing constraints and their shadow prices");
-    expect(all).toMatch(/Allowing 1 N\/mm² more compression stress in member TC4 under LC1 would save about 0\.00215 t of steel\./);
+    expect(all).toContain("4 What governs the design and what it costs");
+    // the stress limits that bind, in words with their shadow prices; no minimum-area bound among them
+    expect(all).toMatch(/Limits that govern \d+ limits bind at the final design/);
+    expect(all).toMatch(/stress limit of member TC4 in load case LC1 0\.00215 t per N\/mm²/);
+    expect(all).not.toMatch(/lower area bound/);
+    // every member of this truss is stress-governed above the 150 mm² minimum
+    expect(all).toContain("Members at their minimum size No member sits at its minimum area.");
     expect(all).toContain("5 Independent verification of the final design");
     expect(all).toMatch(/All limits met yes/);
     expect(all).toMatch(/Checks performed 62/);
@@ -200,7 +205,18 @@ describe("results that need attention", () => {
     expect(all).toMatch(/BC2 L1–L2 bottom-chord \S+ 2,500\.0 104\.0 %/);
   });
 
-  it("words the active constraints itself when the result has no shadow-price sentences", async () => {
+  it("counts and names the members at their minimum size apart from the governing limits", async () => {
+    const data = reportDataFor(fx);
+    const r = structuredClone(data.result);
+    // the lightest diagonals down at the 150 mm² minimum of the model's area bounds
+    for (const m of r.members) if (m.id === "D6" || m.id === "D9") m.area = 150;
+    r.activeConstraints.push({ id: "area-min:D6", multiplier: 0.3 }, { id: "area-min:D9", multiplier: 0.2 });
+    const all = (await pageTexts(await buildReportPdf({ ...data, result: r }))).join("\n");
+    expect(all).toContain("2 of 31 members sit at their minimum area: member D6 (150.0 mm²), member D9 (150.0 mm²).");
+    expect(all).not.toMatch(/lower area bound|minimum area of D6/);
+  });
+
+  it("words the active constraints itself when the result has no shadow prices", async () => {
     const f = warrenFixture({ panels: 4 });
     const data = reportDataFor(f);
     const r = structuredClone(data.result);
@@ -210,8 +226,8 @@ describe("results that need attention", () => {
       { id: "volume", multiplier: 2.5e-9 },
     ];
     const all = (await pageTexts(await buildReportPdf({ ...data, result: r }))).join("\n");
-    expect(all).toContain("2 limits govern the final design");
-    expect(all).toContain("Relaxing the displacement limit of node U2 along y in load case LC1 by one unit would change the mass by about −0.0125 t (0.0125 t per mm).");
-    expect(all).toContain("Relaxing the volume limit by one unit would change the mass by about −2.50e-9 t (2.50e-9 t per mm³).");
+    expect(all).toContain("2 limits bind at the final design");
+    expect(all).toContain("displacement limit of node U2 along y in load case LC1 0.0125 t per mm");
+    expect(all).toContain("volume limit 2.50e-9 t per mm³");
   });
 });

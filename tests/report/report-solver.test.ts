@@ -34,4 +34,29 @@ describe("report of a solved two-bar truss", () => {
     expect(all).toContain("optimal: the solver met its optimality and feasibility tolerances");
     expect(all).toContain(result.message);
   });
+
+  it("prints what each criterion costs, the members at their minimum size and the deflections of the ten-bar benchmark", async () => {
+    // ten-bar cantilever (Haftka & Gurdal, optimum near 5060.8 lb, from memory): the 2 in tip
+    // deflection governs, three members end at the 0.1 in² minimum area
+    const json = JSON.parse(fs.readFileSync("tests/fixtures/models/design/ten-bar.truss.json", "utf8")) as ModelFile;
+    const parsed = parseModel(json);
+    if (!parsed.ok) throw new Error(parsed.errors.map((e) => `${e.path}: ${e.message}`).join("; "));
+    const result = optimizeModel(parsed.model, { formulation: "nested", starts: 1 });
+    expect(result.status).toBe("optimal");
+    const pdf = await buildReportPdf({
+      job: { id: "job-10bar", status: "succeeded", options: {}, createdAt: new Date("2026-11-30T10:00:00Z"), startedAt: null, finishedAt: null, submitter: "Ines Okafor" },
+      project: { code: "QA-1", name: "Solver acceptance" },
+      model: { id: "m", name: json.name!, fileName: "ten-bar.truss.json", sha256: "c".repeat(64), sizeBytes: 1500, uploadedAt: null, file: json },
+      result,
+      reviews: [],
+      generatedAt: new Date("2026-11-30T12:00:00Z"),
+    });
+    const all = (await pageTexts(pdf)).join("\n");
+    expect(all).toMatch(/Limits that govern 2 limits bind at the final design/);
+    expect(all).toMatch(/3 of 10 members sit at their minimum area: member m\d+ \(0\.1000 in²\), member m\d+ \(0\.1000 in²\), member m\d+ \(0\.1000 in²\)\./);
+    const top = result.criterionCosts![0]!;
+    expect(top.id).toBe("deflection:0");
+    expect(all).toContain("1. Raising the deflection limit at every node in every direction (2.000 in) by 1 % would save about 49 lb, 1.0 % of the mass; it binds at node 1 in y under Tip loads (LC1).");
+    expect(all).toMatch(/Tip loads \(LC1\) node 1, y −2\.000 2\.000 100\.0 % node 1, y −2\.000/);
+  });
 });

@@ -22,7 +22,7 @@
 // on every load case.
 import type { Structure } from "../truss";
 import type { JobOptions } from "./options";
-import type { DesignModel } from "./model-shape";
+import type { DesignBlock, DesignModel } from "./model-shape";
 import { memberLengths } from "./element";
 import { fitSecondMoment } from "../sections/fit";
 import { eulerStress, type BucklingModel } from "./buckling";
@@ -115,10 +115,7 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
   const nodeIndex = new Map(s.nodeIds.map((id, i) => [id, i]));
 
   // Area variables: one per group, one per ungrouped member; groups start from their first member.
-  const maxInitial = maxOf(model.members.map((mm) => mm.area));
-  const defMin = design.areaBounds?.min ?? maxInitial * 1e-4;
-  const defMax = design.areaBounds?.max ?? maxInitial * 1e2;
-  const groupBounds = new Map((design.groups ?? []).map((g) => [g.id, g]));
+  const boundsOf = areaBoundsRule(model);
   const areaVars: AreaVariable[] = [];
   const byGroup = new Map<string, number>();
   const memberVar = new Int32Array(m);
@@ -126,9 +123,7 @@ export function buildDesignProblem(model: DesignModel, s: Structure, options: Jo
     const key = mm.group ?? null;
     let v = key !== null ? byGroup.get(key) : undefined;
     if (v === undefined) {
-      const gb = key !== null ? groupBounds.get(key) : undefined;
-      const min = gb?.min ?? defMin;
-      const max = gb?.max ?? defMax;
+      const { min, max } = boundsOf(key);
       if (!(min > 0) || !(max >= min)) {
         throw new DesignSetupError(`Area bounds of ${key !== null ? `group "${key}"` : `member "${mm.id}"`} are not usable: min ${min} must be positive and not above max ${max}.`);
       }
@@ -287,6 +282,22 @@ export function displacementLimitMap(specs: readonly DisplacementSpec[], s: Stru
     }
   });
   return out;
+}
+
+/**
+ * The area bounds of an area variable (a group id, or null for an ungrouped member): the group's
+ * own, else design.areaBounds, else 1e-4 and 1e2 times the largest starting area. The report
+ * reads it too, to say which members sit at their minimum size.
+ */
+export function areaBoundsRule(model: { members: readonly { area: number }[]; design?: Pick<DesignBlock, "areaBounds" | "groups"> }): (group: string | null) => { min: number; max: number; own: { min: boolean; max: boolean } } {
+  const maxInitial = maxOf(model.members.map((mm) => mm.area));
+  const defMin = model.design?.areaBounds?.min ?? maxInitial * 1e-4;
+  const defMax = model.design?.areaBounds?.max ?? maxInitial * 1e2;
+  const groups = new Map((model.design?.groups ?? []).map((g) => [g.id, g]));
+  return (group) => {
+    const gb = group !== null ? groups.get(group) : undefined;
+    return { min: gb?.min ?? defMin, max: gb?.max ?? defMax, own: { min: gb?.min !== undefined, max: gb?.max !== undefined } };
+  };
 }
 
 /** Responses a limit use applies to: the combinations of that use, else every load case. */
