@@ -113,8 +113,11 @@ function firstMultipliers(ctx: SqpContext, state: Pick<SqpState, "x" | "pt" | "d
     if (row && Math.abs(pt.ci[i]) <= nearTol) { rows.push(row); tags.push([1, i]); }
   }
   for (let j = 0; j < n; j++) {
-    if (x[j] - lo[j] <= nearTol * Math.max(1, Math.abs(lo[j]))) { rows.push(unitRow(j, -1)); tags.push([2, j]); }
-    else if (hi[j] - x[j] <= nearTol * Math.max(1, Math.abs(hi[j]))) { rows.push(unitRow(j, 1)); tags.push([3, j]); }
+    // an infinite bound is never near: Infinity <= tol * Infinity would hold, and a unit row for
+    // every free variable (the simultaneous formulation's displacements) made the least-squares
+    // system degenerate, its multipliers ~1e16, the penalty with them, and the first step fail
+    if (Number.isFinite(lo[j]) && x[j] - lo[j] <= nearTol * Math.max(1, Math.abs(lo[j]))) { rows.push(unitRow(j, -1)); tags.push([2, j]); }
+    else if (Number.isFinite(hi[j]) && hi[j] - x[j] <= nearTol * Math.max(1, Math.abs(hi[j]))) { rows.push(unitRow(j, 1)); tags.push([3, j]); }
   }
   const lam = leastSquaresMultipliers(dv.g, rows, n);
   tags.forEach(([kind, i], k) => {
