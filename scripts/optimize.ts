@@ -46,7 +46,7 @@ async function main() {
   // without it (the precompiled bundle keeps it in a chunk of its own)
   const { parseModel } = await import("../app/engine/truss");
   const { optimizeModel, plannedStarts, DesignSetupError } = await import("../app/engine/design");
-  const { attachLowerBound, loadHighsSolver } = await import("../app/engine/lp");
+  const { attachLowerBound, loadHighsSolver, plasticDesignBeforeRun } = await import("../app/engine/lp");
   const { formatGap } = await import("../app/lib/lower-bound-words");
   let text: string;
   try {
@@ -68,8 +68,12 @@ async function main() {
   const units = parsed.model.units;
   const objUnit = (parsed.model.design.objective ?? "mass") === "mass" ? units.mass : `${units.force}·${units.length}`;
   let result;
+  const jobOptions = { formulation: args.formulation, maxIterations: args.maxIterations, starts: args.starts };
+  const lpSolver = await loadHighsSolver();
+  // the least-mass LP at the model's geometry, solved once: a start for the solver, then the bound (as in the worker)
+  const plastic = plasticDesignBeforeRun(parsed.model, jobOptions, lpSolver);
   try {
-    const options = { formulation: args.formulation, maxIterations: args.maxIterations, starts: args.starts };
+    const options = { ...jobOptions, plasticStart: plastic?.status === "optimal" ? plastic.memberAreas : undefined };
     const onProgress = args.quiet
       ? undefined
       : (p: { iteration: number; objective: number; maxViolation: number; kktResidual: number }) => process.stderr.write(
@@ -88,7 +92,7 @@ async function main() {
     fail(1, [`optimization could not run: ${err.message}`]);
   }
   // beside the result, the least-mass certificate (or the reason there is none)
-  result = attachLowerBound(parsed.model, result, { formulation: args.formulation, maxIterations: args.maxIterations, starts: args.starts }, await loadHighsSolver());
+  result = attachLowerBound(parsed.model, result, jobOptions, lpSolver, plastic);
   const json2 = JSON.stringify(result, null, 2);
   if (args.out) fs.writeFileSync(args.out, json2 + "\n");
   else process.stdout.write(json2 + "\n");

@@ -7,8 +7,12 @@ import { analyseModel, optimizeModel, plannedStarts, summarizeResult } from "~/e
 import type { JobOptions } from "~/engine/design/options";
 import type { JobSummary } from "~/engine/design/result-types";
 import { parseModel } from "~/engine/truss";
-import { attachLowerBound, loadHighsSolver } from "~/engine/lp";
+import { attachLowerBound, loadHighsSolver, plasticDesignBeforeRun } from "~/engine/lp";
 import { runStarts } from "./parallel-starts";
+
+// The LP solver loads (and warms) as the thread starts, before its first job: a job then finds
+// it ready instead of waiting for it. A failed load here is retried by the job that needs it.
+loadHighsSolver().catch(() => undefined);
 
 export interface SolveTaskInput {
   jobId: string;
@@ -61,8 +65,10 @@ export default async function solveTask(input: SolveTaskInput): Promise<SolveTas
     }
   }
   try {
-    // the LP solver loads once per thread (the first run waits for it, later runs reuse it)
+    // the LP solver loads once per thread (loaded as the thread started; a job that came first waits)
     const lpSolver = await loadHighsSolver();
+    // the least-mass LP at the model's geometry, solved once: a start for the solver, then the bound
+    const plastic = plasticDesignBeforeRun(parsed.model, input.options, lpSolver);
     const stop = input.stopFlag ? new Int32Array(input.stopFlag) : null;
     const onProgress = port
       ? (p: Progress) =>
@@ -73,14 +79,18 @@ export default async function solveTask(input: SolveTaskInput): Promise<SolveTas
             kktResidual: p.kktResidual,
           })
       : undefined;
-    const options = { ...input.options, stopRequested: stop ? () => Atomics.load(stop, 0) === 1 : undefined };
+    const options = {
+      ...input.options,
+      stopRequested: stop ? () => Atomics.load(stop, 0) === 1 : undefined,
+      plasticStart: plastic?.status === "optimal" ? plastic.memberAreas : undefined,
+    };
     // several starting designs run in solver threads of their own (multi-start.ts)
     const starts = plannedStarts(parsed.model, input.options);
     const optimized = starts > 1
       ? await runStarts(input.modelText, parsed.model, options, starts, onProgress, input.stopFlag)
       : optimizeModel(parsed.model, { ...options, onProgress });
     // beside every result, the least-mass certificate (or the reason there is none)
-    const result = attachLowerBound(parsed.model, optimized, input.options, lpSolver);
+    const result = attachLowerBound(parsed.model, optimized, input.options, lpSolver, plastic);
     return {
       resultJson: JSON.stringify(result),
       summary: summarizeResult(result),

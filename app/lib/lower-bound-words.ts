@@ -27,7 +27,28 @@ export function gapSentence(lb: LowerBound, kind: "mass" | "compliance", unit: s
   const value = `${formatNumber(lb.value)} ${unit}`;
   if (!limitsMet) return `This design does not meet every limit, so the comparison says little: ${least} any truss on these members can have${where} is ${value}.`;
   if (Math.abs(lb.gap) < GAP_NOISE) return `This design reaches ${least} any truss on these members can have${where} ${scope} (${value}): none can do better.`;
-  return `This design is within ${formatGap(lb.gap)} of ${least} any truss on these members can have${where} ${scope} (${value}).`;
+  const within = `This design is within ${formatGap(lb.gap)} of ${least} any truss on these members can have${where} ${scope}`;
+  const leftOut = leftOutWords(lb);
+  if (kind === "mass" && leftOut) {
+    return (
+      `${within} alone (${value}). The bound leaves out ${leftOut} this run also meets; they can only add mass, ` +
+      "so a large gap is expected here and shows what those limits cost, not a poor design."
+    );
+  }
+  return `${within} (${value}).`;
+}
+
+/** The label beside the gap figure: which bound it is measured from. */
+export function gapLabel(lb: LowerBound): string {
+  return lb.leftOut?.length ? "above the stress-only bound" : "above the bound";
+}
+
+/** "the buckling and displacement limits": the run's limits the bound leaves out, or null. */
+export function leftOutWords(lb: LowerBound): string | null {
+  const kinds = lb.leftOut ?? [];
+  if (kinds.length === 0) return null;
+  const list = kinds.length === 1 ? kinds[0] : `${kinds.slice(0, -1).join(", ")} and ${kinds[kinds.length - 1]}`;
+  return `the ${list} ${kinds.length === 1 ? "limit" : "limits"}`;
 }
 
 /** Position on the gauge, 0..1: a log scale from 0.1 % to 100 %, so 0.4 % and 40 % both read. */

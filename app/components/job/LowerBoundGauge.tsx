@@ -2,7 +2,7 @@
 // proven lower bound (result field lowerBound) on a gauge, one line in words, and what the bound
 // assumes on request. A result without a bound says why.
 import type { TrussResult } from "~/engine/design/result-types";
-import { formatGap, gapSentence, GAUGE_TICKS, gaugePosition } from "~/lib/lower-bound-words";
+import { formatGap, gapLabel, gapSentence, GAUGE_TICKS, gaugePosition } from "~/lib/lower-bound-words";
 import { formatPercent } from "~/lib/format";
 
 type WithBound = Pick<TrussResult, "lowerBound" | "lowerBoundWithheld" | "objective" | "units" | "verification" | "status">;
@@ -25,13 +25,14 @@ export function LowerBoundGauge({ result }: { result: WithBound }) {
   const unit = kind === "mass" ? result.units.mass : `${result.units.force}·${result.units.length}`;
   const limitsMet = result.verification?.allLimitsMet ?? result.status === "optimal";
   const pos = gaugePosition(lb.gap);
-  const tone = !limitsMet ? "bg-ink-muted" : lb.gap < 0.02 ? "bg-ok" : lb.gap < 0.15 ? "bg-brass" : "bg-warn";
+  // a bound that leaves out governing limits (buckling, displacement) is looser: its gap is no warning
+  const tone = !limitsMet ? "bg-ink-muted" : lb.gap < 0.02 ? "bg-ok" : lb.leftOut?.length ? "bg-info" : lb.gap < 0.15 ? "bg-brass" : "bg-warn";
   return (
     <section className="card" aria-label="Lower bound" data-testid="lower-bound">
       <div className="flex flex-wrap items-baseline justify-between gap-x-4">
         <h2 className="font-semibold">{title}</h2>
         <span className="font-mono text-lg" data-testid="lower-bound-gap">
-          {formatGap(lb.gap)} <span className="text-xs text-ink-muted">above the bound</span>
+          {formatGap(lb.gap)} <span className="text-xs text-ink-muted">{gapLabel(lb)}</span>
         </span>
       </div>
       <p className="mt-1 text-sm" data-testid="lower-bound-sentence">

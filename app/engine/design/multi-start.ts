@@ -76,9 +76,9 @@ function clampInto(p: DesignProblem, z: Float64Array): Float64Array {
  * (displacements fall as 1/A under a common scale). Null for a compliance objective, where no
  * member stress decides the size.
  */
-export function fullyStressedStart(p: DesignProblem): Float64Array | null {
+export function fullyStressedStart(p: DesignProblem, from: Float64Array = p.x0): Float64Array | null {
   if (p.objective !== "mass" || p.areaVars.length === 0) return null;
-  const z = Float64Array.from(p.x0);
+  const z = Float64Array.from(from);
   const nA = p.areaVars.length;
   for (let pass = 0; pass < FULLY_STRESSED_PASSES; pass++) {
     const { areas, coords } = designState(p, z);
@@ -107,10 +107,41 @@ export function fullyStressedStart(p: DesignProblem): Float64Array | null {
   return z;
 }
 
-/** The starting designs of a run, the engineer's first; `count` of them (fewer only if count is). */
-export function startingDesigns(p: DesignProblem, count: number): StartDesign[] {
+/**
+ * The least-mass LP's design (app/engine/lp, per member, model units) made elastic: each area
+ * variable at its members' largest LP area (members the LP drops at their minimum area), the
+ * fully stressed passes, which size it to the stresses and displacements of elastic analyses,
+ * then one common scale until every stress, buckling and displacement limit holds (forces stay,
+ * so stresses and displacements fall as 1/scale, Euler utilization as its square). Mass designs
+ * without shape variables only (the LP is taken at the model's geometry).
+ */
+export function plasticStart(p: DesignProblem, memberAreas: ArrayLike<number>): Float64Array | null {
+  if (p.objective !== "mass" || p.shapeVars.length > 0 || memberAreas.length !== p.structure.memberIds.length) return null;
+  const z = new Float64Array(p.nDesign);
+  p.areaVars.forEach((v, k) => {
+    for (const e of v.members) z[k] = Math.max(z[k], memberAreas[e] / v.scale);
+  });
+  const sized = fullyStressedStart(p, clampInto(p, z));
+  if (!sized) return null;
+  const { areas, coords } = designState(p, sized);
+  let scale = 1;
+  for (const c of reanalyze(p, areas, coords, 0).verification.failures) {
+    if (c.kind === "stress" || c.kind === "displacement") scale = Math.max(scale, c.ratio);
+    else if (c.kind === "buckling") scale = Math.max(scale, Math.sqrt(c.ratio));
+  }
+  for (let v = 0; v < p.areaVars.length; v++) sized[v] *= scale;
+  return clampInto(p, sized);
+}
+
+/**
+ * The starting designs of a run, the engineer's first; `count` of them (fewer only if count is).
+ * `plastic`: the least-mass LP's member areas, which become the second start when given.
+ */
+export function startingDesigns(p: DesignProblem, count: number, plastic?: ArrayLike<number>): StartDesign[] {
   const nA = p.areaVars.length;
   const starts: StartDesign[] = [{ label: "your start", z: Float64Array.from(p.x0) }];
+  const lp = count > 1 && plastic ? plasticStart(p, plastic) : null;
+  if (lp) starts.push({ label: "least-mass LP", z: lp });
   const fsd = count > 1 ? fullyStressedStart(p) : null;
   if (fsd) starts.push({ label: "fully stressed", z: fsd });
   for (const factor of [2, 0.5]) {
@@ -134,7 +165,7 @@ export function startingDesigns(p: DesignProblem, count: number): StartDesign[] 
 export function runStart(model: TrussModel | DesignModel, options: OptimizeOptions, index: number, count: number, prepared?: PreparedRun): { label: string; result: TrussResult } {
   const t0 = Date.now();
   const base = prepared ?? prepareRun(model, { ...options, onProgress: index === 0 ? options.onProgress : undefined });
-  const start = startingDesigns(base.design, count)[index];
+  const start = startingDesigns(base.design, count, options.plasticStart)[index];
   if (!start) throw new RangeError(`Start ${index} does not exist: this run has ${count} starts.`);
   const run = index === 0 ? base : prepareRun(model, { ...options, onProgress: undefined }, start.z);
   const r = minimize(run.sqp, run.sqpOptions);

@@ -45,6 +45,8 @@ export interface OptimizeOptions extends JobOptions {
   screening?: number | null;
   /** simultaneous formulation: null-space steps (default above REDUCED_FROM variables) */
   reducedSpace?: boolean;
+  /** the least-mass LP's design, per member (model units): one of the starts (multi-start.ts) */
+  plasticStart?: ArrayLike<number>;
 }
 
 /**

@@ -1,19 +1,42 @@
 // The least-mass certificate beside a mass result: the plastic-design LP's optimum at the
 // result's geometry, the gap to the result's mass, and in words what the bound assumes.
 // Everything it cannot honestly certify comes back as a withheld bound with the reason.
-import type { TrussModel } from "../truss";
+import { buildStructure, type TrussModel } from "../truss";
+import { buildDesignProblem } from "../design/problem";
 import type { JobOptions } from "../design/options";
 import type { LowerBound, TrussResult } from "../design/result-types";
 import type { LpSolver } from "./solver";
 import type { BoundOutcome } from "./outcome";
 import { plasticInputFromModel, resultCoords } from "./from-model";
-import { solvePlasticDesign } from "./plastic";
+import { solvePlasticDesign, type PlasticDesign } from "./plastic";
 import { complianceLowerBound } from "./compliance-bound";
 
 export type { BoundOutcome };
 
-/** Mass (or compliance) result -> its lower bound, or the reason there is none. Never throws for bad data. */
-export function lowerBoundForResult(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver): BoundOutcome {
+/**
+ * The plastic design at the model's own geometry, when a mass run's bound will be taken there
+ * (stresses checked, no shape variables, a strength case); else null. Solved before the run, it
+ * is the solver's LP start (multi-start.ts) and, after the run, the bound itself: one LP a run.
+ * Never throws.
+ */
+export function plasticDesignBeforeRun(model: TrussModel, options: JobOptions, solver: LpSolver): PlasticDesign | null {
+  const objective = options.objective ?? model.design?.objective ?? "mass";
+  const stressChecked = options.stress ?? model.design?.constraints?.stress ?? false;
+  if (objective !== "mass" || !stressChecked || (model.design?.shape?.length ?? 0) > 0) return null;
+  try {
+    const { input, checked } = plasticInputFromModel(model);
+    return checked.cases.length === 0 ? null : solvePlasticDesign(input, solver);
+  } catch {
+    return null; // the bound after the run tries again and reports the failure in words
+  }
+}
+
+/**
+ * Mass (or compliance) result -> its lower bound, or the reason there is none. Never throws for
+ * bad data. `before`: the plastic design solved before the run (plasticDesignBeforeRun), used
+ * instead of solving the same LP again when the bound is taken at the model's geometry.
+ */
+export function lowerBoundForResult(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver, before?: PlasticDesign | null): BoundOutcome {
   const objective = result.objective.final;
   if (!Number.isFinite(objective)) return { kind: "withheld", reason: "The run produced no design to compare with a bound." };
   if (result.objective.kind === "compliance") return complianceLowerBound(model, result, options, solver);
@@ -31,7 +54,7 @@ export function lowerBoundForResult(model: TrussModel, result: TrussResult, opti
   if (checked.cases.length === 0) {
     return { kind: "withheld", reason: "The model has combinations but none for strength, so no stress limit applies and no least-mass bound follows." };
   }
-  const lp = solvePlasticDesign(input, solver);
+  const lp = before && !final ? before : solvePlasticDesign(input, solver);
   if (lp.status !== "optimal") return { kind: "withheld", reason: lp.message };
   if (!(lp.mass > 0)) {
     return {
@@ -39,6 +62,7 @@ export function lowerBoundForResult(model: TrussModel, result: TrussResult, opti
       reason: "The least-mass bound is zero here (members without density, or without allowable stresses on the side they work in), so it certifies nothing.",
     };
   }
+  const leftOut = limitsLeftOut(model, options);
   return {
     kind: "bound",
     plasticAreas: lp.memberAreas,
@@ -47,8 +71,15 @@ export function lowerBoundForResult(model: TrussModel, result: TrussResult, opti
       gap: objective / lp.mass - 1,
       basis: massBasis(model, checked.kind, checked.cases.length, final, lp.solver),
       geometry: final ? "final" : "model",
+      ...(leftOut.length > 0 ? { leftOut } : {}),
     },
   };
+}
+
+/** The run's limits the least-mass LP does not model, read from the run's own list of limits. */
+function limitsLeftOut(model: TrussModel, options: JobOptions): NonNullable<LowerBound["leftOut"]> {
+  const kinds = new Set(buildDesignProblem(model, buildStructure(model), options).limits.map((l) => l.kind));
+  return (["buckling", "displacement", "volume"] as const).filter((k) => kinds.has(k));
 }
 
 function massBasis(model: TrussModel, kind: string, nCases: number, final: boolean, solver: string): string {
@@ -83,10 +114,10 @@ export function withLowerBound(result: TrussResult, outcome: BoundOutcome): Trus
  * The result with its bound attached, as the worker and the command line store it. A failure
  * inside the bound never fails the run: it becomes the reason the bound is withheld.
  */
-export function attachLowerBound(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver): TrussResult {
+export function attachLowerBound(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver, before?: PlasticDesign | null): TrussResult {
   let outcome: BoundOutcome;
   try {
-    outcome = lowerBoundForResult(model, result, options, solver);
+    outcome = lowerBoundForResult(model, result, options, solver, before);
   } catch (e) {
     outcome = { kind: "withheld", reason: `The bound could not be computed: ${(e as Error).message}` };
   }

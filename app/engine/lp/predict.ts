@@ -25,10 +25,16 @@ export function predictVanishingMembers(
   const { input } = plasticInputFromModel(model);
   const lp = solvePlasticDesign(input, solver);
   if (lp.status !== "optimal") return { ok: false, reason: lp.message };
+  return { ok: true, prediction: { areas: lp.memberAreas, vanishing: vanishingMembers(lp.memberAreas, threshold), mass: lp.mass } };
+}
+
+/**
+ * Per member, true where the LP area is at most `threshold` times the largest: the prediction
+ * from LP areas already at hand (e.g. OptimizeOptions.plasticStart, which the worker fills for
+ * mass runs without shape variables), without solving the LP again.
+ */
+export function vanishingMembers(areas: ArrayLike<number>, threshold = 1e-3): boolean[] {
   let largest = 0;
-  for (const a of lp.memberAreas) largest = Math.max(largest, a);
-  return {
-    ok: true,
-    prediction: { areas: lp.memberAreas, vanishing: Array.from(lp.memberAreas, (a) => a <= threshold * largest), mass: lp.mass },
-  };
+  for (let e = 0; e < areas.length; e++) largest = Math.max(largest, areas[e]);
+  return Array.from(areas, (a) => a <= threshold * largest);
 }

@@ -3,6 +3,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { optimizeModel } from "~/engine/design";
 import { attachLowerBound, loadHighsSolver, type LpSolver } from "~/engine/lp";
+import { gapLabel, gapSentence, leftOutWords } from "~/lib/lower-bound-words";
 import { fixture } from "../design/models";
 import { bracket } from "./models";
 
@@ -46,5 +47,34 @@ describe("three-bar truss with two mirrored load cases", () => {
     expect(r.objective.final).toBeCloseTo(263.8958, 3);
     expect(r.lowerBound!.gap).toBeCloseTo(263.8958 / (300 / Math.SQRT2) - 1, 4);
     expect(r.members.every((m) => typeof m.plasticArea === "number")).toBe(true);
+  });
+});
+
+describe("limits the bound leaves out are named, and the gap is worded as expected", () => {
+  // The ten-bar cantilever's published optimum with its 2 in displacement limit is 5060.8 lb
+  // (Haftka & Gurdal, Elements of Structural Optimization; from memory); stresses alone need far
+  // less, so the stress-only bound lies well below it and the gap is large by design.
+  it("ten-bar with displacement limits: leftOut names them, the sentence says the gap is expected", () => {
+    const model = fixture("ten-bar.truss.json");
+    const r = attachLowerBound(model, optimizeModel(model, { starts: 1 }), {}, solver);
+    expect(r.lowerBound!.leftOut).toEqual(["displacement"]);
+    expect(r.lowerBound!.gap).toBeGreaterThan(1);
+    const sentence = gapSentence(r.lowerBound!, "mass", "lb", true);
+    expect(sentence).toMatch(/under these loads and stress limits alone \([\d,.]+ lb\)\. The bound leaves out the displacement limit this run also meets; they can only add mass, so a large gap is expected here/);
+    expect(gapLabel(r.lowerBound!)).toBe("above the stress-only bound");
+  });
+
+  it("the same run with the displacement limits switched off: nothing left out, the plain words", () => {
+    const model = fixture("ten-bar.truss.json");
+    const stressOnly = { ...model, design: { ...model.design!, constraints: { stress: true } } };
+    const r = attachLowerBound(stressOnly, optimizeModel(stressOnly, { starts: 1 }), {}, solver);
+    expect(r.lowerBound!.leftOut).toBeUndefined();
+    expect(gapSentence(r.lowerBound!, "mass", "lb", true)).not.toMatch(/leaves out/);
+    expect(gapLabel(r.lowerBound!)).toBe("above the bound");
+  });
+
+  it("buckling and displacement together are listed in words", () => {
+    const lb = { value: 1, gap: 4.963, basis: "", leftOut: ["buckling", "displacement"] as ("buckling" | "displacement")[] };
+    expect(leftOutWords(lb)).toBe("the buckling and displacement limits");
   });
 });
