@@ -3,7 +3,7 @@
 // across (the browser's own); pasting a block copied from a spreadsheet (tab-separated rows)
 // fills the cells from the one pasted into, adding rows as needed.
 import { useVirtualizer } from "@tanstack/react-virtual";
-import { useRef, type ClipboardEvent, type KeyboardEvent } from "react";
+import { useEffect, useRef, type ClipboardEvent, type KeyboardEvent } from "react";
 
 export interface GridColumn {
   key: string;
@@ -31,6 +31,14 @@ const ROW_HEIGHT = 30;
 export function EditableGrid({ name, columns, rows, onChange, selected, onSelect, flagged, height = 360 }: Props) {
   const parent = useRef<HTMLDivElement>(null);
   const virtualizer = useVirtualizer({ count: rows.length, getScrollElement: () => parent.current, estimateSize: () => ROW_HEIGHT, overscan: 12 });
+  // a row selected from outside (a click in the preview) scrolls into view; one selected by
+  // focusing its cells is in view already
+  useEffect(() => {
+    if (selected === null || selected === undefined || selected >= rows.length) return;
+    if (parent.current?.contains(document.activeElement)) return;
+    virtualizer.scrollToIndex(selected, { align: "center" });
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [selected]);
 
   const setCell = (r: number, key: string, value: string) => {
     const next = rows.slice();

@@ -1,37 +1,41 @@
-// The model editor: tables of nodes (with their supports), members, loads, load cases, groups,
-// materials and the design block, edited in place; live validation by the engine's own parser
-// (the messages an upload gives); the 2D/3D preview beside them, where clicking a member
-// selects its row and selecting a member row shows it in the view. Saving posts the model as
-// a new version.
+// The model editor: tables of nodes (with their supports), members, loads, load cases and
+// materials, and the design block as a form, edited in place; live validation by the engine's
+// own parser (the messages an upload gives), run in a worker; the 2D/3D preview beside them,
+// where clicking a member or a node selects its row and selecting a row shows it in the view.
+// Saving posts the model as a new version.
 import { useDeferredValue, useMemo, useState } from "react";
 import { Form } from "react-router";
-import { parseModel } from "~/engine/truss";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
 import type { ModelLike } from "~/components/viewer/truss-view";
 import { EditableGrid, type GridColumn, type GridRow } from "./EditableGrid";
 import { EditorSections } from "~/components/catalogues/EditorSections";
+import { DesignForm } from "./DesignForm";
 import { fromTables, toTables, type EditorTables } from "./model-rows";
+import { useStablePreview } from "./stable-preview";
+import { useModelCheck } from "./use-model-check";
 
-type Tab = "nodes" | "supports" | "members" | "loads" | "groups" | "materials" | "design";
+type Tab = "nodes" | "supports" | "members" | "loads" | "materials" | "design";
 const TABS: { id: Tab; label: string }[] = [
   { id: "nodes", label: "Nodes" },
   { id: "supports", label: "Supports" },
   { id: "members", label: "Members" },
   { id: "loads", label: "Loads" },
-  { id: "groups", label: "Groups" },
   { id: "materials", label: "Materials" },
   { id: "design", label: "Design" },
 ];
 
+/** The selected row: a node or a member (table row index), shown in the preview too. */
+type Selection = { kind: "node" | "member"; row: number } | null;
+
 export function ModelEditor({ initial, units, baseVersion, saving, saveError }: { initial: Record<string, unknown>; units: { length: string; force: string; mass: string }; baseVersion: number; saving: boolean; saveError?: string | null }) {
   const [tables, setTables] = useState<EditorTables>(() => toTables(initial));
   const [tab, setTab] = useState<Tab>("nodes");
-  const [selectedMember, setSelectedMember] = useState<number | null>(null);
+  const [selection, setSelection] = useState<Selection>(null);
   const [note, setNote] = useState("");
   const deferred = useDeferredValue(tables);
-  const { model, designError } = useMemo(() => fromTables(deferred), [deferred]);
-  const check = useMemo(() => parseModel(model), [model]);
-  const errors = designError ? [{ path: "design", message: designError }] : check.ok ? [] : check.errors;
+  const model = useMemo(() => fromTables(deferred), [deferred]);
+  const { result: check, current: checked } = useModelCheck(model);
+  const errors = check === null || check.ok ? [] : check.errors;
   const flagged = useMemo(() => {
     const f = { nodes: new Set<number>(), members: new Set<number>() };
     for (const e of errors) {
@@ -40,12 +44,26 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
     }
     return f;
   }, [errors]);
-  // the preview shows the last geometry the parser accepted, so a half-typed row never blanks
+  // the preview shows the last model the parser accepted, so a half-typed row never blanks
   // it; it starts from the stored version (which passed the gate), so the first frame does not
-  // wait for the first parse
-  const [lastGood, setLastGood] = useState<ModelLike | null>(() => initial as unknown as ModelLike);
-  const preview = useMemo<ModelLike | null>(() => (check.ok ? (check.model as unknown as ModelLike) : lastGood), [check, lastGood]);
-  if (check.ok && preview !== lastGood) setLastGood(preview);
+  // wait for the first check
+  const preview = useStablePreview(initial as unknown as ModelLike, check?.ok ? (check.model as unknown as ModelLike) : null);
+
+  // rows and the preview's items are matched by id: blank or half-typed rows shift indices
+  const rowOf = (kind: "node" | "member", id: string | undefined) => (id === undefined ? -1 : (kind === "node" ? tables.nodes : tables.members).findIndex((r) => r.id?.trim() === id));
+  const viewIndex = (kind: "node" | "member") => {
+    if (selection?.kind !== kind) return null;
+    const id = (kind === "node" ? tables.nodes : tables.members)[selection.row]?.id?.trim();
+    const i = (kind === "node" ? preview.nodes : preview.members).findIndex((x) => x.id === id);
+    return i >= 0 ? i : null;
+  };
+  const pick = (kind: "node" | "member") => (i: number | null) => {
+    const row = i === null ? -1 : rowOf(kind, (kind === "node" ? preview.nodes : preview.members)[i]?.id);
+    setSelection(row >= 0 ? { kind, row } : null);
+    if (row >= 0) setTab(kind === "node" ? "nodes" : "members");
+  };
+  const selectedRow = (kind: "node" | "member") => (selection?.kind === kind ? selection.row : null);
+  const selectRow = (kind: "node" | "member") => (row: number | null) => setSelection(row === null ? null : { kind, row });
 
   const set = (key: keyof EditorTables) => (rows: GridRow[]) => setTables((t) => ({ ...t, [key]: rows }));
   const L = units.length;
@@ -75,11 +93,6 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
       { key: "fy", label: `fy (${F})`, numeric: true },
       { key: "fz", label: `fz (${F})`, numeric: true },
     ],
-    groups: [
-      { key: "id", label: "group" },
-      { key: "min", label: `min area (${L}²)`, numeric: true },
-      { key: "max", label: `max area (${L}²)`, numeric: true },
-    ],
     materials: [
       { key: "id", label: "id" },
       { key: "name", label: "name" },
@@ -101,7 +114,7 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
             </button>
           ))}
         </div>
-        {tab === "nodes" && <EditableGrid name="nodes" columns={cols.nodes} rows={tables.nodes} onChange={set("nodes")} flagged={flagged.nodes} />}
+        {tab === "nodes" && <EditableGrid name="nodes" columns={cols.nodes} rows={tables.nodes} onChange={set("nodes")} flagged={flagged.nodes} selected={selectedRow("node")} onSelect={selectRow("node")} />}
         {tab === "supports" && (
           <div className="space-y-2 text-sm">
             <p className="text-ink-soft">Nodes with restrained axes (x, y, z). Change a support here or in the nodes table's "fixed axes" column; empty it to free the node.</p>
@@ -125,7 +138,7 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
         )}
         {tab === "members" && (
           <div className="space-y-3">
-            <EditableGrid name="members" columns={cols.members} rows={tables.members} onChange={set("members")} flagged={flagged.members} selected={selectedMember} onSelect={setSelectedMember} />
+            <EditableGrid name="members" columns={cols.members} rows={tables.members} onChange={set("members")} flagged={flagged.members} selected={selectedRow("member")} onSelect={selectRow("member")} />
             <EditorSections lengthUnit={units.length} count={Array.isArray(tables.rest.sections) ? tables.rest.sections.length : 0} onChange={(sections) => setTables((t) => ({ ...t, rest: { ...t.rest, sections } }))} />
           </div>
         )}
@@ -136,24 +149,27 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
             <EditableGrid name="load cases" columns={[{ key: "id", label: "id" }, { key: "name", label: "name", width: "2fr" }, { key: "selfWeight", label: "own weight factor", numeric: true }]} rows={tables.loadCases} onChange={set("loadCases")} height={120} />
           </div>
         )}
-        {tab === "groups" && <EditableGrid name="groups" columns={cols.groups} rows={tables.groups} onChange={set("groups")} height={200} />}
         {tab === "materials" && <EditableGrid name="materials" columns={cols.materials} rows={tables.materials} onChange={set("materials")} height={160} />}
         {tab === "design" && (
-          <label className="block text-sm">
-            <span className="text-ink-soft">
-              The design block without its groups (those are on the Groups tab), as JSON: objective, area bounds, limits (stress, displacement in {L}, volume, buckling), solver. Empty it for a model that is only analysed. Reference: docs/model-format.md.
-            </span>
-            <textarea
-              aria-label="design block"
-              className="mt-2 h-80 w-full rounded-md border border-rule bg-paper p-2 font-mono text-xs"
-              value={tables.designText}
-              onChange={(e) => setTables((t) => ({ ...t, designText: e.target.value }))}
-            />
-          </label>
+          <DesignForm
+            fields={tables.design}
+            onChange={(design) => setTables((t) => ({ ...t, design }))}
+            groups={tables.groups}
+            onGroupsChange={set("groups")}
+            model={preview}
+            sectionCount={Array.isArray(tables.rest.sections) ? tables.rest.sections.length : 0}
+            units={units}
+            problems={errors}
+            json={model.design}
+          />
         )}
 
         <section aria-label="Validation" aria-live="polite" data-testid="validation">
-          {errors.length === 0 ? (
+          {check === null || (!checked && errors.length === 0) ? (
+            <p className="rounded-md bg-paper-sunk px-3 py-2 text-sm text-ink-muted" role="status">
+              Checking the model…
+            </p>
+          ) : errors.length === 0 ? (
             <p className="rounded-md bg-ok-wash px-3 py-2 text-sm text-ok">Valid and stable: the engine accepts this model.</p>
           ) : (
             <div className="rounded-md bg-bad-wash px-3 py-2 text-sm text-bad">
@@ -171,25 +187,31 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
           )}
         </section>
 
-        <Form method="post" className="flex flex-wrap items-end gap-3">
-          <input type="hidden" name="model" value={JSON.stringify(model)} />
+        {/* the model is written into the form as it is sent: a 3,000-member model's text in the
+            page on every keystroke would cost more than the edit */}
+        <Form method="post" className="flex flex-wrap items-end gap-3" onSubmit={(e) => ((e.currentTarget.elements.namedItem("model") as HTMLInputElement).value = JSON.stringify(fromTables(tables)))}>
+          <input type="hidden" name="model" defaultValue="" />
           <input type="hidden" name="baseVersion" value={baseVersion} />
           <label className="flex-1 text-sm">
             <span className="text-ink-soft">What changed (a note on the version)</span>
             <input name="note" value={note} onChange={(e) => setNote(e.target.value)} maxLength={500} className="mt-1 w-full rounded-md border border-rule bg-paper px-2 py-1.5" />
           </label>
-          <button type="submit" className="btn btn-primary" disabled={saving || errors.length > 0}>
+          <button type="submit" className="btn btn-primary" disabled={saving || !checked || errors.length > 0 || deferred !== tables}>
             {saving ? "Saving…" : "Save as a new version"}
           </button>
           {saveError && <p className="w-full text-sm text-bad">{saveError}</p>}
         </Form>
       </div>
       <div className="min-w-0">
-        {preview ? (
-          <TrussViewer model={preview} title="Preview" height="h-[28rem]" selectedMember={selectedMember} onSelectMember={(i) => { setSelectedMember(i); if (i !== null) setTab("members"); }} />
-        ) : (
-          <p className="card text-sm text-ink-muted">The preview appears once the model passes the checks.</p>
-        )}
+        <TrussViewer
+          model={preview}
+          title="Preview"
+          height="h-[28rem]"
+          selectedMember={viewIndex("member")}
+          onSelectMember={pick("member")}
+          selectedNode={viewIndex("node")}
+          onSelectNode={pick("node")}
+        />
       </div>
     </div>
   );

@@ -1,7 +1,8 @@
 // The model as the editor's tables (text cells, as typed) and back. Empty cells leave a field
 // out; numbers are read with Number() so the engine's parser reports what is not one, naming
 // the row. Fields the tables do not show (description, sections, combinations, anything new)
-// ride along untouched in `rest`.
+// ride along untouched in `rest`; the design block is the design form's (design-fields.ts).
+import { fromDesignFields, toDesignFields, type DesignFields } from "./design-fields";
 import type { GridRow } from "./EditableGrid";
 
 type Obj = Record<string, unknown>;
@@ -13,8 +14,10 @@ export interface EditorTables {
   loadCases: GridRow[];
   materials: GridRow[];
   groups: GridRow[];
-  /** the design block without its groups, as JSON text ("" for none) */
-  designText: string;
+  /** the design block without its groups, as form fields */
+  design: DesignFields;
+  /** the design block as loaded: sub-objects it had stay when the form leaves them empty */
+  originalDesign: unknown;
   rest: Obj;
 }
 
@@ -23,7 +26,7 @@ const s = (v: unknown) => (v === undefined || v === null ? "" : String(v));
 export function toTables(model: Obj): EditorTables {
   const { nodes, members, loadCases, materials, design, ...rest } = model;
   const d = design as Obj | undefined;
-  const { groups, ...designRest } = d ?? {};
+  const groups = d?.groups;
   return {
     nodes: ((nodes as Obj[]) ?? []).map((n) => ({ id: s(n.id), x: s(n.x), y: s(n.y), z: s(n.z), fixed: Array.isArray(n.fixed) ? (n.fixed as string[]).join("") : "" })),
     members: ((members as Obj[]) ?? []).map((m) => ({ id: s(m.id), start: s(m.start), end: s(m.end), material: s(m.material), area: s(m.area), group: s(m.group), section: s(m.section), bucklingFactor: s(m.bucklingFactor) })),
@@ -31,18 +34,25 @@ export function toTables(model: Obj): EditorTables {
     loadCases: ((loadCases as Obj[]) ?? []).map((lc) => ({ id: s(lc.id), name: s(lc.name), selfWeight: s(lc.selfWeight) })),
     materials: ((materials as Obj[]) ?? []).map((m) => ({ id: s(m.id), name: s(m.name), E: s(m.E), density: s(m.density), allowableTension: s(m.allowableTension), allowableCompression: s(m.allowableCompression) })),
     groups: ((groups as Obj[]) ?? []).map((g) => ({ id: s(g.id), min: s(g.min), max: s(g.max) })),
-    designText: d ? JSON.stringify(designRest, null, 2) : "",
+    design: toDesignFields(design),
+    originalDesign: design,
     rest,
   };
 }
 
-const num = (v: string | undefined) => (v === undefined || v.trim() === "" ? undefined : Number(v.trim()));
+/** A number as typed; text that is not one stays text, so the parser names it as an upload would. */
+const num = (v: string | undefined): number | string | undefined => {
+  const x = v?.trim() ?? "";
+  if (x === "") return undefined;
+  const n = Number(x);
+  return Number.isFinite(n) ? n : x;
+};
 const txt = (v: string | undefined) => (v === undefined || v.trim() === "" ? undefined : v.trim());
 const clean = (o: Obj) => Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined));
 const blank = (r: GridRow) => Object.values(r).every((v) => !v || !v.trim());
 
-/** The model the tables describe; `designError` when the design text is not JSON. */
-export function fromTables(t: EditorTables): { model: Obj; designError: string | null } {
+/** The model the tables describe. */
+export function fromTables(t: EditorTables): Obj {
   const cases = new Map<string, Obj>();
   for (const lc of t.loadCases.filter((r) => !blank(r))) cases.set(lc.id!.trim(), clean({ id: lc.id!.trim(), name: txt(lc.name), selfWeight: num(lc.selfWeight), loads: [] }));
   for (const l of t.loads.filter((r) => !blank(r))) {
@@ -50,17 +60,8 @@ export function fromTables(t: EditorTables): { model: Obj; designError: string |
     if (!cases.has(id)) cases.set(id, { id, loads: [] });
     (cases.get(id)!.loads as Obj[]).push(clean({ node: txt(l.node) ?? "", fx: num(l.fx), fy: num(l.fy), fz: num(l.fz) }));
   }
-  let design: Obj | undefined;
-  let designError: string | null = null;
-  if (t.designText.trim()) {
-    try {
-      design = JSON.parse(t.designText) as Obj;
-    } catch (e) {
-      designError = `the design block is not valid JSON: ${(e as Error).message}`;
-    }
-    const groups = t.groups.filter((r) => !blank(r)).map((g) => clean({ id: txt(g.id) ?? "", min: num(g.min), max: num(g.max) }));
-    if (design && groups.length) design = { ...design, groups };
-  }
+  const groups = t.groups.filter((r) => !blank(r)).map((g) => clean({ id: txt(g.id) ?? "", min: num(g.min), max: num(g.max) }));
+  const design = fromDesignFields(t.design, groups, t.originalDesign);
   const model: Obj = {
     ...t.rest,
     materials: t.materials.filter((r) => !blank(r)).map((m) => clean({ id: txt(m.id) ?? "", name: txt(m.name), E: num(m.E), density: num(m.density), allowableTension: num(m.allowableTension), allowableCompression: num(m.allowableCompression) })),
@@ -69,5 +70,5 @@ export function fromTables(t: EditorTables): { model: Obj; designError: string |
     loadCases: [...cases.values()],
     ...(design ? { design } : {}),
   };
-  return { model, designError };
+  return model;
 }

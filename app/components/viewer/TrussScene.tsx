@@ -4,7 +4,7 @@
 // loads arrows. The camera frames the truss on demand ("fit"); planar trusses get a 2D
 // projection (orthographic, pan and zoom only) unless the user asks for 3D.
 import { AdaptiveDpr, OrbitControls, OrthographicCamera, PerspectiveCamera } from "@react-three/drei";
-import { Canvas, useThree } from "@react-three/fiber";
+import { Canvas, useFrame, useThree } from "@react-three/fiber";
 import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
@@ -44,17 +44,27 @@ interface Props {
   /** the selected member, outlined */
   selected?: number | null;
   onSelectMember?: (index: number | null) => void;
+  /** the selected node, ringed */
+  selectedNode?: number | null;
+  /** given: a click near a joint picks the node rather than the members meeting there */
+  onSelectNode?: (index: number | null) => void;
   onHoverMember?: (hover: MemberHover | null) => void;
   onContextLost?: () => void;
 }
 
-export default function TrussScene({ view, settings, paint, selected, onSelectMember, onHoverMember, onContextLost }: Props) {
+export default function TrussScene({ view, settings, paint, selected, onSelectMember, selectedNode, onSelectNode, onHoverMember, onContextLost }: Props) {
   const up = upAxis(view);
   const ortho = view.planar && settings.projection2d;
   const span = view.bounds.span;
   // big trusses: no multisampling and one pixel per CSS pixel, so orbiting stays fluid on
   // software renderers and small GPUs; thin members hardly show aliasing at that density
   const heavy = view.members.length > 1200;
+  const { loadCase, showLoads, showReactions, showSupports, showDeformed, deformationScale } = settings;
+  // once per change of what is drawn, not on every render of the page around the scene
+  const box = useMemo(
+    () => drawnBox(view, { loadCase, showLoads, showReactions, showSupports, showDeformed, deformationScale }),
+    [view, loadCase, showLoads, showReactions, showSupports, showDeformed, deformationScale],
+  );
   return (
     // one canvas for both projections: the cameras swap inside it (makeDefault). Re-keying
     // the canvas destroyed its WebGL context, which read as a lost context (issue 16).
@@ -65,6 +75,10 @@ export default function TrussScene({ view, settings, paint, selected, onSelectMe
       dpr={heavy ? 1 : [1, 2]}
       gl={{ antialias: !heavy, preserveDrawingBuffer: true, powerPreference: "high-performance" }}
       onCreated={({ gl }) => {
+        markOnce("truss-canvas-created");
+        // reading each shader's compile log makes the first frame wait for every compile in
+        // turn (a large share of it on software renderers); a production build skips that check
+        gl.debug.checkShaderErrors = import.meta.env.DEV;
         gl.setClearColor(new THREE.Color(cssColor("--color-paper-raised", "#ffffff")));
         // a canvas React removes loses its context on purpose; only a context lost while the
         // canvas is still on the page is the browser reclaiming the GPU
@@ -83,18 +97,35 @@ export default function TrussScene({ view, settings, paint, selected, onSelectMe
       <ambientLight intensity={0.85} />
       <directionalLight position={[1, 2, 3]} intensity={1.6} />
       <directionalLight position={[-2, -1, -1]} intensity={0.5} />
-      <Members view={view} settings={settings} paint={paint ?? null} onSelect={onSelectMember} onHover={onHoverMember} />
+      <Members view={view} settings={settings} paint={paint ?? null} onSelect={onSelectMember} onSelectNode={onSelectNode} onHover={onHoverMember} />
       <Joints view={view} />
       {view.hasResult && !paint && settings.colourMode === "utilization" && <OverLimitOutlines view={view} />}
       {selected !== null && selected !== undefined && view.members[selected] && <SelectionOutline view={view} index={selected} />}
+      {selectedNode !== null && selectedNode !== undefined && view.nodes[selectedNode] && <NodeMark view={view} index={selectedNode} />}
       {settings.showInitial && view.hasResult && <InitialOverlay view={view} />}
       {settings.showDeformed && view.hasResult && <DeformedOverlay view={view} settings={settings} />}
       {settings.showSupports && <Supports view={view} />}
       {settings.showLoads && <Loads view={view} loadCase={settings.loadCase} />}
       {settings.showReactions && <Loads view={view} loadCase={settings.loadCase} reactions />}
-      <Framing view={view} box={drawnBox(view, settings)} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
+      <Framing view={view} box={box} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
+      <FirstFrameMark />
     </Canvas>
   );
+}
+
+/** User-timing marks of the first scene on a page (read by the workbench bench; cheap, no effect on drawing). */
+function markOnce(name: string) {
+  if (typeof performance !== "undefined" && performance.getEntriesByName(name).length === 0) performance.mark(name);
+}
+
+function FirstFrameMark() {
+  const done = useRef(false);
+  useFrame(() => {
+    if (done.current) return;
+    done.current = true;
+    markOnce("truss-first-frame");
+  });
+  return null;
 }
 
 function memberColours(view: TrussView, settings: SceneSettings, paint: Record<string, string> | null): THREE.Color[] {
@@ -116,12 +147,14 @@ function Members({
   settings,
   paint,
   onSelect,
+  onSelectNode,
   onHover,
 }: {
   view: TrussView;
   settings: SceneSettings;
   paint: Record<string, string> | null;
   onSelect?: (i: number | null) => void;
+  onSelectNode?: (i: number | null) => void;
   onHover?: (h: MemberHover | null) => void;
 }) {
   const invalidate = useThree((s) => s.invalidate);
@@ -167,17 +200,34 @@ function Members({
   return (
     <>
       <primitive object={mesh} />
-      {(onSelect || onHover) && <Picker mesh={mesh} onSelect={onSelect} onHover={onHover} />}
+      {(onSelect || onHover) && <Picker view={view} mesh={mesh} onSelect={onSelect} onSelectNode={onSelectNode} onHover={onHover} />}
     </>
   );
 }
 
+/** A click this close to a joint's centre on screen picks the node (CSS pixels). */
+const NODE_PICK_PX = 8;
+
 /**
- * Click a member to select it; rest the pointer on one to read it. The hover test runs at most
- * once a frame and never while a button is held (orbiting), so thousands of instances cost one
- * raycast per drawn frame at worst.
+ * Click a member to select it (with onSelectNode, a click near a joint selects its node); rest
+ * the pointer on a member to read it. The hover test runs at most once a frame and never while
+ * a button is held (orbiting), so thousands of instances cost one raycast per drawn frame at
+ * worst. Joints are picked on screen (the nearest within a few pixels), as they are drawn
+ * barely wider than the members meeting there.
  */
-function Picker({ mesh, onSelect, onHover }: { mesh: THREE.InstancedMesh; onSelect?: (i: number | null) => void; onHover?: (h: MemberHover | null) => void }) {
+function Picker({
+  view,
+  mesh,
+  onSelect,
+  onSelectNode,
+  onHover,
+}: {
+  view: TrussView;
+  mesh: THREE.InstancedMesh;
+  onSelect?: (i: number | null) => void;
+  onSelectNode?: (i: number | null) => void;
+  onHover?: (h: MemberHover | null) => void;
+}) {
   const gl = useThree((s) => s.gl);
   const camera = useThree((s) => s.camera);
   useEffect(() => {
@@ -191,10 +241,30 @@ function Picker({ mesh, onSelect, onHover }: { mesh: THREE.InstancedMesh; onSele
       ray.setFromCamera(new THREE.Vector2(((e.clientX - r.left) / r.width) * 2 - 1, -((e.clientY - r.top) / r.height) * 2 + 1), camera);
       return { id: ray.intersectObject(mesh, false)[0]?.instanceId ?? null, x: e.clientX - r.left, y: e.clientY - r.top };
     };
+    const p = new THREE.Vector3();
+    const nearestNode = (e: PointerEvent): number | null => {
+      const r = el.getBoundingClientRect();
+      const x = e.clientX - r.left;
+      const y = e.clientY - r.top;
+      let best: number | null = null;
+      let bestD = NODE_PICK_PX;
+      view.nodes.forEach((n, i) => {
+        p.set(...n.position).project(camera);
+        if (p.z < -1 || p.z > 1) return; // behind the camera or beyond its far plane
+        const d = Math.hypot(((p.x + 1) / 2) * r.width - x, ((1 - p.y) / 2) * r.height - y);
+        if (d <= bestD) {
+          bestD = d;
+          best = i;
+        }
+      });
+      return best;
+    };
     const onDown = (e: PointerEvent) => (down = { x: e.clientX, y: e.clientY });
     const onUp = (e: PointerEvent) => {
       if (!down || Math.hypot(e.clientX - down.x, e.clientY - down.y) > 4) return; // a drag, not a click
-      onSelect?.(hitAt(e).id);
+      const node = onSelectNode ? nearestNode(e) : null;
+      if (node !== null) onSelectNode!(node);
+      else onSelect?.(hitAt(e).id);
     };
     const onMove = (e: PointerEvent) => {
       if (!onHover || e.buttons !== 0 || frame) return;
@@ -221,7 +291,7 @@ function Picker({ mesh, onSelect, onHover }: { mesh: THREE.InstancedMesh; onSele
       el.removeEventListener("pointermove", onMove);
       el.removeEventListener("pointerleave", onLeave);
     };
-  }, [gl, camera, mesh, onSelect, onHover]);
+  }, [gl, camera, mesh, view, onSelect, onSelectNode, onHover]);
   return null;
 }
 
@@ -238,6 +308,24 @@ function SelectionOutline({ view, index }: { view: TrussView; index: number }) {
     const m = view.members[index]!;
     const radii = visualRadii(view);
     placeCylinder(mesh.matrix, view.nodes[m.a]!.position, view.nodes[m.b]!.position, radii[index]! * 2.4 + view.medianLength * 0.006);
+    mesh.matrixWorldNeedsUpdate = true;
+    invalidate();
+  }, [mesh, view, index, invalidate]);
+  return <primitive object={mesh} raycast={() => null} />;
+}
+
+/** The selected node: a ball in the brass accent, twice a joint's size, around it. */
+function NodeMark({ view, index }: { view: TrussView; index: number }) {
+  const invalidate = useThree((s) => s.invalidate);
+  const mesh = useMemo(() => {
+    const m = new THREE.Mesh(new THREE.SphereGeometry(1, 16, 12), new THREE.MeshBasicMaterial({ color: new THREE.Color(cssColor("--color-brass-strong", "#9c6314")) }));
+    m.matrixAutoUpdate = false;
+    return m;
+  }, []);
+  useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); }, [mesh]);
+  useLayoutEffect(() => {
+    const r = jointRadius(view) * 2;
+    mesh.matrix.makeScale(r, r, r).setPosition(...view.nodes[index]!.position);
     mesh.matrixWorldNeedsUpdate = true;
     invalidate();
   }, [mesh, view, index, invalidate]);

@@ -15,7 +15,10 @@ const TrussScene = lazy(loadScene);
 export function webglAvailable(): boolean {
   try {
     const c = document.createElement("canvas");
-    return !!(c.getContext("webgl2") || c.getContext("webgl"));
+    const ctx = c.getContext("webgl2") || c.getContext("webgl");
+    // give the probe's context back at once: browsers keep only a few alive per page
+    ctx?.getExtension("WEBGL_lose_context")?.loseContext();
+    return !!ctx;
   } catch {
     return false;
   }
@@ -41,13 +44,16 @@ interface Props {
   /** a controlled selection (the editor ties it to its member table) */
   selectedMember?: number | null;
   onSelectMember?: (index: number | null) => void;
+  /** a controlled node selection (the editor ties it to its node table); given, clicks near a joint pick nodes */
+  selectedNode?: number | null;
+  onSelectNode?: (index: number | null) => void;
   /** colours by member id in place of the colour modes, with their own legend and hover words */
   paint?: { colours: Record<string, string>; legend: ReactNode; describe: (memberId: string) => string } | null;
 }
 
 const SCALE_STEPS = 40; // slider positions, on a log scale around the default magnification
 
-export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, paint }: Props) {
+export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, selectedNode = null, onSelectNode, paint }: Props) {
   const view = useMemo(() => buildTrussView(model, result), [model, result]);
   const hasReactions = view.loadCases.some((c) => c.reactions.length > 0);
   const [mounted, setMounted] = useState(false);
@@ -84,6 +90,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
   const set = <K extends keyof typeof settings>(k: K, v: (typeof settings)[K]) => setSettings((s) => ({ ...s, [k]: v }));
   const lc = view.loadCases[loadCase];
   const sel = selected !== null ? view.members[selected] : undefined;
+  const selNode = selectedNode !== null ? view.nodes[selectedNode] : undefined;
   const units = view.units;
 
   const fallback = (
@@ -188,6 +195,8 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
                 paint={paint?.colours ?? null}
                 selected={selected}
                 onSelectMember={setSelected}
+                selectedNode={selectedNode}
+                onSelectNode={onSelectNode}
                 onHoverMember={onHover}
                 onContextLost={() => setLost(true)}
               />
@@ -221,12 +230,17 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
           />
         )}
         <p className="text-ink-muted sm:text-right" aria-live="polite" data-testid="selected-member">
-          {sel ? (
+          {selNode ? (
+            <>
+              Node <strong className="text-ink">{selNode.id}</strong> at ({selNode.position.map((v) => formatNumber(v)).join(", ")}){units ? ` ${units.length}` : ""}
+              {selNode.fixed.length > 0 ? `, restrained in ${selNode.fixed.join(", ")}` : ", free"}
+            </>
+          ) : sel ? (
             <>
               Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): {paint ? paint.describe(sel.id) : memberWords(sel, lc?.id, units)}
             </>
           ) : (
-            `${view.members.length} members, ${view.nodes.length} nodes${view.planar ? ", planar" : ""}. Click a member for its values.`
+            `${view.members.length} members, ${view.nodes.length} nodes${view.planar ? ", planar" : ""}. Click a member${onSelectNode ? " or a node" : ""} for its values.`
           )}
         </p>
       </div>
