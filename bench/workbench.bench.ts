@@ -47,11 +47,12 @@ async function firstFrame(page: Page, url: string): Promise<Phases> {
     { timeout: 60_000, polling: 50 },
   );
   const total = Date.now() - t0;
-  const marks = await page.evaluate(() => {
-    const nav = performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming;
-    const at = (name: string) => performance.getEntriesByName(name)[0]?.startTime ?? NaN;
-    return { firstByte: nav.responseStart, domReady: nav.domContentLoadedEventEnd, canvas: at("truss-canvas-created"), frame: at("truss-first-frame") };
-  });
+  // a string, not a function: tsx's name helpers do not exist in the page
+  const marks = (await page.evaluate(`(() => {
+    const nav = performance.getEntriesByType("navigation")[0];
+    const mark = (name) => performance.getEntriesByName(name)[0]?.startTime ?? NaN;
+    return { firstByte: nav.responseStart, domReady: nav.domContentLoadedEventEnd, canvas: mark("truss-canvas-created"), frame: mark("truss-first-frame") };
+  })()`)) as Omit<Phases, "total">;
   return { total, ...marks };
 }
 

@@ -69,11 +69,11 @@ describe("the two-minute path: sign-in to a first optimized girder", () => {
     const code = `WB-${Date.now().toString(36).toUpperCase()}`;
     await step("open a project", async () => {
       await page.goto(`${app.baseUrl}/projects`);
-      await page.getByLabel("Code").fill(code);
-      await page.getByLabel("Name", { exact: true }).fill("Brackenford depot girders");
+      await page.getByRole("textbox", { name: "Code", exact: true }).fill(code);
+      await page.getByRole("textbox", { name: "Name", exact: true }).fill("Brackenford depot girders");
       await page.getByRole("button", { name: "Create project" }).click();
       await page.getByRole("status").filter({ hasText: `Project ${code} created` }).waitFor({ timeout: 15_000 });
-      await page.getByRole("link", { name: /Brackenford depot girders/ }).first().click();
+      await page.getByRole("link", { name: code, exact: true }).click();
       await page.waitForURL(/\/projects\/[^/?]+$/);
     });
     state.projectId = page.url().split("/projects/")[1];

@@ -3,7 +3,7 @@
 // own parser (the messages an upload gives), run in a worker; the 2D/3D preview beside them,
 // where clicking a member or a node selects its row and selecting a row shows it in the view.
 // Saving posts the model as a new version.
-import { useDeferredValue, useMemo, useState } from "react";
+import { useCallback, useDeferredValue, useMemo, useRef, useState } from "react";
 import { Form } from "react-router";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
 import type { ModelLike } from "~/components/viewer/truss-view";
@@ -27,7 +27,8 @@ const TABS: { id: Tab; label: string }[] = [
 /** The selected row: a node or a member (table row index), shown in the preview too. */
 type Selection = { kind: "node" | "member"; row: number } | null;
 
-export function ModelEditor({ initial, units, baseVersion, saving, saveError }: { initial: Record<string, unknown>; units: { length: string; force: string; mass: string }; baseVersion: number; saving: boolean; saveError?: string | null }) {
+export function ModelEditor({ initialText, units, baseVersion, saving, saveError }: { initialText: string; units: { length: string; force: string; mass: string }; baseVersion: number; saving: boolean; saveError?: string | null }) {
+  const [initial] = useState(() => JSON.parse(initialText) as Record<string, unknown>);
   const [tables, setTables] = useState<EditorTables>(() => toTables(initial));
   const [tab, setTab] = useState<Tab>("nodes");
   const [selection, setSelection] = useState<Selection>(null);
@@ -50,18 +51,31 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
   const preview = useStablePreview(initial as unknown as ModelLike, check?.ok ? (check.model as unknown as ModelLike) : null);
 
   // rows and the preview's items are matched by id: blank or half-typed rows shift indices
-  const rowOf = (kind: "node" | "member", id: string | undefined) => (id === undefined ? -1 : (kind === "node" ? tables.nodes : tables.members).findIndex((r) => r.id?.trim() === id));
   const viewIndex = (kind: "node" | "member") => {
     if (selection?.kind !== kind) return null;
     const id = (kind === "node" ? tables.nodes : tables.members)[selection.row]?.id?.trim();
     const i = (kind === "node" ? preview.nodes : preview.members).findIndex((x) => x.id === id);
     return i >= 0 ? i : null;
   };
-  const pick = (kind: "node" | "member") => (i: number | null) => {
-    const row = i === null ? -1 : rowOf(kind, (kind === "node" ? preview.nodes : preview.members)[i]?.id);
+  // the pick handlers read the newest tables through a ref, so they stay the same functions
+  // and the preview (thousands of instances) is not rendered again for an edit elsewhere
+  const latest = useRef({ tables, preview });
+  latest.current = { tables, preview };
+  const pick = useCallback((kind: "node" | "member", i: number | null) => {
+    const { tables: t, preview: p } = latest.current;
+    const id = i === null ? undefined : (kind === "node" ? p.nodes : p.members)[i]?.id;
+    const row = id === undefined ? -1 : (kind === "node" ? t.nodes : t.members).findIndex((r) => r.id?.trim() === id);
     setSelection(row >= 0 ? { kind, row } : null);
     if (row >= 0) setTab(kind === "node" ? "nodes" : "members");
-  };
+  }, []);
+  const pickMember = useCallback((i: number | null) => pick("member", i), [pick]);
+  const pickNode = useCallback((i: number | null) => pick("node", i), [pick]);
+  const memberInView = viewIndex("member");
+  const nodeInView = viewIndex("node");
+  const viewer = useMemo(
+    () => <TrussViewer model={preview} title="Preview" height="h-[28rem]" selectedMember={memberInView} onSelectMember={pickMember} selectedNode={nodeInView} onSelectNode={pickNode} />,
+    [preview, memberInView, nodeInView, pickMember, pickNode],
+  );
   const selectedRow = (kind: "node" | "member") => (selection?.kind === kind ? selection.row : null);
   const selectRow = (kind: "node" | "member") => (row: number | null) => setSelection(row === null ? null : { kind, row });
 
@@ -203,15 +217,7 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
         </Form>
       </div>
       <div className="min-w-0">
-        <TrussViewer
-          model={preview}
-          title="Preview"
-          height="h-[28rem]"
-          selectedMember={viewIndex("member")}
-          onSelectMember={pick("member")}
-          selectedNode={viewIndex("node")}
-          onSelectNode={pick("node")}
-        />
+        {viewer}
       </div>
     </div>
   );

@@ -3,9 +3,9 @@
 // checked: while one check runs, later edits replace each other and the last one goes next.
 // Null until the first answer (and on the server, which does not check: the stored version
 // passed the gate when it was saved). Without workers it checks on the main thread, after a
-// frame.
+// frame, loading the parser only then.
 import { useEffect, useRef, useState } from "react";
-import { parseModel, type ParseResult } from "~/engine/truss";
+import type { ParseResult } from "~/engine/truss";
 
 type Checker = { post(id: number, model: unknown): void; stop(): void };
 
@@ -19,7 +19,8 @@ function startChecker(onResult: (id: number, result: ParseResult) => void): Chec
     return {
       post: (id, model) => {
         clearTimeout(timer);
-        timer = setTimeout(() => onResult(id, parseModel(model)), 16);
+        // the parser (and zod) load only here, not with the page
+        timer = setTimeout(() => void import("~/engine/truss").then(({ parseModel }) => onResult(id, parseModel(model))), 16);
       },
       stop: () => clearTimeout(timer),
     };
