@@ -20,6 +20,18 @@ export interface JobState {
   mark: string;
 }
 
+/**
+ * The tones as colours for the PDF and the HTML mail, equal to the app.css tokens the pages'
+ * badges use (text-ok on bg-ok-wash, ...); tests/report/palette.test.ts keeps them equal.
+ */
+export const TONE_COLORS: Record<StateTone, { ink: string; wash: string }> = {
+  good: { ink: "#2f7d5b", wash: "#e2f1e8" },
+  caution: { ink: "#a86a00", wash: "#fbefd6" },
+  bad: { ink: "#b3362c", wash: "#f8e1de" },
+  neutral: { ink: "#3b4757", wash: "#ebe7de" },
+  active: { ink: "#2c5d8a", wash: "#e0ebf5" },
+};
+
 const MARKS: Record<StateTone, string> = { good: "✓", caution: "!", bad: "✕", neutral: "■", active: "▶" };
 
 function state(sentence: string, tone: StateTone): JobState {

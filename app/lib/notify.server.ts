@@ -16,6 +16,7 @@ import { enqueueMail, type OutboxMail } from "~/lib/mail/outbox.server";
 import { formatDateTime, formatNumber } from "~/lib/format";
 import { memberOfJobProject } from "~/lib/project-scope.server";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
+import { jobState, TONE_COLORS, type JobState } from "~/lib/job-state";
 
 /** How a job is about to end, when its mail is composed before the row says so. */
 export interface JobEnd {
@@ -30,6 +31,8 @@ interface JobFacts {
   status: string;
   outcome: string | null;
   error: string | null;
+  /** a cancelled run whose best design was kept */
+  hasResult: boolean;
   modelName: string;
   projectCode: string;
   projectName: string;
@@ -46,6 +49,7 @@ async function jobFacts(database: DbExecutor, jobId: string, end?: JobEnd): Prom
     status: job.status,
     outcome: job.outcome,
     error: job.error,
+    hasResult: r.job.resultKey !== null,
     modelName: r.model.name,
     projectCode: r.project.code,
     projectName: r.project.name,
@@ -84,11 +88,15 @@ export function composeMail(opts: {
   facts: [string, string][];
   link: string;
   linkLabel: string;
+  /** the job's state in the one sentence and colour of the pages and the PDF (job-state.ts) */
+  state?: JobState;
 }): Mail {
   const factText = opts.facts.map(([k, v]) => `  ${k}: ${v}`).join("\n");
+  const tone = opts.state ? TONE_COLORS[opts.state.tone] : null;
   const text = [
     opts.greeting,
     "",
+    ...(opts.state ? [`State: ${opts.state.sentence}`, ""] : []),
     ...opts.paragraphs.flatMap((p) => [p, ""]),
     factText,
     "",
@@ -99,6 +107,9 @@ export function composeMail(opts: {
   const html = [
     `<div style="font-family:'IBM Plex Sans',Arial,sans-serif;color:#16202c;font-size:14px;line-height:1.5">`,
     `<p>${escapeHtml(opts.greeting)}</p>`,
+    ...(opts.state && tone
+      ? [`<p><span style="display:inline-block;padding:2px 10px;border-radius:999px;background:${tone.wash};color:${tone.ink};font-weight:600">${escapeHtml(`${opts.state.mark} ${opts.state.sentence}`)}</span></p>`]
+      : []),
     ...opts.paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
     `<table style="border-collapse:collapse;margin:8px 0">`,
     ...opts.facts.map(
@@ -154,11 +165,12 @@ export async function jobFinishedMails(database: DbExecutor, jobId: string, opts
   if (!j.submitter) return warn(`[notify] job ${jobId} has no submitter to tell`);
   if (j.status !== "succeeded" && j.status !== "failed" && j.status !== "cancelled") return warn(`[notify] job ${jobId} is still ${j.status}; no finished mail sent`);
   const facts = jobFactRows(j);
-  let subject: string;
+  const state = jobState({ status: j.status, outcome: j.status === "succeeded" ? (j.outcome ?? "optimal") : j.outcome, hasResult: j.hasResult });
+  // the subject leads with the state sentence every list and the PDF show
+  const subject = `Job ${state.sentence}: ${j.modelName}${jobTag(j.id)}`;
   let paragraphs: string[];
   if (j.status === "succeeded") {
     const outcome = j.outcome ?? "optimal";
-    subject = `Job finished: ${j.modelName} (${outcome})${jobTag(j.id)}`;
     paragraphs = [`Your optimization run of "${j.modelName}" has finished: ${OUTCOME_WORDS[outcome] ?? outcome}.`];
     const s = j.summary;
     if (s) {
@@ -168,11 +180,9 @@ export async function jobFinishedMails(database: DbExecutor, jobId: string, opts
     const asked = (opts.reviewRequested ?? true) && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);
     paragraphs.push(asked ? "A checker still has to review it before the report is approved." : noReviewReason(outcome));
   } else if (j.status === "failed") {
-    subject = `Job failed: ${j.modelName}${jobTag(j.id)}`;
     paragraphs = [`Your optimization run of "${j.modelName}" failed.`, j.error ? `Reason: ${j.error}` : "No reason was recorded."];
   } else {
-    subject = `Job cancelled: ${j.modelName}${jobTag(j.id)}`;
-    paragraphs = [`Your optimization run of "${j.modelName}" was cancelled before it finished.`];
+    paragraphs = [`Your optimization run of "${j.modelName}" was stopped before it finished${j.hasResult ? "; the best design found so far is kept on the job page" : ""}.`];
   }
   const mail = composeMail({
     to: j.submitter.email,
@@ -182,6 +192,7 @@ export async function jobFinishedMails(database: DbExecutor, jobId: string, opts
     facts,
     link: jobLink(j.id),
     linkLabel: "Open the job",
+    state,
   });
   return [outboxMail("job-finished", `job-finished:${j.id}`, { ...mail, to: j.submitter.email }, j.id)];
 }
@@ -223,6 +234,7 @@ export async function reviewWaitingMails(database: DbExecutor, jobId: string, en
       facts: [...jobFactRows(j), ["Submitted by", by]],
       link: jobLink(j.id),
       linkLabel: "Review the job",
+      state: jobState({ status: j.status, outcome: j.outcome }),
     });
     mails.push(outboxMail("review-waiting", `review-waiting:${j.id}:${email.toLowerCase()}`, { ...mail, to: email }, j.id));
   }

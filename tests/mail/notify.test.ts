@@ -59,7 +59,10 @@ describe("notifyJobFinished", () => {
     const mails = await inbox();
     expect(mails).toHaveLength(1);
     expect(mails[0]!.to).toEqual(["ines.okafor@brightspan.example"]);
-    expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (optimal) · job job-ok-0");
+    // the state sentence, mark and tone colour of the pages (job-state.ts) lead the subject and the mail
+    expect(mails[0]!.subject).toBe("Job finished — optimal: Canopy truss, option C · job job-ok-0");
+    expect(mails[0]!.text).toContain("State: finished — optimal");
+    expect(mails[0]!.html).toContain("background:#e2f1e8;color:#2f7d5b;font-weight:600\">✓ finished — optimal</span>");
     expect(mails[0]!.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
     expect(mails[0]!.text).toContain("0.4120 → 0.2870");
     expect(mails[0]!.html).toContain('href="http://desk.example.test:4450/jobs/job-ok-001"');
@@ -69,7 +72,7 @@ describe("notifyJobFinished", () => {
     await send((tx) => notify.queueJobFinishedMail(tx, "job-bad-002"));
     const [mail] = await inbox();
     expect(mail!.to).toEqual(["ines.okafor@brightspan.example"]);
-    expect(mail!.subject).toBe("Job failed: Canopy truss, option C · job job-bad-");
+    expect(mail!.subject).toBe("Job failed — no result: Canopy truss, option C · job job-bad-");
     expect(mail!.text).toContain("node D can move freely in y");
     expect(mail!.text).toContain("http://desk.example.test:4450/jobs/job-bad-002");
   });
@@ -106,7 +109,8 @@ describe("runs with nothing to review", () => {
     await send((tx) => notify.queueJobFinishedMail(tx, "job-infeas-004", { reviewRequested: false }));
     const mails = await inbox();
     expect(mails.map((m) => m.to)).toEqual([["ines.okafor@brightspan.example"]]);
-    expect(mails[0]!.subject).toBe("Job finished: Canopy truss, option C (infeasible) · job job-infe");
+    expect(mails[0]!.subject).toBe("Job finished — no design meets every limit: Canopy truss, option C · job job-infe");
+    expect(mails[0]!.html).toContain("color:#b3362c;font-weight:600\">✕ finished — no design meets every limit</span>");
     expect(mails[0]!.text).toContain("no design meets every limit");
     expect(mails[0]!.text).toContain("No checker was asked to review it");
   });
@@ -162,7 +166,7 @@ describe("the outbox", () => {
     await sender.deliverDue();
     await sender.deliverDue();
     const mails = await inbox();
-    expect(mails.map((m) => m.subject)).toEqual(["Job failed: Canopy truss, option C · job job-twic"]);
+    expect(mails.map((m) => m.subject)).toEqual(["Job failed — no result: Canopy truss, option C · job job-twic"]);
   });
 
   it("keeps a mail while the mail server is down, says why, and delivers it once when it is back", async () => {

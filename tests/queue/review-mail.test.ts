@@ -90,7 +90,7 @@ describe("review requests from the queue", () => {
     expect(feasibleByStatics(result)).toBe(false);
     expect(reviewMails(mails)).toEqual([]);
     expect(mails.map((m) => m.to)).toEqual([[engineer.email]]);
-    expect(mails[0]!.subject).toMatch(/^Job finished: Review probe: bounds too tight \(infeasible\)/);
+    expect(mails[0]!.subject).toMatch(/^Job finished — no design meets every limit: Review probe: bounds too tight/);
     expect(mails[0]!.text).toContain("No checker was asked to review it");
     expect(mails[0]!.text).not.toContain("A checker still has to review it");
   });

@@ -6,17 +6,21 @@ import type { ReportWriter } from "./layout";
 import { BAD, BAD_WASH, BRASS, BRASS_WASH, INK, INK_MUTED, INK_SOFT, OK, OK_WASH, WARN, WARN_WASH } from "./palette";
 import { reviewState, type ReportData } from "./report-data";
 import { reviewStateWords } from "~/components/job/review-words";
+import { jobState, TONE_COLORS } from "~/lib/job-state";
 
-const STATUS_WORDS: Record<string, string> = {
-  optimal: "optimal: the solver met its optimality and feasibility tolerances",
-  "not-converged": "not converged: the solver stopped before meeting its tolerances",
-  infeasible: "infeasible: no design within the bounds meets every limit",
-  failed: "failed: the solver could not complete",
-  analysed: "analysed: the model as given (its own areas), no optimization",
+/** What the solver's outcome means, after the job-state sentence of every list and page. */
+const STATUS_DETAIL: Record<string, string> = {
+  optimal: "the solver met its optimality and feasibility tolerances",
+  "not-converged": "the solver stopped before meeting its tolerances",
+  infeasible: "no design within the bounds meets every limit",
+  failed: "the solver could not complete",
+  analysed: "the model as given (its own areas), no optimization",
 };
 
+/** A report exists for a finished job: "finished — optimal: the solver met its ... tolerances". */
 export function statusWords(status: string): string {
-  return STATUS_WORDS[status] ?? status;
+  const sentence = jobState({ status: "succeeded", outcome: status }).sentence;
+  return STATUS_DETAIL[status] ? `${sentence}: ${STATUS_DETAIL[status]}` : sentence;
 }
 
 function box(w: ReportWriter, color: string, wash: string, title: string, lines: string[]) {
@@ -34,8 +38,13 @@ function box(w: ReportWriter, color: string, wash: string, title: string, lines:
 }
 
 export function reviewBox(w: ReportWriter, data: ReportData) {
-  const state = reviewState(data.reviews);
-  if (state.kind === "not-reviewed") {
+  const state = reviewState(data.reviews, data.result);
+  if (state.kind === "nothing-to-review") {
+    const c = TONE_COLORS[state.state.tone];
+    box(w, c.ink, c.wash, "NOT A DESIGN TO ISSUE", [
+      `This run is ${state.state.sentence}. It produced no design to sign off, so no checker is asked to review it; this record documents the attempt and must not be issued or relied on as a design.`,
+    ]);
+  } else if (state.kind === "not-reviewed") {
     box(w, BAD, BAD_WASH, "NOT REVIEWED", [
       "No checker has approved this calculation yet. It must not be issued or relied on until an independent checker has reviewed and approved it.",
     ]);
@@ -62,7 +71,11 @@ export function coverPage(w: ReportWriter, data: ReportData) {
   w.line("sans", 10, "STRUTWISE · CALCULATION RECORD", w.left, w.y, { color: INK_MUTED });
   w.y += 18;
   w.paragraph("Truss optimization", { face: "sans-bold", size: 24, gap: 2 });
-  w.paragraph(model.name, { face: "sans", size: 15, color: INK_SOFT, gap: 16 });
+  w.paragraph(model.name, { face: "sans", size: 15, color: INK_SOFT, gap: 6 });
+  // the job's state in the one sentence and colour of the pages and the mail (the marks beside
+  // the page badges are not in the shipped fonts; the sentence reads without colour on its own)
+  const state = jobState({ status: job.status, outcome: result.status });
+  w.paragraph(state.sentence, { face: "sans-semibold", size: 11, color: TONE_COLORS[state.tone].ink, gap: 14 });
 
   const solver = result.solver ? `${result.solver.name} ${result.solver.version}` : "not recorded in the result";
   w.facts([
@@ -75,7 +88,7 @@ export function coverPage(w: ReportWriter, data: ReportData) {
     ["Started", formatDateTime(job.startedAt, { seconds: true })],
     ["Finished", formatDateTime(job.finishedAt, { seconds: true })],
     ["Solver", `${solver}${result.formulation ? `, ${result.formulation} formulation` : ""}`],
-    ["Result", statusWords(result.status)],
+    ["State", statusWords(result.status)],
     ["Report generated", formatDateTime(data.generatedAt, { seconds: true })],
   ]);
   w.facts([["Input file SHA-256", model.sha256]], { monoValues: true, size: 8 });

@@ -37,7 +37,7 @@ export function buildReportPdf(data: ReportData): Promise<Uint8Array> {
     drawPageMarks(w, {
       left: `Strutwise calculation record · ${data.project.code}`,
       right: `${data.model.name} · job ${data.job.id}`,
-      state: reviewState(data.reviews),
+      state: reviewState(data.reviews, data.result),
     });
     doc.end();
   } catch (e) {

@@ -6,9 +6,14 @@ import { formatDateTime } from "~/lib/format";
 import { MARGIN, PAGE_SIZE, type ReportWriter } from "./layout";
 import { BAD, BAD_WASH, INK, INK_MUTED, OK, OK_WASH, RULE, WARN, WARN_WASH } from "./palette";
 import type { ReviewState } from "./report-data";
+import { TONE_COLORS } from "~/lib/job-state";
 
 export function reviewBanner(state: ReviewState): { text: string; color: string; wash: string; watermark: string | null } {
   switch (state.kind) {
+    case "nothing-to-review": {
+      const c = TONE_COLORS[state.state.tone];
+      return { text: `NOT A DESIGN TO ISSUE: ${state.state.sentence}; no checker is asked to review it`, color: c.ink, wash: c.wash, watermark: "NOT A DESIGN" };
+    }
     case "not-reviewed":
       return { text: "NOT REVIEWED — no checker has approved this calculation", color: BAD, wash: BAD_WASH, watermark: "NOT REVIEWED" };
     case "changes-requested":

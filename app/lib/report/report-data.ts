@@ -1,6 +1,8 @@
 // Everything one report shows, gathered before drawing starts: rows of the database, the
 // uploaded model file and the stored result. The document code reads only this.
 import type { TrussResult } from "~/engine/design/result-types";
+import { designWorthReview } from "~/lib/review-request";
+import { jobState, type JobState } from "~/lib/job-state";
 
 /** The parts of the uploaded model file (docs/model-format.md) that the report prints. */
 export interface ModelFile {
@@ -56,10 +58,14 @@ export interface ReportData {
 
 export type ReviewState =
   | { kind: "not-reviewed" }
+  /** a run with no design to sign off (infeasible, failed): no checker is asked, nothing is issued */
+  | { kind: "nothing-to-review"; state: JobState }
   | { kind: "approved"; review: ReportReview }
   | { kind: "changes-requested"; review: ReportReview };
 
-export function reviewState(reviews: ReportReview[]): ReviewState {
+/** `result`: the run's result, whose outcome decides whether there is a design to review at all. */
+export function reviewState(reviews: ReportReview[], result?: Pick<TrussResult, "status" | "verification">): ReviewState {
+  if (result && !designWorthReview(result)) return { kind: "nothing-to-review", state: jobState({ status: "succeeded", outcome: result.status }) };
   const latest = reviews[reviews.length - 1];
   // a reopened approval is withdrawn: the run waits for a new decision
   if (!latest || latest.decision === "reopened") return { kind: "not-reviewed" };
