@@ -44,7 +44,7 @@ export function LowerBoundGauge({ result }: { result: WithBound }) {
         </div>
         <div className="relative mt-1 h-4 font-mono text-2xs text-ink-muted">
           {GAUGE_TICKS.map((t) => (
-            <span key={t} className="absolute -translate-x-1/2 first:translate-x-0 last:-translate-x-full" style={{ left: `${gaugePosition(t) * 100}%` }}>
+            <span key={t} className="absolute -translate-x-1/2 whitespace-nowrap first:translate-x-0 last:-translate-x-full" style={{ left: `${gaugePosition(t) * 100}%` }}>
               {t === GAUGE_TICKS[0] ? `≤ ${formatPercent(t)}` : formatPercent(t, 0)}
             </span>
           ))}
