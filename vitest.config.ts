@@ -5,7 +5,7 @@ export default defineConfig({
   resolve: { tsconfigPaths: true },
   test: {
     include: ["tests/**/*.test.ts", "app/**/*.test.ts"],
-    exclude: ["tests/e2e/**", "node_modules/**"],
+    exclude: ["tests/e2e/**", "tests/faults/**", "node_modules/**"],
     environment: "node",
     testTimeout: 30_000,
     hookTimeout: 60_000,

@@ -15,6 +15,8 @@ export interface CaughtMail {
   subject: string;
   text: string;
   html?: string;
+  /** the sender's Message-ID: the outbox gives every delivery of one mail the same one */
+  messageId?: string;
 }
 
 export interface MailCatcher {
@@ -25,7 +27,8 @@ export interface MailCatcher {
   stop(): Promise<void>;
 }
 
-function readAll(dir: string): CaughtMail[] {
+/** Every message caught into `dir`, newest first. */
+export function readCaughtMail(dir: string): CaughtMail[] {
   if (!fs.existsSync(dir)) return [];
   return fs
     .readdirSync(dir)
@@ -56,8 +59,12 @@ export async function startMailCatcher(opts: { smtpPort: number; httpPort: numbe
             subject: parsed.subject ?? "",
             text: parsed.text ?? "",
             html: typeof parsed.html === "string" ? parsed.html : undefined,
+            messageId: parsed.messageId,
           };
-          fs.writeFileSync(path.join(opts.dir, `${mail.id}.json`), JSON.stringify(mail));
+          // written whole, then renamed: a reader in another process never sees half a message
+          const file = path.join(opts.dir, `${mail.id}.json`);
+          fs.writeFileSync(`${file}.part`, JSON.stringify(mail));
+          fs.renameSync(`${file}.part`, file);
           callback();
         })
         .catch((e: Error) => callback(e));
@@ -74,7 +81,7 @@ export async function startMailCatcher(opts: { smtpPort: number; httpPort: numbe
       res.writeHead(status, { "content-type": "application/json" });
       res.end(JSON.stringify(body));
     };
-    if (req.method === "GET" && url.pathname === "/messages") return send(200, { messages: readAll(opts.dir) });
+    if (req.method === "GET" && url.pathname === "/messages") return send(200, { messages: readCaughtMail(opts.dir) });
     const m = url.pathname.match(/^\/messages\/([\w-]+)$/);
     if (req.method === "GET" && m) {
       const file = path.join(opts.dir, `${m[1]}.json`);
@@ -95,7 +102,7 @@ export async function startMailCatcher(opts: { smtpPort: number; httpPort: numbe
   return {
     smtpPort: opts.smtpPort,
     httpUrl: `http://${host}:${opts.httpPort}`,
-    messages: () => readAll(opts.dir),
+    messages: () => readCaughtMail(opts.dir),
     clear: () => {
       for (const f of fs.readdirSync(opts.dir)) if (f.endsWith(".json")) fs.rmSync(path.join(opts.dir, f));
     },

@@ -62,6 +62,8 @@ interface Active {
   lease: Lease;
   stop(reason: StopReason): void;
   done: Promise<void>;
+  /** false once the solve is over and the job only stores and records its result */
+  onThread: boolean;
 }
 
 export function newWorkerId(): string {
@@ -91,6 +93,16 @@ export class QueueRunner {
     return [...this.active.keys()];
   }
 
+  /**
+   * Room for another job: a thread free, and not too many finished jobs still storing their
+   * results. A job whose result waits for the object store to come back holds no thread, so
+   * the queue goes on being served meanwhile (and its jobs say they wait for storage).
+   */
+  private get hasRoom(): boolean {
+    const onThreads = [...this.active.values()].filter((a) => a.onThread).length;
+    return onThreads < this.concurrency && this.active.size < this.concurrency * 3;
+  }
+
   start(): void {
     this.loopDone ??= this.loop();
   }
@@ -116,7 +128,7 @@ export class QueueRunner {
     while (!this.stopping) {
       try {
         await this.settle();
-        while (!this.stopping && this.active.size < this.concurrency) {
+        while (!this.stopping && this.hasRoom) {
           const lease = await claimNextJob(this.o.db, this.workerId, this.o.leaseMs);
           if (!lease) break;
           this.launch(lease);
@@ -127,7 +139,7 @@ export class QueueRunner {
       }
       if (this.stopping) break;
       await new Promise<void>((resolve) => {
-        const t = setTimeout(resolve, this.active.size >= this.concurrency ? 5_000 : (this.o.idlePollMs ?? 500));
+        const t = setTimeout(resolve, this.hasRoom ? (this.o.idlePollMs ?? 500) : 5_000);
         this.wake = () => {
           clearTimeout(t);
           resolve();
@@ -164,8 +176,13 @@ export class QueueRunner {
         } else controller.abort();
       },
       done: Promise.resolve(),
+      onThread: true,
     };
-    active.done = this.run(lease, controller.signal, () => reason, active.stop, stopFlag)
+    const offThread = () => {
+      active.onThread = false;
+      this.wake?.();
+    };
+    active.done = this.run(lease, controller.signal, () => reason, active.stop, offThread, stopFlag)
       .catch((e) => this.log(`job ${lease.job.id}: unexpected error: ${(e as Error).stack ?? e}`))
       .finally(() => {
         this.active.delete(lease.job.id);
@@ -174,7 +191,14 @@ export class QueueRunner {
     this.active.set(lease.job.id, active);
   }
 
-  private async run(lease: Lease, signal: AbortSignal, reason: () => StopReason | null, stop: (r: StopReason) => void, stopFlag?: SharedArrayBuffer): Promise<void> {
+  private async run(
+    lease: Lease,
+    signal: AbortSignal,
+    reason: () => StopReason | null,
+    stop: (r: StopReason) => void,
+    offThread: () => void,
+    stopFlag?: SharedArrayBuffer,
+  ): Promise<void> {
     const { db } = this.o;
     const job = lease.job;
     const recorder = new ProgressRecorder(db, lease);
@@ -222,6 +246,7 @@ export class QueueRunner {
         this.log(`job ${job.id}: result of an earlier attempt found in storage, recording it`);
       } else {
         const out = await this.solve(lease, recorder, signal, stopFlag);
+        offThread();
         // a computed result is worth waiting for: storage gets minutes, not seconds, to come
         // back while the lease is renewed (the job is handed back only after that)
         await retrying(() => putObject(resultKey, out.resultJson, "application/json"), 30, () => signal.aborted);

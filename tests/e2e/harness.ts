@@ -9,7 +9,7 @@ import path from "node:path";
 import type { MailCatcher } from "../../local-services/mail-catcher";
 import { runStep, spawnChild, type Child } from "../../scripts/process-group";
 import type { DemoAccount, SeedReport } from "../../scripts/seed";
-import { startTestServices } from "../support/services";
+import { startTestServices, type TestServices } from "../support/services";
 
 const root = path.resolve(import.meta.dirname, "../..");
 const serverBuild = path.join(root, "build/server/index.js");
@@ -24,6 +24,8 @@ export interface StartAppOptions {
   seed?: boolean;
   /** Echo the children's output with a prefix (default: only when E2E_VERBOSE is set). */
   echo?: boolean;
+  /** Services started by the caller (the fault tests run them as processes they control); stopped with the app. */
+  services?: TestServices;
 }
 
 export interface RunningApp {
@@ -40,6 +42,10 @@ export interface RunningApp {
   worker: boolean;
   /** Recent output of the server ("web") and worker, for diagnosing a failure. */
   logs(): string;
+  /** The web server and worker processes as started (the fault tests kill workers). */
+  processes: { web: Child; worker: Child | null };
+  /** Start one more queue worker process with the app's env (and these overrides); stopped with the app. */
+  startWorker(name: string, env?: Record<string, string>): Child;
   stop(): Promise<void>;
 }
 
@@ -79,7 +85,7 @@ async function waitForHealth(baseUrl: string, children: Child[], timeoutMs: numb
 export async function startApp(opts: StartAppOptions = {}): Promise<RunningApp> {
   await waitForBuild();
   const echo = opts.echo ?? Boolean(process.env.E2E_VERBOSE);
-  const services = await startTestServices({ applyEnv: false });
+  const services = opts.services ?? (await startTestServices({ applyEnv: false }));
   const children: Child[] = [];
   const stopAll = async () => {
     await Promise.all(children.map((c) => c.stop()));
@@ -128,7 +134,12 @@ export async function startApp(opts: StartAppOptions = {}): Promise<RunningApp> 
     });
     children.push(web);
     const withWorker = opts.worker !== false && fs.existsSync(workerFile);
-    if (withWorker) children.push(spawnChild("worker", node, ts(workerFile), { env: childEnv, cwd: root, echo, repeatTermAfterMs: 3000 }));
+    const startWorker = (name: string, extra: Record<string, string> = {}) => {
+      const child = spawnChild(name, node, ts(workerFile), { env: { ...childEnv, ...extra }, cwd: root, echo, repeatTermAfterMs: 3000 });
+      children.push(child);
+      return child;
+    };
+    const worker = withWorker ? startWorker("worker") : null;
 
     await waitForHealth(baseUrl, children, 60_000);
 
@@ -141,6 +152,8 @@ export async function startApp(opts: StartAppOptions = {}): Promise<RunningApp> 
       seed,
       worker: withWorker,
       logs: () => children.map((c) => `--- ${c.name} ---\n${c.recentOutput()}`).join("\n"),
+      processes: { web, worker },
+      startWorker,
       stop: stopAll,
     };
   } catch (e) {
