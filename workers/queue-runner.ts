@@ -178,9 +178,10 @@ export class QueueRunner {
       done: Promise.resolve(),
       onThread: true,
     };
+    // the loop sees the free thread when it next looks (within 5 s): waking it at once would
+    // put a claim in the way of the result being recorded
     const offThread = () => {
       active.onThread = false;
-      this.wake?.();
     };
     active.done = this.run(lease, controller.signal, () => reason, active.stop, offThread, stopFlag)
       .catch((e) => this.log(`job ${lease.job.id}: unexpected error: ${(e as Error).stack ?? e}`))

@@ -1,7 +1,8 @@
 // The web process's worker threads, for the requests that need seconds of CPU: drawing a
 // calculation record of thousands of members, checking a large uploaded model. On the request
 // thread either would stall every other request. One piscina thread (WEB_THREADS) takes them
-// in turn; the web thread only gathers rows and texts and sends the answer. A task that has
+// in turn; the web thread only gathers rows (a report thread reads the stored texts from the
+// bucket itself) and sends the answer. A task that has
 // not finished WEB_TASK_TIMEOUT_MS after it was asked for (waiting included) is stopped (its
 // thread ended, a fresh one started); past WEB_TASK_QUEUE waiting tasks, new ones are refused.
 // Either way the request gets a 503 in words (HeavyTaskStoppedError), never a hung socket.
@@ -11,7 +12,7 @@ import { Piscina } from "piscina";
 import { config } from "~/lib/config.server";
 import { HeavyTaskStoppedError, type HeavyTask } from "~/lib/heavy-task";
 import type { GateResult } from "~/lib/models/model-gate";
-import type { ReportInputs } from "~/lib/report/report-inputs";
+import type { ReportInputs, ReportSources } from "~/lib/report/report-inputs";
 import { ensureToolsBundle, toolFile } from "../../scripts/tools-bundle.mjs";
 import type { ReportTaskOutput } from "../../workers/web-task";
 
@@ -86,6 +87,11 @@ async function runTask<T>(task: HeavyTask, name: string, input: unknown, limits:
 /** Draw a report on a pool thread. */
 export function renderReportOnThread(input: ReportInputs, limits: TaskLimits = {}): Promise<ReportTaskOutput> {
   return runTask("report", "renderReport", input, limits);
+}
+
+/** Read the stored texts and draw the report, both on a pool thread. */
+export function renderStoredReportOnThread(input: ReportSources, limits: TaskLimits = {}): Promise<ReportTaskOutput> {
+  return runTask("report", "renderStoredReport", input, limits);
 }
 
 /** Run the upload gate of a model file on a pool thread. */

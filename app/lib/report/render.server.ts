@@ -5,10 +5,12 @@ import { asc, eq, sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { reviews, user } from "~/db/schema";
 import { loadJobWithModel, type JobWithModel } from "~/lib/job-with-model.server";
-import { getObject, getText, putObject } from "~/lib/storage.server";
-import { renderReportOnThread } from "~/lib/web-pool.server";
+import { getObject, putObject } from "~/lib/storage.server";
+import { DependencyUnavailableError } from "~/lib/dependencies";
+import { renderStoredReportOnThread } from "~/lib/web-pool.server";
 import type { ReportData } from "./report-data";
-import { ReportError, reportDataFromInputs, type ReportInputs } from "./report-inputs";
+import { ReportError, reportDataFromInputs, type ReportInputs, type ReportSources } from "./report-inputs";
+import { readReportTexts } from "./report-texts.server";
 
 export { ReportError };
 
@@ -34,12 +36,14 @@ export async function loadReportData(jobId: string, row?: JobWithModel): Promise
 
 /** The rows and the stored texts a report is drawn from, unparsed (they may be large). */
 export async function gatherReportInputs(jobId: string, row?: JobWithModel): Promise<ReportInputs> {
+  const { meta, resultKey, modelKey } = await gatherReportSources(jobId, row);
+  return { meta, ...(await readReportTexts(jobId, resultKey, modelKey)) };
+}
+
+/** The rows a report is drawn from, and the keys of its stored texts. */
+export async function gatherReportSources(jobId: string, row?: JobWithModel): Promise<ReportSources> {
   const { job, model, project, submitter } = row ?? (await succeededJob(jobId));
   if (!job.resultKey) throw new ReportError(409, `Job ${jobId} succeeded but has no stored result`);
-  const resultText = await getText(job.resultKey);
-  if (resultText === null) throw new ReportError(500, `The stored result of job ${jobId} is missing from the bucket (${job.resultKey})`);
-  // without the model file the report still says what it can
-  const modelText = await getText(model.fileKey).catch(() => null);
 
   const reviewRows = await db()
     .select({ review: reviews, name: user.name, email: user.email })
@@ -48,7 +52,7 @@ export async function gatherReportInputs(jobId: string, row?: JobWithModel): Pro
     .where(eq(reviews.jobId, jobId))
     .orderBy(...REVIEW_ORDER);
 
-  const meta: ReportInputs["meta"] = {
+  const meta: ReportSources["meta"] = {
     job: {
       id: job.id,
       status: job.status,
@@ -70,7 +74,7 @@ export async function gatherReportInputs(jobId: string, row?: JobWithModel): Pro
     })),
     generatedAt: new Date(),
   };
-  return { meta, resultText, modelText };
+  return { meta, resultKey: job.resultKey, modelKey: model.fileKey };
 }
 
 export function reportCacheKey(jobId: string, latestReviewId: string | null): string {
@@ -110,13 +114,13 @@ export async function renderReportFile(jobId: string): Promise<RenderedReport> {
   const hit = await getObject(key);
   if (hit && hit.byteLength > 0) return { bytes: hit, fileName, cacheKey: key, cached: true };
 
-  const inputs = await gatherReportInputs(jobId, f);
-  // drawn on a report thread: the web thread goes on answering other requests meanwhile
-  const drawn = await renderReportOnThread(inputs);
-  if (!drawn.ok) throw new ReportError(drawn.status, drawn.message);
+  const sources = await gatherReportSources(jobId, f);
+  // read and drawn on a report thread: the web thread goes on answering other requests meanwhile
+  const drawn = await renderStoredReportOnThread(sources);
+  if (!drawn.ok) throw drawn.status === 503 ? new DependencyUnavailableError("storage", drawn.message) : new ReportError(drawn.status, drawn.message);
   const bytes = drawn.bytes;
   // a decision made while this report was being gathered is in it: file it under that state
-  const storedKey = reportCacheKey(jobId, inputs.meta.reviews[inputs.meta.reviews.length - 1]?.id ?? null);
+  const storedKey = reportCacheKey(jobId, sources.meta.reviews[sources.meta.reviews.length - 1]?.id ?? null);
   try {
     await putObject(storedKey, bytes, "application/pdf");
   } catch (e) {

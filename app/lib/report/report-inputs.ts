@@ -21,6 +21,17 @@ export interface ReportInputs {
   modelText: string | null;
 }
 
+/**
+ * What the web process hands a report thread: the rows, and where the stored texts are. The
+ * thread reads them from the bucket itself, so megabytes of result never pass the request
+ * thread.
+ */
+export interface ReportSources {
+  meta: ReportInputs["meta"];
+  resultKey: string;
+  modelKey: string;
+}
+
 /** ReportData from the texts; a ReportError (500) when the stored result is not readable. */
 export function reportDataFromInputs(input: ReportInputs): ReportData {
   const jobId = input.meta.job.id;

@@ -60,7 +60,16 @@ export async function uploadModel(engineer: Session, projectId: string, model: u
   const form = new FormData();
   form.set("projectId", projectId);
   form.set("file", new Blob([JSON.stringify(model)], { type: "application/json" }), fileName);
-  const m = (await expectStatus(await engineer.post("/api/models", form), 201, "upload")) as { id: string };
+  let res: Response;
+  try {
+    res = await engineer.post("/api/models", form);
+  } catch (e) {
+    // a connection cut while the body was still being sent (seen once on a crowded machine):
+    // said loudly, and sent once more, as a person would press the button again
+    console.warn(`!!! upload of ${fileName}: ${(e as Error).message} (${String((e as Error).cause ?? "")}); trying once more`);
+    res = await engineer.post("/api/models", form);
+  }
+  const m = (await expectStatus(res, 201, "upload")) as { id: string };
   return m.id;
 }
 
