@@ -79,6 +79,9 @@ export const jobs = sqliteTable(
     // so, and no worker takes it again before available_at
     waitingFor: text("waiting_for"),
     availableAt: integer("available_at", { mode: "timestamp_ms" }),
+    // the run a checker returned with "changes requested" that this run answers (the returned
+    // run lists its answers through this column too); checked to be a run of the same model
+    answersJobId: text("answers_job_id"),
   },
   (t) => [
     index("jobs_status_created_idx").on(t.status, t.createdAt),
@@ -87,6 +90,7 @@ export const jobs = sqliteTable(
     index("jobs_created_id_idx").on(t.createdAt, t.id),
     index("jobs_status_created_id_idx").on(t.status, t.createdAt, t.id),
     index("jobs_model_idx").on(t.modelId),
+    index("jobs_answers_idx").on(t.answersJobId),
   ],
 );
 
@@ -160,3 +164,4 @@ export * from "./tables/model-versions";
 export * from "./tables/project-members";
 export * from "./tables/mail-outbox";
 export * from "./tables/sign-in-throttle";
+export * from "./tables/user-preferences";

@@ -9,6 +9,8 @@ import { TextField } from "~/lib/auth/text-field";
 import type { Route } from "./+types/account";
 import { RouteError } from "~/components/ui/RouteError";
 import { withDependencies } from "~/lib/http.server";
+import { getDisplayUnits, setDisplayUnits } from "~/lib/display-units.server";
+import { DISPLAY_UNIT_CHOICES } from "~/lib/format";
 
 export function meta() {
   return [{ title: "Your account — Strutwise" }];
@@ -16,9 +18,10 @@ export function meta() {
 
 export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "manage:apikey:own");
-  const keys = await listApiKeys(user.id);
+  const [keys, displayUnits] = await Promise.all([listApiKeys(user.id), getDisplayUnits(user.id)]);
   return {
     user: { name: user.name, email: user.email, role: user.role },
+    displayUnits,
     keys: keys.map((k) => ({
       id: k.id,
       name: k.name,
@@ -47,6 +50,13 @@ export const action = withDependencies(async function action({ request }: Route.
     );
   }
   if (values.intent === "password") return changePassword(request, values);
+  if (values.intent === "display-units") {
+    const saved = await setDisplayUnits(user.id, values.displayUnits ?? "");
+    return data(
+      { newKey: null, message: saved.ok ? "Saved: result pages show figures in these units from now on (downloads keep the model's units)." : "", errors: (saved.ok ? {} : { displayUnits: saved.error }) as Record<string, string> },
+      { status: saved.ok ? 200 : 400 },
+    );
+  }
   return data({ newKey: null, message: "Unknown request", errors: {} as Record<string, string> }, { status: 400 });
 });
 
@@ -77,6 +87,26 @@ export default function Account({ loaderData }: Route.ComponentProps) {
       <p className="mt-1 text-ink-soft">
         {user.name} · <span className="font-mono text-sm">{user.email}</span> · {ROLE_LABELS[user.role]}
       </p>
+
+      <h2 className="mt-8 text-xl font-semibold">Units on result pages</h2>
+      <Form method="post" className="card mt-4 flex flex-wrap items-end gap-3" aria-label="Display units">
+        <input type="hidden" name="intent" value="display-units" />
+        <label className="block min-w-64 flex-1">
+          <span className="field-label">Show forces, lengths and masses in</span>
+          <select name="displayUnits" className="field-input" defaultValue={loaderData.displayUnits} data-testid="display-units" aria-invalid={errors.displayUnits ? true : undefined}>
+            {Object.entries(DISPLAY_UNIT_CHOICES).map(([k, c]) => (
+              <option key={k} value={k}>
+                {c.label}
+              </option>
+            ))}
+          </select>
+          {errors.displayUnits && <span className="mt-1 block text-sm text-bad">{errors.displayUnits}</span>}
+          <span className="mt-1 block text-xs text-ink-muted">Converted on display only: stored results, the result JSON, the CSV tables and the PDF report keep each model's own units.</span>
+        </label>
+        <button type="submit" className="btn btn-primary" disabled={busy}>
+          Save units
+        </button>
+      </Form>
 
       <h2 className="mt-8 text-xl font-semibold">API keys</h2>
       <p className="mt-1 text-sm text-ink-soft">

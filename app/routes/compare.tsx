@@ -8,6 +8,7 @@ import { requirePermission } from "~/lib/access.server";
 import { quantityFormatter } from "~/lib/format";
 import { withDependencies } from "~/lib/http.server";
 import { compareRuns, parseJobIds } from "~/lib/jobs/compare.server";
+import { getDisplayUnits } from "~/lib/display-units.server";
 import type { Route } from "./+types/compare";
 
 export function meta({ data }: Route.MetaArgs) {
@@ -19,9 +20,9 @@ export function meta({ data }: Route.MetaArgs) {
 export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "read:job");
   const ids = parseJobIds(new URL(request.url).searchParams.get("jobs"));
-  const outcome = await compareRuns(user, ids);
-  if (!outcome.ok) return data({ comparison: null, problem: outcome.problem, runs: outcome.runs ?? [] }, { status: 400 });
-  return { comparison: outcome.comparison, problem: null, runs: [] };
+  const [outcome, displayUnits] = await Promise.all([compareRuns(user, ids), getDisplayUnits(user.id)]);
+  if (!outcome.ok) return data({ comparison: null, problem: outcome.problem, runs: outcome.runs ?? [], displayUnits }, { status: 400 });
+  return { comparison: outcome.comparison, problem: null, runs: [], displayUnits };
 });
 
 export function ErrorBoundary() {
@@ -51,7 +52,7 @@ export default function ComparePage({ loaderData }: Route.ComponentProps) {
         </EmptyState>
       </div>
     );
-  const q = comparison.units ? quantityFormatter(comparison.units) : null;
+  const q = comparison.units ? quantityFormatter(comparison.units, loaderData.displayUnits) : null;
   return (
     <div className="space-y-6">
       <header>

@@ -27,18 +27,13 @@ export const loader = withDependencies(async function loader({ request }: Route.
   const reviewer = can(user.role, "review:job");
   const engineer = can(user.role, "create:job");
   const [succeeded, recent, projects] = await Promise.all([
-    reviewer ? listJobs({ status: "succeeded", limit: 100, visibleTo: user }) : Promise.resolve({ jobs: [], nextCursor: null }),
+    reviewer ? listJobs({ review: "waiting", limit: 100, visibleTo: user }) : Promise.resolve({ jobs: [], nextCursor: null }),
     listJobs({ submittedBy: engineer && user.role !== "admin" ? user.id : undefined, limit: 8, visibleTo: user }),
     listProjects({ visibleTo: user }),
   ]);
-  // an infeasible run has no design to sign off (review-request.ts), so it waits for nobody
-  let waiting = succeeded.jobs.filter((j) => j.submittedBy !== user.id && !OUTCOMES_WITHOUT_REVIEW.includes(j.outcome ?? ""));
-  if (waiting.length) {
-    const reviewed = new Set(
-      (await db().select({ jobId: reviews.jobId }).from(reviews).where(inArray(reviews.jobId, waiting.map((j) => j.id)))).map((r) => r.jobId),
-    );
-    waiting = waiting.filter((j) => !reviewed.has(j.id));
-  }
+  // the review filter knows which runs wait (no decision yet, or an approval reopened; never an
+  // infeasible or failed run: review-request.ts); nobody reviews their own run (four-eyes rule)
+  const waiting = succeeded.jobs.filter((j) => j.submittedBy !== user.id);
   return {
     user: { name: user.name, role: user.role },
     reviewer,
@@ -67,8 +62,8 @@ export default function Home({ loaderData }: Route.ComponentProps) {
           <div className="mb-3 flex items-baseline justify-between">
             <h2 className="font-semibold">Waiting for your review</h2>
             {waitingMore && (
-              <Link to="/jobs?status=succeeded" className="text-sm text-info hover:underline">
-                all finished jobs
+              <Link to="/jobs?review=waiting" className="text-sm text-info hover:underline">
+                every run waiting for review
               </Link>
             )}
           </div>

@@ -14,7 +14,7 @@ import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { latestDecision, reportLinkLabel } from "~/components/job/review-words";
 import { useJobFiles } from "~/components/job/useJobFiles";
 import { Cautions } from "~/components/ui/Cautions";
-import { formatDateTime, formatDuration, formatNumber, formatPercent, formatResidual } from "~/lib/format";
+import { formatDateTime, formatDuration, formatNumber, formatPercent, formatResidual, quantityFormatter } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { JobStateBadge, ReviewBadge } from "~/components/ui/StatusBadge";
 import { countOf, viewerTitle } from "~/components/job/result-words";
@@ -24,7 +24,7 @@ import { ReactionsPanel } from "~/components/job/ReactionsPanel";
 import { ResultCasePicker, ResultCaseProvider } from "~/components/job/ResultCase";
 import { ResultTrussViewer } from "~/components/job/ResultTrussViewer";
 import { db } from "~/db/client.server";
-import { models, projects, user as users } from "~/db/schema";
+import { jobs, models, projects, user as users } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
 import { assertPermission, requireJob } from "~/lib/access.server";
 import { can } from "~/lib/auth/permissions";
@@ -33,6 +33,7 @@ import type { TrussResult } from "~/engine/design/result-types";
 import { notFound, withDependencies } from "~/lib/http.server";
 import { cancelJob, getJob, getJobHistory, getJobResult } from "~/lib/jobs/queue.server";
 import { comparableRuns } from "~/lib/jobs/compare.server";
+import { getDisplayUnits } from "~/lib/display-units.server";
 import { getModelFile } from "~/lib/models.server";
 import type { Route } from "./+types/jobs.$jobId";
 import { plainText } from "~/lib/text-hygiene";
@@ -104,6 +105,9 @@ export const loader = withDependencies(async function loader({ request, params }
     listReviews(job.id),
     job.hasResult ? comparableRuns(job.modelId, job.id) : Promise.resolve([]),
   ]);
+  // the review thread across runs: the returned run this one answers, and the runs answering it
+  const displayUnits = await getDisplayUnits(user.id);
+  const answeredBy = await db().select({ id: jobs.id, createdAt: jobs.createdAt }).from(jobs).where(eq(jobs.answersJobId, job.id)).orderBy(jobs.createdAt);
   const text = file?.text ?? "";
   const own = job.submittedBy === user.id;
   return {
@@ -121,7 +125,10 @@ export const loader = withDependencies(async function loader({ request, params }
       kind: job.kind,
       modelVersion: job.modelVersion,
       waitingFor: job.waitingFor,
+      answersJobId: job.answersJobId,
     },
+    answeredBy: answeredBy.map((a) => a.id),
+    displayUnits,
     facts: { ...facts, submitterName: facts.submitterName ?? "unknown" },
     tolerance: toleranceOf(text, job.options),
     modelUnits: unitsOf(text),
@@ -217,9 +224,11 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
     [topology],
   );
   const elapsed = job.startedAt && job.finishedAt ? new Date(job.finishedAt).getTime() - new Date(job.startedAt).getTime() : null;
-  const u = head?.units;
+  const q = head?.units ? quantityFormatter(head.units, loaderData.displayUnits) : null;
+  const [selectedMember, setSelectedMember] = useState<string | null>(null);
   const saving = head && head.objective.initial > 0 ? 1 - head.objective.final / head.objective.initial : null;
-  const objUnit = head?.units ? (head.objective.kind === "mass" ? head.units.mass : `${head.units.force}·${head.units.length}`) : "";
+  const objUnit = q ? (head?.objective.kind === "mass" ? q.unit("mass") : `${q.unit("force")}·${q.unit("length")}`) : "";
+  const objValue = (v: number) => (q ? q.number(v, head?.objective.kind === "mass" ? "mass" : "compliance") : formatNumber(v));
   // a broken limit is never hidden behind a member utilization just under 100 %
   const worstRatio = Math.max(head?.maxUtilization ?? 0, maxOf((head?.verification?.failures ?? []).map((f) => f.ratio)));
 
@@ -250,6 +259,33 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           <JobStateBadge status={shownStatus} outcome={shownStatus === job.status ? job.outcome : null} hasResult={job.hasResult} waitingFor={job.waitingFor} />
           {reviewable && <ReviewBadge decision={current?.decision} />}
         </h1>
+        {(job.answersJobId || loaderData.answeredBy.length > 0) && (
+          <p className="mt-2 text-sm" data-testid="review-thread">
+            {job.answersJobId && (
+              <>
+                Answers job{" "}
+                <Link to={`/jobs/${job.answersJobId}`} className="font-mono text-info hover:underline" data-testid="answers-link">
+                  {job.answersJobId.slice(0, 8)}
+                </Link>
+                , returned by a checker with changes requested.{" "}
+              </>
+            )}
+            {loaderData.answeredBy.length > 0 && (
+              <>
+                Answered by{" "}
+                {loaderData.answeredBy.map((id, i) => (
+                  <span key={id}>
+                    {i > 0 && ", "}
+                    <Link to={`/jobs/${id}`} className="font-mono text-info hover:underline" data-testid="answered-by-link">
+                      job {id.slice(0, 8)}
+                    </Link>
+                  </span>
+                ))}
+                .
+              </>
+            )}
+          </p>
+        )}
         <p className="mt-2 text-sm text-ink-muted">
           submitted by {facts.submitterName} · {formatDateTime(job.createdAt)}
           {job.finishedAt && <> · finished {formatDateTime(job.finishedAt)}</>}
@@ -288,15 +324,15 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
           <Cautions />
           <section className="card" aria-label="Summary">
             <dl className="grid grid-cols-2 gap-x-6 gap-y-4 sm:grid-cols-3 lg:grid-cols-6">
-              <Stat label={`${head.objective.kind} initial${objUnit ? ` (${objUnit})` : ""}`} value={formatNumber(head.objective.initial)} />
-              <Stat label={`${head.objective.kind} final${objUnit ? ` (${objUnit})` : ""}`} value={<span data-testid="objective-final">{formatNumber(head.objective.final)}</span>} />
+              <Stat label={`${head.objective.kind} initial${objUnit ? ` (${objUnit})` : ""}`} value={objValue(head.objective.initial)} />
+              <Stat label={`${head.objective.kind} final${objUnit ? ` (${objUnit})` : ""}`} value={<span data-testid="objective-final">{objValue(head.objective.final)}</span>} />
               <Stat label="change" value={saving !== null ? formatPercent(-saving) : "–"} />
               <Stat label="iterations" value={head.iterations} />
               <Stat label="analyses" value={head.analyses} hint="stiffness solves or KKT evaluations used" />
               <Stat label="KKT residual" value={formatResidual(head.kktResidual)} />
               <Stat label="max violation" value={formatResidual(head.maxViolation)} />
-              <Stat label={`volume (${u?.length}³)`} value={formatNumber(head.volume)} />
-              {head.mass !== undefined && <Stat label={`mass (${u?.mass})`} value={formatNumber(head.mass)} />}
+              <Stat label={`volume (${q?.unit("volume")})`} value={q?.number(head.volume, "volume")} />
+              {head.mass !== undefined && <Stat label={`mass (${q?.unit("mass")})`} value={q?.number(head.mass, "mass")} />}
               <Stat label="max utilization" value={formatPercent(head.maxUtilization)} />
               {head.formulation && <Stat label="formulation" value={head.formulation} />}
               {head.verification && (
@@ -315,7 +351,14 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       ) : topology && (result || !head) ? (
         <>
           {result && <ResultCasePicker />}
-          <ResultTrussViewer key={result ? "result" : "initial"} model={topology} result={result} title={viewerTitle(result ? (job.status === "cancelled" ? "cancelled" : (head?.status ?? job.outcome)) : null)} />
+          <ResultTrussViewer
+            key={result ? "result" : "initial"}
+            model={topology}
+            result={result}
+            selectedMemberId={selectedMember}
+            onSelectMemberId={setSelectedMember}
+            displayUnits={loaderData.displayUnits}
+            title={viewerTitle(result ? (job.status === "cancelled" ? "cancelled" : (head?.status ?? job.outcome)) : null)} />
         </>
       ) : (
         <div className="card flex h-[26rem] items-center justify-center sm:h-[32rem]" data-testid="truss-viewer-loading">
@@ -343,14 +386,14 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             <thead>
               <tr>
                 <th>variable</th>
-                <th className="num">offset from the start ({u?.length})</th>
+                <th className="num">offset from the start ({q?.unit("length")})</th>
               </tr>
             </thead>
             <tbody>
               {head.variables.map((v) => (
                 <tr key={v.id}>
                   <td>{v.id}</td>
-                  <td className="num">{formatNumber(v.value, { sig: 6 })}</td>
+                  <td className="num">{q ? q.number(v.value, "length", { sig: 6 }) : formatNumber(v.value, { sig: 6 })}</td>
                 </tr>
               ))}
             </tbody>
@@ -367,11 +410,11 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
         <>
           <section className="card min-w-0" aria-label="Members">
             <h2 className="mb-3 font-semibold">Members</h2>
-            <MemberTable result={result} topology={topo} fileName={facts.modelName} />
+            <MemberTable result={result} topology={topo} fileName={facts.modelName} units={loaderData.displayUnits} selectedId={selectedMember} onSelect={setSelectedMember} />
           </section>
           <section className="card min-w-0" aria-label="Nodes">
             <h2 className="mb-3 font-semibold">Nodes</h2>
-            <NodeTable result={result} topology={topo} fileName={facts.modelName} />
+            <NodeTable result={result} topology={topo} fileName={facts.modelName} units={loaderData.displayUnits} />
           </section>
           <ReactionsPanel result={result} fileName={facts.modelName} />
         </>
@@ -395,9 +438,12 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             )
           )}
           {current?.decision === "changes-requested" && may.rerun && (
-            <p className="mt-3 text-sm">
-              <Link to={`/models/${facts.modelId}?answers=${job.id}#queue`} className="btn btn-primary" data-testid="run-again-with-changes">
+            <p className="mt-3 flex flex-wrap items-center gap-2 text-sm">
+              <Link to={`/models/${facts.modelId}/edit?${job.modelVersion ? `version=${job.modelVersion}&` : ""}answers=${job.id}`} className="btn btn-primary" data-testid="run-again-with-changes">
                 Run again with changes
+              </Link>
+              <Link to={`/models/${facts.modelId}?answers=${job.id}#queue`} className="text-info hover:underline" data-testid="rerun-other-options">
+                or queue it again with other options
               </Link>
             </p>
           )}

@@ -14,6 +14,12 @@ export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `Edit ${data.name} — Strutwise` : "Edit model — Strutwise" }];
 }
 
+/** ?answers=<job>: the returned run this edit answers; carried to the version page's run buttons. */
+function answersParam(request: Request): string | null {
+  const v = new URL(request.url).searchParams.get("answers");
+  return v && /^[\w-]{1,64}$/.test(v) ? v : null;
+}
+
 function versionParam(request: Request): number | null {
   const raw = new URL(request.url).searchParams.get("version");
   if (!raw) return null;
@@ -31,7 +37,7 @@ export const loader = withDependencies(async function loader({ request, params }
   const json = JSON.parse(file.text) as Record<string, unknown>;
   // the model goes to the page as its text: one string crosses faster than thousands of
   // objects encoded one by one (a 3,000-member model: most of the page's data)
-  return { id: model.id, name: model.name, version: file.version, modelText: file.text, units: json.units as { length: string; force: string; mass: string } };
+  return { id: model.id, name: model.name, version: file.version, modelText: file.text, units: json.units as { length: string; force: string; mass: string }, answers: answersParam(request) };
 });
 
 export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
@@ -43,7 +49,8 @@ export const action = withDependencies(async function action({ request, params }
   const created = await createModelVersion({ modelId: params.modelId, fileName: "edited.truss.json", bytes: new TextEncoder().encode(`${JSON.stringify(JSON.parse(text), null, 2)}\n`), note: typeof note === "string" ? note : null, user });
   if (!created.ok) return data({ error: `${created.error}${created.details[0] ? ` — ${created.details[0].path}: ${created.details[0].message}` : ""}` }, { status: created.status });
   await audit({ request, actor: user, action: "model.version", entityType: "model", entityId: created.modelId, detail: { version: created.version.version, sha256: created.version.sha256, note: created.version.note } });
-  throw redirect(`/models/${created.modelId}/versions/${created.version.version}`);
+  const answers = answersParam(request);
+  throw redirect(`/models/${created.modelId}/versions/${created.version.version}${answers ? `?answers=${answers}` : ""}`);
 });
 
 export function ErrorBoundary() {
@@ -62,6 +69,15 @@ export default function EditModelPage({ loaderData, actionData }: Route.Componen
           · editing version {loaderData.version}
         </p>
         <h1 className="mt-1 text-2xl font-semibold">Edit the model</h1>
+        {loaderData.answers && (
+          <p className="mt-2 max-w-3xl rounded-md border border-warn/30 bg-warn-wash px-3 py-2 text-sm" data-testid="answers-note">
+            Making the changes a checker asked for on job{" "}
+            <Link to={`/jobs/${loaderData.answers}`} className="font-mono text-info hover:underline">
+              {loaderData.answers.slice(0, 8)}
+            </Link>
+            . Save, then run the new version: that run will link to the returned one, and back.
+          </p>
+        )}
         <p className="mt-1 max-w-3xl text-sm text-ink-soft">
           Units of this model: lengths in {loaderData.units.length}, forces in {loaderData.units.force}, masses in {loaderData.units.mass}. Saving keeps version {loaderData.version} as it is and adds the next version.
         </p>

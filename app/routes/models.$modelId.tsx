@@ -126,6 +126,7 @@ export const loader = withDependencies(async function loader({ request, params }
     versions,
     jobs: await toJobRows(jobs.jobs),
     may: { queue: can(user.role, "create:job") && model.hasDesign, canCreateJob: can(user.role, "create:job"), edit: can(user.role, "create:model") },
+    answers: new URL(request.url).searchParams.get("answers"),
   };
 });
 
@@ -135,7 +136,8 @@ export const action = withDependencies(async function action({ request, params }
   const parsed = parseQueueForm((n) => form.get(n));
   if (!parsed.ok) return data({ fieldErrors: parsed.fieldErrors }, { status: 400 });
   try {
-    const job = await enqueueJob({ modelId: params.modelId, options: parsed.options, user });
+    const answers = form.get("answers");
+    const job = await enqueueJob({ modelId: params.modelId, options: parsed.options, user, answers: typeof answers === "string" && answers ? answers : null });
     await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, options: job.options } });
     throw redirect(`/jobs/${job.id}`);
   } catch (e) {
@@ -285,9 +287,9 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
           <EmptyState title="No design block">This file can be analysed but not optimized: add a design block (objective, bounds, limits) and upload it again.</EmptyState>
         )}
         {may.queue && (
-          <div className="mt-6 border-t border-rule pt-5">
+          <div className="mt-6 border-t border-rule pt-5" id="queue">
             <h3 className="mb-3 font-semibold">Queue an optimization</h3>
-            <QueueForm defaults={defaults} serverErrors={actionData?.fieldErrors} />
+            <QueueForm defaults={defaults} serverErrors={actionData?.fieldErrors} answers={loaderData.answers} />
           </div>
         )}
         {!may.canCreateJob && file?.design && <p className="mt-4 text-sm text-ink-muted">Engineers and admins queue optimization runs; your role can read the results.</p>}

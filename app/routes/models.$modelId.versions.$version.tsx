@@ -36,6 +36,7 @@ export const loader = withDependencies(async function loader({ request, params }
     latest: versions.at(-1)!.version,
     changes,
     may: { run: can(user.role, "create:job"), edit: can(user.role, "create:model") },
+    answers: new URL(request.url).searchParams.get("answers"),
   };
 });
 
@@ -44,7 +45,8 @@ export const action = withDependencies(async function action({ request, params }
   const form = await request.formData();
   const kind = form.get("kind") === "analysis" ? "analysis" : "design";
   try {
-    const job = await enqueueJob({ modelId: params.modelId, version: Number(params.version), kind, user });
+    const answers = form.get("answers");
+    const job = await enqueueJob({ modelId: params.modelId, version: Number(params.version), kind, user, answers: typeof answers === "string" && answers ? answers : null });
     await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, version: job.modelVersion, kind } });
     throw redirect(`/jobs/${job.id}`);
   } catch (e) {
@@ -77,6 +79,15 @@ export default function VersionPage({ loaderData, actionData }: Route.ComponentP
           saved {formatDateTime(v.createdAt)} · {v.nodeCount} nodes · {v.memberCount} members · {v.hasDesign ? "with a design block" : "analysis only (no design block)"}
         </p>
         {v.note && <p className="mt-2 text-ink-soft">“{v.note}”</p>}
+        {loaderData.answers && (
+          <p className="mt-2 max-w-3xl rounded-md border border-warn/30 bg-warn-wash px-3 py-2 text-sm" data-testid="answers-note">
+            A run of this version will answer job{" "}
+            <Link to={`/jobs/${loaderData.answers}`} className="font-mono text-info hover:underline">
+              {loaderData.answers.slice(0, 8)}
+            </Link>
+            , which a checker returned with changes requested.
+          </p>
+        )}
       </header>
 
       <section className="card" aria-label="Changes">
@@ -103,6 +114,7 @@ export default function VersionPage({ loaderData, actionData }: Route.ComponentP
         )}
         {may.run && (
           <Form method="post" className="flex gap-2">
+            {loaderData.answers && <input type="hidden" name="answers" value={loaderData.answers} />}
             <button className="btn btn-secondary" name="kind" value="analysis">
               Analyse version {v.version}
             </button>

@@ -17,7 +17,8 @@ export interface QueueDefaults {
   lengthUnit: string;
 }
 
-export function QueueForm({ defaults, serverErrors }: { defaults: QueueDefaults; serverErrors?: Partial<Record<QueueField | "form", string>> }) {
+/** `answers`: the returned run ("changes requested") the new run answers; both pages link to each other. */
+export function QueueForm({ defaults, serverErrors, answers }: { defaults: QueueDefaults; serverErrors?: Partial<Record<QueueField | "form", string>>; answers?: string | null }) {
   const [errors, setErrors] = useState<Partial<Record<QueueField | "form", string>>>({});
   const nav = useNavigation();
   const busy = nav.state !== "idle" && nav.formMethod?.toLowerCase() === "post";
@@ -48,6 +49,16 @@ export function QueueForm({ defaults, serverErrors }: { defaults: QueueDefaults;
       }}
     >
       <input type="hidden" name="intent" value="queue" />
+      {answers && (
+        <p className="rounded-md border border-warn/30 bg-warn-wash px-3 py-2 text-sm" data-testid="answers-note">
+          <input type="hidden" name="answers" value={answers} />
+          This run answers job{" "}
+          <a href={`/jobs/${answers}`} className="font-mono text-info hover:underline">
+            {answers.slice(0, 8)}
+          </a>
+          , which a checker returned with changes requested; each page will link to the other.
+        </p>
+      )}
       <div className="grid gap-4 sm:grid-cols-2">
         <label className="block">
           <span className="field-label">Formulation</span>

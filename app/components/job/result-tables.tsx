@@ -3,8 +3,7 @@
 import { createColumnHelper, type ColumnDef, type SortingState } from "@tanstack/react-table";
 import { useMemo } from "react";
 import type { ResultMember, ResultNode, TrussResult } from "~/engine/design/result-types";
-import { formatNumber, formatPercent, noiseFloor } from "~/lib/format";
-import { unitLabel } from "~/engine/truss/units";
+import { formatNumber, formatPercent, noiseFloor, quantityFormatter, type DisplayUnitChoice } from "~/lib/format";
 import type { Units } from "~/engine/truss/schema";
 import { DataTable } from "~/components/tables/DataTable";
 import { downloadText, fileSlug, toCsv } from "~/components/tables/csv";
@@ -35,6 +34,8 @@ function ResultTable<T extends { id: string }>(props: {
   onCsv: () => void;
   initialSort?: SortingState;
   rowTestId?: string;
+  selectedId?: string | null;
+  onRowClick?: (row: T) => void;
 }) {
   const what = props.label.toLowerCase();
   return (
@@ -48,6 +49,8 @@ function ResultTable<T extends { id: string }>(props: {
       initialSort={props.initialSort}
       getRowId={(r) => r.id}
       rowTestId={props.rowTestId}
+      selectedRowId={props.selectedId}
+      onRowClick={props.onRowClick}
       toolbar={
         <>
           {!props.cases.shared && <CaseSelect state={props.cases} />}
@@ -60,10 +63,25 @@ function ResultTable<T extends { id: string }>(props: {
   );
 }
 
-export function MemberTable({ result, topology, fileName }: { result: TrussResult; topology: Topology; fileName: string }) {
+/** `units`: the reader's display units (account page); the CSV keeps the model's. */
+export function MemberTable({
+  result,
+  topology,
+  fileName,
+  units = "model",
+  selectedId,
+  onSelect,
+}: {
+  result: TrussResult;
+  topology: Topology;
+  fileName: string;
+  units?: DisplayUnitChoice;
+  selectedId?: string | null;
+  onSelect?: (id: string | null) => void;
+}) {
   const cases = useLoadCases(result);
   const { ids: lcs, current: lc } = cases;
-  const u = result.units;
+  const q = useMemo(() => quantityFormatter(result.units as Units, units), [result.units, units]);
   const maxAbs = useMemo(() => result.members.reduce((m, r) => Math.max(m, Math.abs(r.force[lc] ?? 0)), 0), [result, lc]);
   const col = createColumnHelper<ResultMember>();
   const withSection = result.members.some((m) => m.section !== undefined);
@@ -82,11 +100,11 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
           </span>
         ),
       }),
-      col.accessor("area", { header: `area (${u.length}²)`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${u.force})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
-      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${unitLabel("stress", u as Units)})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor("area", { header: `area (${q.unit("area")})`, cell: (c) => q.number(c.getValue(), "area"), meta: { numeric: true } }),
+      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${q.unit("force")})`, cell: (c) => q.number(c.getValue(), "force"), meta: { numeric: true } }),
+      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${q.unit("stress")})`, cell: (c) => q.number(c.getValue(), "stress"), meta: { numeric: true } }),
       col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
-      col.accessor("length", { header: `length (${u.length})`, cell: (c) => formatNumber(c.getValue()), meta: { numeric: true } }),
+      col.accessor("length", { header: `length (${q.unit("length")})`, cell: (c) => q.number(c.getValue(), "length"), meta: { numeric: true } }),
       ...(withK ? [col.accessor((m) => m.bucklingFactor ?? null, { id: "k", header: "buckling factor k", cell: (c) => formatNumber(c.getValue(), { sig: 3 }), meta: { numeric: true } })] : []),
       col.accessor((m) => `${m.start ?? topology.members.get(m.id)?.start ?? "?"}–${m.end ?? topology.members.get(m.id)?.end ?? "?"}`, { id: "nodes", header: "nodes" }),
       col.accessor((m) => m.group ?? topology.members.get(m.id)?.group ?? "", { id: "group", header: "group" }),
@@ -94,21 +112,32 @@ export function MemberTable({ result, topology, fileName }: { result: TrussResul
       ...(lcs.length > 1 ? [col.accessor((m) => governingCaseOf(m, lcs) ?? "", { id: "governingCase", header: "governing case" })] : []),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [lc, lcs, maxAbs, topology, u, withSection, withK],
+    [lc, lcs, maxAbs, topology, q, withSection, withK],
   );
   const csv = () => {
     const t = membersCsv(result, topology);
     downloadText(`${fileSlug(fileName)}-members.csv`, toCsv(t.header, t.rows));
   };
   return (
-    <ResultTable label="Members" data={result.members} columns={columns} cases={cases} onCsv={csv} initialSort={[{ id: "utilization", desc: true }]} rowTestId="member-row" />
+    <ResultTable
+      label="Members"
+      data={result.members}
+      columns={columns}
+      cases={cases}
+      onCsv={csv}
+      initialSort={[{ id: "utilization", desc: true }]}
+      rowTestId="member-row"
+      selectedId={selectedId}
+      onRowClick={onSelect ? (m) => onSelect(m.id === selectedId ? null : m.id) : undefined}
+    />
   );
 }
 
-export function NodeTable({ result, topology, fileName }: { result: TrussResult; topology: Topology; fileName: string }) {
+export function NodeTable({ result, topology, fileName, units = "model" }: { result: TrussResult; topology: Topology; fileName: string; units?: DisplayUnitChoice }) {
   const cases = useLoadCases(result);
   const { ids: lcs, current: lc } = cases;
-  const u = result.units;
+  const q = useMemo(() => quantityFormatter(result.units as Units, units), [result.units, units]);
+  const len = q.unit("length");
   const moved = (n: ResultNode) => {
     const i = n.initial ?? topology.nodes.get(n.id);
     return i ? Math.hypot(n.x - i.x, n.y - i.y, n.z - (i.z ?? 0)) : 0;
@@ -126,18 +155,18 @@ export function NodeTable({ result, topology, fileName }: { result: TrussResult;
   const columns = useMemo(
     () => [
       col.accessor("id", { header: "node" }),
-      col.accessor("x", { header: `x (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
-      col.accessor("y", { header: `y (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
-      col.accessor("z", { header: `z (${u.length})`, cell: (c) => formatNumber(c.getValue(), { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
-      ...(anyMoved ? [col.accessor((n) => moved(n), { id: "moved", header: `moved (${u.length})`, cell: (c) => formatNumber(c.getValue(), { zeroBelow: floors.coord }), meta: { numeric: true } })] : []),
+      col.accessor("x", { header: `x (${len})`, cell: (c) => q.number(c.getValue(), "length", { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
+      col.accessor("y", { header: `y (${len})`, cell: (c) => q.number(c.getValue(), "length", { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
+      col.accessor("z", { header: `z (${len})`, cell: (c) => q.number(c.getValue(), "length", { sig: 6, zeroBelow: floors.coord }), meta: { numeric: true } }),
+      ...(anyMoved ? [col.accessor((n) => moved(n), { id: "moved", header: `moved (${len})`, cell: (c) => q.number(c.getValue(), "length", { zeroBelow: floors.coord }), meta: { numeric: true } })] : []),
       col.accessor((n) => (n.fixed ?? topology.nodes.get(n.id)?.fixed ?? []).join(", "), { id: "fixed", header: "restrained" }),
       ...([0, 1, 2] as const).map((k) =>
-        col.accessor((n) => n.displacement[lc]?.[k] ?? 0, { id: `u${"xyz"[k]}`, header: `u${"xyz"[k]} (${u.length})`, cell: (c) => formatNumber(c.getValue(), { zeroBelow: floors.disp }), meta: { numeric: true } }),
+        col.accessor((n) => n.displacement[lc]?.[k] ?? 0, { id: `u${"xyz"[k]}`, header: `u${"xyz"[k]} (${len})`, cell: (c) => q.number(c.getValue(), "length", { zeroBelow: floors.disp }), meta: { numeric: true } }),
       ),
-      col.accessor((n) => Math.hypot(...(n.displacement[lc] ?? [0, 0, 0])), { id: "umag", header: `|u| (${u.length})`, cell: (c) => formatNumber(c.getValue(), { zeroBelow: floors.disp }), meta: { numeric: true } }),
+      col.accessor((n) => Math.hypot(...(n.displacement[lc] ?? [0, 0, 0])), { id: "umag", header: `|u| (${len})`, cell: (c) => q.number(c.getValue(), "length", { zeroBelow: floors.disp }), meta: { numeric: true } }),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [lc, anyMoved, topology, u, floors],
+    [lc, anyMoved, topology, q, floors],
   );
   const csv = () => {
     const t = nodesCsv(result, topology);

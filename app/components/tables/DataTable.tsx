@@ -11,7 +11,7 @@ import {
   type ColumnDef,
   type SortingState,
 } from "@tanstack/react-table";
-import { useState, type ReactNode } from "react";
+import { useEffect, useRef, useState, type ReactNode } from "react";
 import { EmptyState } from "~/components/ui/States";
 
 /** Per-column options: right-aligned tabular numbers; extra classes (e.g. hide on phones). */
@@ -31,9 +31,13 @@ export interface DataTableProps<T> {
   toolbar?: ReactNode;
   rowTestId?: string;
   getRowId?: (row: T) => string;
+  /** a row chosen elsewhere (the 3D view): marked, its page shown and scrolled into view */
+  selectedRowId?: string | null;
+  /** rows become choosable by click, Enter or Space */
+  onRowClick?: (row: T) => void;
 }
 
-export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceholder, initialSort = [], empty, toolbar, rowTestId, getRowId }: DataTableProps<T>) {
+export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceholder, initialSort = [], empty, toolbar, rowTestId, getRowId, selectedRowId, onRowClick }: DataTableProps<T>) {
   const [sorting, setSorting] = useState<SortingState>(initialSort);
   const [globalFilter, setGlobalFilter] = useState("");
   const table = useReactTable({
@@ -54,6 +58,14 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
   const filtered = table.getFilteredRowModel().rows.length;
   const { pageIndex } = table.getState().pagination;
   const pages = table.getPageCount();
+  const body = useRef<HTMLTableSectionElement>(null);
+  useEffect(() => {
+    if (!selectedRowId) return;
+    const at = table.getPrePaginationRowModel().rows.findIndex((r) => r.id === selectedRowId);
+    if (at >= 0 && Math.floor(at / table.getState().pagination.pageSize) !== table.getState().pagination.pageIndex) table.setPageIndex(Math.floor(at / table.getState().pagination.pageSize));
+    requestAnimationFrame(() => body.current?.querySelector(`tr[data-row-id="${CSS.escape(selectedRowId)}"]`)?.scrollIntoView({ block: "nearest" }));
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [selectedRowId]);
 
   return (
     <div>
@@ -114,9 +126,27 @@ export function DataTable<T>({ data, columns, label, pageSize = 25, filterPlaceh
                   </tr>
                 ))}
               </thead>
-              <tbody>
+              <tbody ref={body}>
                 {rows.map((r) => (
-                  <tr key={r.id} className="hover:bg-paper" data-testid={rowTestId}>
+                  <tr
+                    key={r.id}
+                    className={`${r.id === selectedRowId ? "bg-brass-wash outline outline-2 -outline-offset-2 outline-brass-strong" : "hover:bg-paper"} ${onRowClick ? "cursor-pointer" : ""}`}
+                    data-testid={rowTestId}
+                    data-row-id={r.id}
+                    aria-selected={onRowClick ? r.id === selectedRowId : undefined}
+                    tabIndex={onRowClick ? 0 : undefined}
+                    onClick={onRowClick ? () => onRowClick(r.original) : undefined}
+                    onKeyDown={
+                      onRowClick
+                        ? (e) => {
+                            if (e.key === "Enter" || e.key === " ") {
+                              e.preventDefault();
+                              onRowClick(r.original);
+                            }
+                          }
+                        : undefined
+                    }
+                  >
                     {r.getVisibleCells().map((c) => (
                       <td key={c.id} className={`${(c.column.columnDef.meta as ColumnMeta | undefined)?.numeric ? "num whitespace-nowrap" : "whitespace-nowrap"} ${(c.column.columnDef.meta as ColumnMeta | undefined)?.className ?? ""}`}>
                         {flexRender(c.column.columnDef.cell, c.getContext())}

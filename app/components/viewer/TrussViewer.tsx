@@ -2,7 +2,7 @@
 // page has mounted in a browser that offers WebGL (three.js cannot render on the server);
 // until then, and without WebGL, the box says what is happening instead of staying blank.
 import { Component, lazy, Suspense, useCallback, useEffect, useMemo, useState, type ReactNode } from "react";
-import { formatNumber, formatPercent } from "~/lib/format";
+import { formatNumber, formatPercent, quantityFormatter, type DisplayUnitChoice, type QuantityFormatter } from "~/lib/format";
 import { Legend } from "./Legend";
 import type { ColourMode, MemberHover, SceneSettings } from "./TrussScene";
 import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike, type TrussView } from "./truss-view";
@@ -47,21 +47,32 @@ interface Props {
   /** a controlled node selection (the editor ties it to its node table); given, clicks near a joint pick nodes */
   selectedNode?: number | null;
   onSelectNode?: (index: number | null) => void;
+  /** the same, by member id (the job page ties it to its member table) */
+  selectedMemberId?: string | null;
+  onSelectMemberId?: (id: string | null) => void;
+  /** the reader's display units for the figures it writes (account page) */
+  displayUnits?: DisplayUnitChoice;
   /** colours by member id in place of the colour modes, with their own legend and hover words */
   paint?: { colours: Record<string, string>; legend: ReactNode; describe: (memberId: string) => string } | null;
 }
 
 const SCALE_STEPS = 40; // slider positions, on a log scale around the default magnification
 
-export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, selectedNode = null, onSelectNode, paint }: Props) {
+export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, selectedNode = null, onSelectNode, selectedMemberId, onSelectMemberId, displayUnits = "model", paint }: Props) {
   const view = useMemo(() => buildTrussView(model, result), [model, result]);
+  const q = useMemo(() => (view.units ? quantityFormatter(view.units, displayUnits) : null), [view.units, displayUnits]);
+  const byId = useMemo(() => new Map(view.members.map((m, i) => [m.id, i])), [view]);
+  if (selectedMemberId !== undefined) selectedMember = selectedMemberId === null ? null : (byId.get(selectedMemberId) ?? null);
   const hasReactions = view.loadCases.some((c) => c.reactions.length > 0);
   const [mounted, setMounted] = useState(false);
   const [gl, setGl] = useState<boolean | null>(null);
   const [lost, setLost] = useState(false);
   const [ownSelected, setOwnSelected] = useState<number | null>(null);
   const selected = selectedMember !== undefined ? selectedMember : ownSelected;
-  const setSelected = onSelectMember ?? setOwnSelected;
+  const setSelected = useMemo(
+    () => (onSelectMemberId ? (i: number | null) => onSelectMemberId(i === null ? null : (view.members[i]?.id ?? null)) : (onSelectMember ?? setOwnSelected)),
+    [onSelectMemberId, onSelectMember, view],
+  );
   const [hover, setHover] = useState<MemberHover | null>(null);
   const onHover = useCallback((h: MemberHover | null) => setHover(h), []);
   const [ownCase, setLoadCase] = useState(0);
@@ -210,7 +221,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
             role="status"
             data-testid="member-hover"
           >
-            {paint ? paint.describe(view.members[hover.index]!.id) : memberWords(view.members[hover.index]!, lc?.id, units)}
+            {paint ? paint.describe(view.members[hover.index]!.id) : memberWords(view.members[hover.index]!, lc?.id, q)}
           </p>
         )}
         <p className="pointer-events-none absolute bottom-2 left-3 text-2xs text-ink-muted">
@@ -237,7 +248,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
             </>
           ) : sel ? (
             <>
-              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): {paint ? paint.describe(sel.id) : memberWords(sel, lc?.id, units)}
+              Member <strong className="text-ink">{sel.id}</strong> ({view.nodes[sel.a]!.id}–{view.nodes[sel.b]!.id}): {paint ? paint.describe(sel.id) : memberWords(sel, lc?.id, q)}
             </>
           ) : (
             `${view.members.length} members, ${view.nodes.length} nodes${view.planar ? ", planar" : ""}. Click a member${onSelectNode ? " or a node" : ""} for its values.`
@@ -249,9 +260,9 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
 }
 
 /** "area 1,234 mm², force −56.78 kN in LC1, utilization 95.3 %" */
-function memberWords(m: TrussView["members"][number], caseId: string | undefined, units: TrussView["units"]): string {
-  const parts = [`area ${formatNumber(m.area)}${units ? ` ${units.length}²` : ""}`];
-  if (m.force && caseId) parts.push(`force ${formatNumber(m.force[caseId] ?? 0)}${units ? ` ${units.force}` : ""} in ${caseId}`);
+function memberWords(m: TrussView["members"][number], caseId: string | undefined, q: QuantityFormatter | null): string {
+  const parts = [`area ${q ? q.text(m.area, "area") : formatNumber(m.area)}`];
+  if (m.force && caseId) parts.push(`force ${q ? q.text(m.force[caseId] ?? 0, "force") : formatNumber(m.force[caseId] ?? 0)} in ${caseId}`);
   if (m.utilization !== null) parts.push(`utilization ${formatPercent(m.utilization)}`);
   return parts.join(", ");
 }

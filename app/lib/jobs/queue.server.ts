@@ -51,6 +51,8 @@ export interface JobView {
   hasResult: boolean;
   /** set while a queued job waits for a service that did not answer ("storage") */
   waitingFor: string | null;
+  /** the returned run ("changes requested") this run answers */
+  answersJobId: string | null;
 }
 
 export interface Actor {
@@ -98,6 +100,7 @@ export function toJobView(r: JobRow, extra: { modelName?: string | null; project
     // a run stopped on request keeps its best design so far (stored by the worker)
     hasResult: (r.status === "succeeded" || r.status === "cancelled") && r.resultKey !== null,
     waitingFor: r.status === "queued" ? r.waitingFor : null,
+    answersJobId: r.answersJobId ?? null,
   };
 }
 
@@ -106,7 +109,7 @@ export function toJobView(r: JobRow, extra: { modelName?: string | null; project
  * kind "analysis" an analysis of the model as given. Throws a 400/404 Response for a bad request.
  */
 export async function enqueueJob(
-  input: { modelId: string; version?: number | null; kind?: "design" | "analysis"; options?: unknown; user: Actor | null },
+  input: { modelId: string; version?: number | null; kind?: "design" | "analysis"; options?: unknown; user: Actor | null; answers?: string | null },
   database: Db = defaultDb(),
 ): Promise<JobView> {
   const parsed = jobOptionsSchema.safeParse(input.options ?? {});
@@ -138,9 +141,15 @@ export async function enqueueJob(
       [{ path: "modelId", message: "the model has no design block" }],
     );
   }
+  if (input.answers) {
+    const [answered] = await database.select({ modelId: jobs.modelId }).from(jobs).where(eq(jobs.id, input.answers)).limit(1);
+    if (!answered || answered.modelId !== model.id)
+      throw jsonError(400, `Run ${input.answers} is not a run of model "${model.name}", so this run cannot answer it`, [{ path: "answers", message: "not a run of this model" }]);
+  }
   const [row] = await database
     .insert(jobs)
     .values({
+      answersJobId: input.answers || null,
       id: randomUUID(),
       projectId: model.projectId,
       modelId: model.id,

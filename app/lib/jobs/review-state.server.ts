@@ -16,7 +16,8 @@ export function reviewStateCondition(filter: ReviewFilter): SQL {
     case "changes-requested":
       return sql`${latestDecision} = ${filter}`;
     case "waiting":
-      return and(reviewable, sql`${latestDecision} is null`)!;
+      // an approval an admin reopened waits for a checker again
+      return and(reviewable, sql`coalesce(${latestDecision}, 'reopened') = 'reopened'`)!;
     case "no-review":
       return sql`not (${reviewable})`;
   }
