@@ -1,12 +1,8 @@
-import { inArray } from "drizzle-orm";
 import { Link } from "react-router";
 import { toJobRows } from "~/components/job/job-rows.server";
 import { JobsList } from "~/components/job/JobsList";
 import { formatDateTime } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
-import { db } from "~/db/client.server";
-import { reviews } from "~/db/schema";
-import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { getUser } from "~/lib/access.server";
 import { can, ROLE_LABELS } from "~/lib/auth/permissions";
 import { listProjects } from "~/lib/auth/projects.server";
