@@ -111,13 +111,16 @@ export class LimitedBfgs implements HessianApprox {
 /**
  * Woodbury form of the limited-memory inverse on the free variables:
  * (B_FF)^-1 = I/delta - U_F C^-1 U_F' / delta^2,  C = diag(dinv) + U_F'U_F / delta.
- * Fixing or freeing variable j changes U_F'U_F by the outer product of row j of U: O(m^2),
- * plus an O(m^3) refactorization of the 2m x 2m matrix C.
+ * Fixing or freeing variable j changes U_F'U_F by the outer product of row j of U: O(m^2); the
+ * O(m^3) refactorization of the 2m x 2m matrix C waits for the next apply, so that a QP that
+ * fixes or frees many variables in a row (its warm start) factors once.
  */
 class LimitedReducedInverse implements ReducedInverse {
   private readonly G: Float64Array;
   private readonly q: number;
   private lu: SmallLu | null = null;
+  /** C changed since lu was made */
+  private stale = true;
   private readonly fixed: Uint8Array;
 
   constructor(private readonly n: number, private readonly delta: number, private readonly U: Float64Array[], private readonly dinv: Float64Array) {
@@ -130,11 +133,11 @@ class LimitedReducedInverse implements ReducedInverse {
         this.G[a * q + b] = v;
         this.G[b * q + a] = v;
       }
-    this.factor();
   }
 
   private factor(): void {
     const { q, G, delta, dinv } = this;
+    this.stale = false;
     if (q === 0) return;
     const C = new Float64Array(q * q);
     for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) C[a * q + b] = G[a * q + b] / delta + (a === b ? dinv[a] : 0);
@@ -154,17 +157,22 @@ class LimitedReducedInverse implements ReducedInverse {
     if (this.fixed[j]) return;
     this.fixed[j] = 1;
     this.outer(j, -1);
-    this.factor();
+    this.stale = true;
+  }
+
+  fixMany(js: number[]): void {
+    for (const j of js) this.fix(j);
   }
 
   free(j: number): void {
     if (!this.fixed[j]) return;
     this.fixed[j] = 0;
     this.outer(j, 1);
-    this.factor();
+    this.stale = true;
   }
 
   apply(v: Float64Array, out: Float64Array): void {
+    if (this.stale) this.factor();
     const { n, q, U, delta, fixed } = this;
     for (let i = 0; i < n; i++) out[i] = fixed[i] ? 0 : v[i] / delta;
     if (q === 0 || !this.lu) return;
