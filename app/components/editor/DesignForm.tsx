@@ -57,10 +57,10 @@ export function DesignForm({ fields: f, onChange, groups, onGroupsChange, model,
                 <option value="compliance">stiffest: least compliance ({units.force}·{L})</option>
               </select>
             </Field>
-            <Field label="Formulation" problems={at("design.formulation")}>
+            <Field label="Formulation" problems={at("design.formulation")} hint={(f.formulation || "nested") === "nested" ? "displacements from a stiffness solve" : "displacements are variables, equilibrium a constraint"}>
               <select className="field-input" value={f.formulation || "nested"} onChange={(e) => set({ formulation: e.target.value })}>
-                <option value="nested">nested: displacements from a stiffness solve</option>
-                <option value="simultaneous">simultaneous: displacements are variables too</option>
+                <option value="nested">nested (default)</option>
+                <option value="simultaneous">simultaneous</option>
               </select>
             </Field>
             <Field label="Sizing" problems={at("design.sizing")} hint={sectionCount ? `${sectionCount} sections in the model` : "catalogue sizing needs sections (Members tab)"}>
@@ -118,7 +118,7 @@ export function DesignForm({ fields: f, onChange, groups, onGroupsChange, model,
               <EditableGrid
                 name="groups"
                 columns={[
-                  { key: "id", label: "group" },
+                  { key: "id", label: "group", width: "minmax(7rem, 2fr)" },
                   { key: "min", label: `min area (${L}²)`, numeric: true },
                   { key: "max", label: `max area (${L}²)`, numeric: true },
                 ]}
