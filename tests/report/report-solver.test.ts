@@ -56,7 +56,7 @@ describe("report of a solved two-bar truss", () => {
     expect(all).toMatch(/3 of 10 members sit at their minimum area: member m\d+ \(0\.1000 in²\), member m\d+ \(0\.1000 in²\), member m\d+ \(0\.1000 in²\)\./);
     const top = result.criterionCosts![0]!;
     expect(top.id).toBe("deflection:0");
-    expect(all).toContain("1. Raising the deflection limit at every node in every direction (2.000 in) by 1 % would save about 49 lb, 1.0 % of the mass; it binds at node 1 in y under Tip loads (LC1).");
+    expect(all).toContain("1. Raising the deflection limit at every node in every direction (2.000 in) by 1 % would save about 49 lb, 1.0 % of the mass; it binds at node 1 in y under LC1.");
     expect(all).toMatch(/Tip loads \(LC1\) node 1, y −2\.000 2\.000 100\.0 % node 1, y −2\.000/);
   });
 });

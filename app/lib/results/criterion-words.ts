@@ -45,7 +45,8 @@ export function criterionName(c: CriterionCost): string {
     case "volume":
       return "the volume cap";
     case "buckling-length":
-      return `the buckling length of ${c.subject}`;
+      // the subject is an area variable: a group, or an ungrouped member (then it binds only there)
+      return `the buckling length of ${c.places.length > 0 && c.places.every((p) => p.member === c.subject) ? "member" : "group"} ${c.subject}`;
     case "min-size":
       return c.subject === "*" ? "the minimum area" : `the minimum area of group ${c.subject}`;
     case "max-size":
@@ -87,9 +88,9 @@ export function caseWords(id: string | undefined, r: Pick<TrussResult, "loadCase
   return named ? `${named} (${id})` : id;
 }
 
-/** "member U4-U5 under Snow (G+S)", "node C in y under SLS", "group diagonals" */
+/** "member U4-U5 under G+S", "node C in y under SLS", "group diagonals" (case ids: a list names many) */
 export function placeWords(p: CriterionPlace, r: Facts): string {
-  const under = p.case ? ` under ${caseWords(p.case, r)}` : "";
+  const under = p.case ? ` under ${p.case}` : "";
   if (p.member) return `member ${p.member}${under}`;
   if (p.node) return `node ${p.node}${p.axis ? ` in ${p.axis}` : ""}${under}`;
   if (p.variable) return r.members?.some((m) => m.group === p.variable) || !r.members ? `group ${p.variable}` : `member ${p.variable}`;
