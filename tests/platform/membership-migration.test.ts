@@ -2,13 +2,18 @@
 // migrated up to just before project_members, seeded with accounts, projects, models and jobs,
 // copied, and the copy brought up to date with the committed migrations. Every project's
 // creator, uploaders and submitters become members; nobody else does; the data stays.
+// Then the same on a copy of the demo desk as the seed makes it (every row carried over into a
+// database at the schema before project_members): every row of every table unchanged, the
+// members exactly the creators, uploaders and submitters, the app's lists scoped by them, and
+// the seed of `npm start` running on the upgraded copy.
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { createClient } from "@libsql/client";
+import { createClient, type Client } from "@libsql/client";
 import { drizzle } from "drizzle-orm/libsql";
 import { migrate } from "drizzle-orm/libsql/migrator";
 import { describe, expect, it } from "vitest";
+import { startTestServices } from "../support/services";
 
 const FIRST_NEW = "0007_project_members";
 
@@ -65,4 +70,93 @@ describe("membership migrations on a seeded database", () => {
     expect((await client.execute("select count(*) as n from project_members")).rows[0]!.n).toBe(4);
     client.close();
   });
+});
+
+/** Copy every row of `from` into the tables `to` has, column by column (those both have). */
+async function copyRows(from: Client, to: Client): Promise<Record<string, number>> {
+  const tables = (await to.execute("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name not like '__drizzle%'")).rows.map((r) => String(r.name));
+  const counts: Record<string, number> = {};
+  await to.execute("PRAGMA foreign_keys=OFF");
+  for (const t of tables) {
+    const cols = async (c: Client) => (await c.execute(`PRAGMA table_info("${t}")`)).rows.map((r) => String(r.name));
+    const mine = new Set(await cols(from));
+    const shared = (await cols(to)).filter((c) => mine.has(c));
+    const rows = (await from.execute(`select ${shared.map((c) => `"${c}"`).join(", ")} from "${t}"`)).rows;
+    for (const r of rows) await to.execute({ sql: `insert into "${t}" (${shared.map((c) => `"${c}"`).join(", ")}) values (${shared.map(() => "?").join(", ")})`, args: shared.map((c) => r[c] as never) });
+    counts[t] = rows.length;
+  }
+  return counts;
+}
+
+describe("the membership migrations on a copy of the demo desk", () => {
+  it("a desk seeded before membership, migrated: its people become members, every row stays, the app lists by membership, the seed runs on it", async () => {
+    const services = await startTestServices();
+    try {
+      const { db } = await import("~/db/client.server");
+      const { migrateDb } = await import("~/db/migrate.server");
+      const schema = await import("~/db/schema");
+      const { seed } = await import("../../scripts/seed");
+      // the demo desk as `npm start` seeds it, with one more engineer's model and run in a project
+      await migrateDb(db());
+      const report = await seed(db());
+      const other = await db().insert(schema.user).values({ id: "u-second-engineer", name: "Second engineer", email: "second@saltcote.example", emailVerified: true, role: "engineer", createdAt: new Date(), updatedAt: new Date() }).returning();
+      const [aModel] = await db().select().from(schema.models).limit(1);
+      await db().insert(schema.jobs).values({ id: "j-second", projectId: aModel!.projectId, modelId: aModel!.id, submittedBy: other[0]!.id, status: "succeeded", options: {} });
+
+      // the same rows in a database at the schema before project_members
+      const dir = fs.mkdtempSync(path.join(os.tmpdir(), "strutwise-demo-"));
+      const original = path.join(dir, "before.db");
+      const old = createClient({ url: `file:${original}` });
+      await migrate(drizzle(old), { migrationsFolder: migrationsBefore(FIRST_NEW) });
+      const counts = await copyRows(db().$client, old);
+      expect(counts.projects).toBeGreaterThan(0);
+      expect(counts.jobs).toBeGreaterThan(1);
+      const columns: Record<string, string> = {};
+      for (const t of Object.keys(counts)) columns[t] = (await old.execute(`PRAGMA table_info("${t}")`)).rows.map((r) => `"${String(r.name)}"`).join(", ");
+      const snapshot = async (c: Client) => {
+        const out: Record<string, unknown[]> = {};
+        for (const t of Object.keys(counts)) out[t] = (await c.execute(`select ${columns[t]} from "${t}" order by rowid`)).rows.map((r) => JSON.stringify(Object.values(r)));
+        return out;
+      };
+      const before = await snapshot(old);
+      // who should become a member: creators, uploaders and submitters, from the rows themselves
+      const expectedMembers = new Set<string>();
+      for (const sql of ["select id as p, created_by as u from projects", "select project_id as p, uploaded_by as u from models", "select project_id as p, submitted_by as u from jobs"])
+        for (const r of (await old.execute(sql)).rows) if (r.u) expectedMembers.add(`${r.p}:${r.u}`);
+      old.close();
+
+      // an operator tries the upgrade on a copy first
+      const copy = path.join(dir, "copy.db");
+      fs.copyFileSync(original, copy);
+      const client = createClient({ url: `file:${copy}` });
+      const upgraded = drizzle(client, { schema }) as never as Awaited<ReturnType<typeof db>>;
+      await migrateDb(upgraded);
+
+      expect(await snapshot(client)).toEqual(before); // every row of every table, unchanged
+      const members = (await client.execute("select project_id, user_id from project_members")).rows.map((r) => `${r.project_id}:${r.user_id}`);
+      expect(new Set(members)).toEqual(expectedMembers);
+      expect(members).toContain(`${aModel!.projectId}:u-second-engineer`);
+      expect((await client.execute("PRAGMA foreign_key_check")).rows).toEqual([]);
+      expect((await client.execute("PRAGMA integrity_check")).rows[0]!.integrity_check).toBe("ok");
+
+      // the app's own lists on the upgraded copy: the second engineer sees the project they ran
+      // a job in, the demo viewer (a member of nothing yet) sees nothing
+      const { listJobs } = await import("~/lib/jobs/queue.server");
+      const { listProjects } = await import("~/lib/auth/projects.server");
+      const viewerId = String((await client.execute({ sql: "select id from user where email = ?", args: [report.accounts.find((a) => a.role === "viewer")!.email] })).rows[0]!.id);
+      expect((await listProjects({ visibleTo: { id: "u-second-engineer", role: "engineer" } }, upgraded)).map((p) => p.id)).toEqual([aModel!.projectId]);
+      expect((await listJobs({ visibleTo: { id: "u-second-engineer", role: "engineer" }, limit: 200 }, upgraded, { fresh: true })).jobs.map((j) => j.projectId)).toContain(aModel!.projectId);
+      expect((await listJobs({ visibleTo: { id: viewerId, role: "viewer" } }, upgraded, { fresh: true })).jobs).toEqual([]);
+
+      // `npm start` seeds after migrating: on the upgraded copy it adds no model and no run,
+      // and brings the demo accounts into the demo projects
+      const again = await seed(upgraded);
+      expect(again.demo).toEqual({ uploaded: 0, queued: 0 });
+      expect((await client.execute("select count(*) as n from jobs")).rows[0]!.n).toBe(counts.jobs);
+      expect((await listJobs({ visibleTo: { id: viewerId, role: "viewer" }, limit: 200 }, upgraded, { fresh: true })).jobs.length).toBeGreaterThan(0);
+      client.close();
+    } finally {
+      await services.stop();
+    }
+  }, 300_000);
 });
