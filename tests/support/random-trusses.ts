@@ -7,18 +7,7 @@
 // The same seed gives the same model, so a failing case can be rerun by its seed alone.
 import { generateModel } from "~/engine/generators";
 import { trussModelSchema, type TrussModel, type TrussModelInput } from "~/engine/truss";
-
-/** mulberry32: a small, well-spread 32-bit generator (common practice for seeded tests). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from "~/engine/util/seeded-random";
 
 export type RandomKind = "girder" | "roof" | "tower3" | "tower4" | "grid";
 export const RANDOM_KINDS: readonly RandomKind[] = ["girder", "roof", "tower3", "tower4", "grid"];

@@ -16,6 +16,7 @@ import type { StartsSummary, TrussResult } from "./result-types";
 import { reanalyze } from "./verify";
 import { minimize } from "../sqp";
 import { buildResult, prepareRun, type OptimizeOptions, type PreparedRun } from "./result";
+import { seededRandom } from "../util/seeded-random";
 
 /** Starts run by default (the engineer's start, fully stressed, two scaled, two perturbed). */
 export const DEFAULT_STARTS = 6;
@@ -50,18 +51,6 @@ export function plannedStarts(model: TrussModel | DesignModel, options: Optimize
   // several-starts path knows only continuous sizing, so it must not take such a model over
   if (model.design?.sizing === "catalogue") return 1;
   return startCount(buildDesignProblem(model, buildStructure(model as TrussModel), options), options);
-}
-
-/** Small seeded generator (mulberry32): reproducible perturbations without global state. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 function clampInto(p: DesignProblem, z: Float64Array): Float64Array {
@@ -150,7 +139,7 @@ export function startingDesigns(p: DesignProblem, count: number, plastic?: Array
     for (let v = 0; v < nA; v++) z[v] *= factor;
     starts.push({ label: `your areas × ${factor}`, z: clampInto(p, z) });
   }
-  const random = seeded(PERTURBATION_SEED);
+  const random = seededRandom(PERTURBATION_SEED);
   for (let k = 1; starts.length < count; k++) {
     const z = Float64Array.from(p.x0);
     for (let v = 0; v < nA; v++) z[v] *= Math.exp(PERTURBATION * (2 * random() - 1));

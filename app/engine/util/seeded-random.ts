@@ -1,0 +1,15 @@
+/**
+ * mulberry32: a small, well-spread 32-bit generator (common practice for seeded runs).
+ * Reproducible draws in [0, 1) without global state: the several-starts perturbations and
+ * the seeded test trusses both read it.
+ */
+export function seededRandom(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
