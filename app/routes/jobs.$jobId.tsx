@@ -204,7 +204,7 @@ export function ErrorBoundary() {
 
 export default function JobPage({ loaderData }: Route.ComponentProps) {
   const { job, facts, head, history, reviews, may, tolerance } = loaderData;
-  const files = useJobFiles(job.id, facts.modelId, job.hasResult && head !== null);
+  const files = useJobFiles(job.id, facts.modelId, job.modelVersion, job.hasResult && head !== null);
   // only a run with a design to sign off is reviewed (review-request.ts): no review mark otherwise
   const reviewable = job.status === "succeeded" && !OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? "");
   const { topology, result } = files;
@@ -369,7 +369,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       {head?.catalogue && <CatalogueDesignPanel result={head} />}
 
       {head && (
-        <div className="grid gap-6 lg:grid-cols-2">
+        <div className="grid gap-6">
           <section className="card min-w-0" aria-label="Convergence">
             <h2 className="mb-3 font-semibold">Convergence</h2>
             {result ? <ConvergencePlot history={normalizeHistory(result.history)} objectiveLabel={objectiveLabel} /> : <LoadingNote>Loading the iteration history…</LoadingNote>}
@@ -469,7 +469,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               </li>
             )}
             <li>
-              <a className="text-info hover:underline" href={`/api/models/${facts.modelId}/file`} download>
+              <a className="text-info hover:underline" href={`/api/models/${facts.modelId}/file${job.modelVersion ? `?version=${job.modelVersion}` : ""}`} download>
                 Model file (JSON)
               </a>
               <span className="block truncate font-mono text-2xs text-ink-muted" title={facts.sha256}>

@@ -153,6 +153,14 @@ describe("jobs on versions, and analysis-only runs", () => {
       }
       // each support takes half the 30 kN vertically
       for (const r of result.reactions) expect(r.values.LC1[1]).toBeCloseTo(15000, 6);
+      // the report is drawn from the file the job ran (version 1), not the model's latest
+      const { gatherReportSources } = await import("~/lib/report/render.server");
+      const { getModelVersion } = await import("~/lib/models/versions.server");
+      const sources = await gatherReportSources(jobId);
+      const [ran, latest] = [await getModelVersion(id, 1, database), await getModelVersion(id, 2, database)];
+      expect(sources.modelKey).toBe(ran!.fileKey);
+      expect(sources.modelKey).not.toBe(latest!.fileKey);
+      expect(sources.meta.model.sha256).toBe(ran!.sha256);
     } finally {
       await runner.stop(0);
       await pool.destroy();

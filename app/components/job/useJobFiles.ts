@@ -23,13 +23,15 @@ async function getJson(url: string, what: string): Promise<unknown> {
   return res.json();
 }
 
-export function useJobFiles(jobId: string, modelId: string, withResult: boolean): JobFiles {
+/** `modelVersion`: the version the job ran (older jobs have none and read the model's latest file). */
+export function useJobFiles(jobId: string, modelId: string, modelVersion: number | null | undefined, withResult: boolean): JobFiles {
   const [state, setState] = useState<JobFiles>({ topology: null, result: null, loading: true, error: null });
   useEffect(() => {
     let live = true;
     setState((s) => ({ ...s, loading: true, error: null }));
     Promise.all([
-      getJson(`/api/models/${modelId}/file`, "The model file"),
+      // the geometry the job ran, not the model's latest version (a later edit may move nodes)
+      getJson(`/api/models/${modelId}/file${modelVersion ? `?version=${modelVersion}` : ""}`, "The model file"),
       withResult ? getJson(`/api/jobs/${jobId}/result`, "The result") : Promise.resolve(null),
     ])
       .then(([file, result]) => {
@@ -41,6 +43,6 @@ export function useJobFiles(jobId: string, modelId: string, withResult: boolean)
     return () => {
       live = false;
     };
-  }, [jobId, modelId, withResult]);
+  }, [jobId, modelId, modelVersion, withResult]);
   return state;
 }

@@ -8,6 +8,7 @@ import { loadJobWithModel, type JobWithModel } from "~/lib/job-with-model.server
 import { getObject, putObject } from "~/lib/storage.server";
 import { DependencyUnavailableError } from "~/lib/dependencies";
 import { renderStoredReportOnThread } from "~/lib/web-pool.server";
+import { getModelVersion } from "~/lib/models/versions.server";
 import type { ReportData } from "./report-data";
 import { ReportError, reportDataFromInputs, type ReportInputs, type ReportSources } from "./report-inputs";
 import { readReportTexts } from "./report-texts.server";
@@ -44,6 +45,8 @@ export async function gatherReportInputs(jobId: string, row?: JobWithModel): Pro
 export async function gatherReportSources(jobId: string, row?: JobWithModel): Promise<ReportSources> {
   const { job, model, project, submitter } = row ?? (await succeededJob(jobId));
   if (!job.resultKey) throw new ReportError(409, `Job ${jobId} succeeded but has no stored result`);
+  // the file the job ran: a later version of the model may have moved nodes or changed loads
+  const ran = job.modelVersion ? await getModelVersion(model.id, job.modelVersion) : null;
 
   const reviewRows = await db()
     .select({ review: reviews, name: user.name, email: user.email })
@@ -64,7 +67,7 @@ export async function gatherReportSources(jobId: string, row?: JobWithModel): Pr
       attempts: job.attempts,
     },
     project: { code: project.code, name: project.name, client: project.client },
-    model: { id: model.id, name: model.name, fileName: model.fileName, sha256: model.sha256, sizeBytes: model.sizeBytes, uploadedAt: model.createdAt },
+    model: { id: model.id, name: model.name, fileName: ran?.fileName ?? model.fileName, sha256: ran?.sha256 ?? model.sha256, sizeBytes: ran?.sizeBytes ?? model.sizeBytes, uploadedAt: ran?.createdAt ?? model.createdAt },
     reviews: reviewRows.map((r) => ({
       id: r.review.id,
       decision: r.review.decision,
@@ -74,7 +77,7 @@ export async function gatherReportSources(jobId: string, row?: JobWithModel): Pr
     })),
     generatedAt: new Date(),
   };
-  return { meta, resultKey: job.resultKey, modelKey: model.fileKey };
+  return { meta, resultKey: job.resultKey, modelKey: ran?.fileKey ?? model.fileKey };
 }
 
 export function reportCacheKey(jobId: string, latestReviewId: string | null): string {
