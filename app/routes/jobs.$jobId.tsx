@@ -423,7 +423,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
       <div className="grid gap-6 lg:grid-cols-3">
         <section className="card min-w-0 lg:col-span-2" aria-label="Review">
           <h2 className="mb-3 font-semibold">Review</h2>
-          <ReviewHistory reviews={reviews} />
+          <ReviewHistory reviews={reviews} signable={!(job.status === "succeeded" && OUTCOMES_WITHOUT_REVIEW.includes(job.outcome ?? ""))} />
           {current?.decision === "approved" ? (
             <div className="mt-4 border-t border-rule pt-4 text-sm" data-testid="review-closed">
               <p className="text-ink-soft">This run is approved and closed: a change needs a new run{may.reopen ? ", or reopening it below with a reason (recorded in the audit trail)" : " (or an admin reopening it with a reason)"}.</p>

@@ -60,6 +60,13 @@ describe("review list", () => {
     const html = renderToString(createElement(ReviewHistory, { reviews: [returned, same] }));
     expect(html.indexOf("Mara Ellingsworth")).toBeLessThan(html.indexOf("Tomasz Réveillon"));
   });
+
+  it("says a run with no design to issue has nothing to sign off, not that it is waiting for review", () => {
+    const html = renderToString(createElement(ReviewHistory, { reviews: [], signable: false }));
+    expect(html).toContain("Nothing to sign off");
+    expect(html).not.toMatch(/not reviewed yet/i);
+    expect(renderToString(createElement(ReviewHistory, { reviews: [] }))).toContain("Not reviewed yet");
+  });
 });
 
 describe("review form reset", () => {

@@ -8,8 +8,14 @@ import { EmptyState, ErrorNote } from "~/components/ui/States";
 import { formShouldReset } from "./review-words";
 import type { ReviewView } from "./types";
 
-export function ReviewHistory({ reviews }: { reviews: ReviewView[] }) {
-  if (reviews.length === 0) return <EmptyState title="Not reviewed yet">A checker other than the submitter signs the result off here.</EmptyState>;
+/** `signable`: whether the run can be approved at all (a run whose outcome meets no design cannot). */
+export function ReviewHistory({ reviews, signable = true }: { reviews: ReviewView[]; signable?: boolean }) {
+  if (reviews.length === 0)
+    return signable ? (
+      <EmptyState title="Not reviewed yet">A checker other than the submitter signs the result off here.</EmptyState>
+    ) : (
+      <EmptyState title="Nothing to sign off">This run gives no design to issue, so it cannot be approved; a checker may still record changes requested.</EmptyState>
+    );
   return (
     <ol className="space-y-3" data-testid="review-history">
       {/* newest first; reversed before the (stable) sort so that of two decisions in the
