@@ -49,7 +49,7 @@ async function expectClosedForm(engineer: Session, ids: string[]) {
 }
 
 const finishedMails = (services: FaultServices, ids: string[]) =>
-  services.caught().filter((m) => m.subject.startsWith("Job finished:") && ids.some((id) => m.text.includes(id)));
+  services.caught().filter((m) => m.subject.startsWith("Job finished") && ids.some((id) => m.text.includes(id)));
 
 describe.concurrent("service outages while jobs run", () => {
   it("(a) the object store stopped for 40 s while 30 jobs run: all succeed, none stuck, each says it waits for storage meanwhile, every finish mail goes out", { timeout: 240_000 }, async () => {
@@ -164,7 +164,7 @@ describe.concurrent("service outages while jobs run", () => {
       expect(new Set(caught.map((m) => m.messageId)).size).toBe(16);
       for (const id of ids) {
         const about = caught.filter((m) => m.text.includes(id));
-        expect(about.filter((m) => m.subject.startsWith("Job finished:")), `finish mail of ${id}`).toHaveLength(1);
+        expect(about.filter((m) => m.subject.startsWith("Job finished")), `finish mail of ${id}`).toHaveLength(1);
         expect(about.filter((m) => m.subject.startsWith("Review waiting:")), `review mail of ${id}`).toHaveLength(1);
       }
       const rows = await outboxOf();

@@ -65,7 +65,7 @@ describe("a worker killed right after recording a job", () => {
       const after = (Date.now() - killedAt) / 1000;
       await sleep(3000); // room for a second copy, if one were coming
       const caught = services.caught().filter((x) => x.text.includes(jobId));
-      expect(caught.map((m) => [m.to.join(","), m.subject.split(":")[0]]).sort()).toEqual(
+      expect(caught.map((m) => [m.to.join(","), m.subject.split(/:| — /)[0]]).sort()).toEqual(
         [
           [engineer.email, "Job finished"],
           [checker.email, "Review waiting"],
