@@ -6,6 +6,7 @@ import type { BaseSQLiteDatabase } from "drizzle-orm/sqlite-core";
 import fs from "node:fs";
 import path from "node:path";
 import { config } from "~/lib/config.server";
+import { recoverFromBusy } from "./busy-recovery";
 import * as schema from "./schema";
 
 export type Db = LibSQLDatabase<typeof schema> & { $client: Client };
@@ -23,7 +24,9 @@ export function createDb(url: string, authToken?: string): Db {
     const file = url.slice("file:".length);
     if (file && file !== ":memory:") fs.mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
   }
-  const client = createClient({ url, authToken, timeout: 5000 });
+  const opened = createClient({ url, authToken, timeout: 5000 });
+  // an in-memory database lives in its one connection: dropping it would drop the data
+  const client = opened.protocol === "file" && !url.includes(":memory:") ? recoverFromBusy(opened) : opened;
   return drizzle(client, { schema }) as Db;
 }
 
