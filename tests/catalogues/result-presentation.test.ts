@@ -111,7 +111,7 @@ describe("the job page's parts (server render)", () => {
     expect(html).toContain("0.037617"); // continuous: 2 · 7.85e-9 · 958.4 · 2500 = 0.0376172 t
     expect(html).toContain("0.041880"); // catalogue: 2 · 7.85e-9 · 1067 · 2500 = 0.0418798 t
     expect(html).toContain("11.3 %"); // 1067 / 958.4 - 1
-    expect(html).toContain("stress limit of member AC in load case ULS-1");
+    expect(html).toContain("stress limit of member AC (nodes A–C) under Strength: own weight + snow (ULS-1)"); // app/lib/results/constraint-words.ts
   });
 });
 

@@ -1,5 +1,5 @@
 // The job page's pure parts: queue form → job options (the shared jobOptionsSchema decides),
-// constraint ids → plain words, live-poll merging, and the server render of the result
+// live-poll merging, and the server render of the result
 // panels from the two-bar fixture (closed-form values, see viewer.test.ts).
 import fs from "node:fs";
 import path from "node:path";
@@ -7,7 +7,6 @@ import { createElement } from "react";
 import { renderToString } from "react-dom/server";
 import { describe, expect, it } from "vitest";
 import { ConvergencePlot } from "~/components/charts/ConvergencePlot";
-import { describeConstraint } from "~/components/job/constraint-words";
 import { GoverningConstraints } from "~/components/job/GoverningConstraints";
 import { mergeLive, type JobListRow } from "~/components/job/JobsList";
 import { normalizeHistory } from "~/components/job/LiveProgress";
@@ -44,16 +43,6 @@ describe("queue form", () => {
   });
 });
 
-describe("constraint words", () => {
-  it("reads the result's constraint ids (docs/model-format.md) in plain words", () => {
-    expect(describeConstraint("stress:AB:LC1")).toBe("stress limit of member AB in load case LC1");
-    expect(describeConstraint("displacement:C:y:LC2")).toBe("displacement limit of node C in y under load case LC2");
-    expect(describeConstraint("volume")).toBe("total volume limit");
-    expect(describeConstraint("area-min:bottom-chord")).toBe("minimum area of bottom-chord");
-    expect(describeConstraint("something-new")).toBe("something-new");
-  });
-});
-
 describe("live updates", () => {
   it("merges fresh status and progress into the rows by id, leaving others alone", () => {
     const rows: JobListRow[] = [
@@ -78,12 +67,12 @@ describe("result panels (server render)", () => {
   it("states the shadow prices in the result's own sentences", () => {
     const html = renderToString(createElement(GoverningConstraints, { result }));
     expect(html).toContain("Allowing member AC one more MPa of compression stress would save about 9.8e-6 t.");
-    expect(html).toContain("stress:AC:LC1");
+    expect(html).toContain("check id: stress:AC:LC1");
   });
 
   it("falls back to plain words built from the constraint id without shadow prices", () => {
     const html = renderToString(createElement(GoverningConstraints, { result: { ...result, shadowPrices: undefined } }));
-    expect(html).toContain("stress limit of member AC in load case LC1");
+    expect(html).toContain("stress limit of member AC (nodes A–C) under Hoist at apex (LC1)");
   });
 
   it("says what happened and what to try for a run that found no feasible design", () => {

@@ -4,6 +4,7 @@
 // Turning the design off leaves a model that is only analysed.
 import type { ReactNode } from "react";
 import { DeflectionLimits } from "./DeflectionLimits";
+import { quantityFormatter } from "~/lib/format";
 import { gravityAxis, startingDesign, type DesignFields } from "./design-fields";
 import { EditableGrid, type GridRow } from "./EditableGrid";
 import { FieldProblems, problemsAt, type Problem } from "./field-problems";
@@ -79,7 +80,7 @@ export function DesignForm({ fields: f, onChange, groups, onGroupsChange, model,
           <Section title="Limits">
             <label className="flex items-center gap-2 sm:col-span-3">
               <input type="checkbox" className="h-4 w-4 accent-[var(--color-brass)]" checked={f.stress === true} onChange={(e) => set({ stress: e.target.checked })} />
-              Stress within each material's allowables (tension and compression, {units.force}/{L}²)
+              Stress within each material's allowables (tension and compression, {quantityFormatter(units).unit("stress")})
             </label>
             <FieldProblems problems={at("design.constraints.stress")} />
             <div className="sm:col-span-3">

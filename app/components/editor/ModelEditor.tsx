@@ -12,6 +12,7 @@ import { EditorSections } from "~/components/catalogues/EditorSections";
 import { DesignForm } from "./DesignForm";
 import { fromTables, toTables, type EditorTables } from "./model-rows";
 import { useStablePreview } from "./stable-preview";
+import { quantityFormatter } from "~/lib/format";
 import { useModelCheck } from "./use-model-check";
 
 type Tab = "nodes" | "supports" | "members" | "loads" | "materials" | "design";
@@ -82,6 +83,7 @@ export function ModelEditor({ initialText, units, baseVersion, saving, saveError
   const set = (key: keyof EditorTables) => (rows: GridRow[]) => setTables((t) => ({ ...t, [key]: rows }));
   const L = units.length;
   const F = units.force;
+  const stressUnit = quantityFormatter(units).unit("stress"); // "MPa" for N and mm, as the results read
   const cols: Record<Exclude<Tab, "design" | "supports">, GridColumn[]> = {
     nodes: [
       { key: "id", label: "id" },
@@ -110,10 +112,10 @@ export function ModelEditor({ initialText, units, baseVersion, saving, saveError
     materials: [
       { key: "id", label: "id" },
       { key: "name", label: "name" },
-      { key: "E", label: `E (${F}/${L}²)`, numeric: true },
+      { key: "E", label: `E (${stressUnit})`, numeric: true },
       { key: "density", label: `density (${units.mass}/${L}³)`, numeric: true },
-      { key: "allowableTension", label: `allowable tension (${F}/${L}²)`, numeric: true },
-      { key: "allowableCompression", label: `allowable compression (${F}/${L}²)`, numeric: true },
+      { key: "allowableTension", label: `allowable tension (${stressUnit})`, numeric: true },
+      { key: "allowableCompression", label: `allowable compression (${stressUnit})`, numeric: true },
     ],
   };
   const supportRows = tables.nodes.map((n, i) => ({ n, i })).filter(({ n }) => n.fixed?.trim());

@@ -5,7 +5,7 @@ import type { TrussResult } from "~/engine/design/result-types";
 import { formatNumber, formatPercent } from "~/lib/format";
 import { steppedByWords } from "~/lib/results/catalogue-words";
 
-export function CatalogueDesignPanel({ result }: { result: Pick<TrussResult, "catalogue" | "objective" | "units"> }) {
+export function CatalogueDesignPanel({ result }: { result: Pick<TrussResult, "catalogue" | "objective" | "units"> & Partial<Pick<TrussResult, "loadCases" | "combinations" | "members">> }) {
   const c = result.catalogue;
   if (!c) return null;
   const kind = result.objective.kind;
@@ -81,7 +81,7 @@ export function CatalogueDesignPanel({ result }: { result: Pick<TrussResult, "ca
                 <td className="font-mono text-xs">{ch.section}</td>
                 <td className="num">{formatNumber(ch.area)}</td>
                 <td className="num">{ch.continuousArea > 0 ? formatPercent(ch.area / ch.continuousArea - 1) : "–"}</td>
-                <td>{steppedByWords(ch.steppedBy)}</td>
+                <td>{steppedByWords(ch.steppedBy, result)}</td>
               </tr>
             ))}
           </tbody>

@@ -2,7 +2,7 @@
 // displacement against its deflection limit, with the node and the direction.
 import type { TrussResult } from "~/engine/design/result-types";
 import { formatPercent, quantityFormatter, type QuantityFormatter } from "~/lib/format";
-import { caseWords } from "~/lib/results/criterion-words";
+import { caseWords } from "~/lib/results/cases";
 import { isOverLimit } from "~/lib/utilization-scale";
 
 type Head = Pick<TrussResult, "deflections" | "units" | "loadCases" | "combinations">;

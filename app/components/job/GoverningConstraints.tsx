@@ -3,9 +3,9 @@
 import type { TrussResult } from "~/engine/design/result-types";
 import { formatResidual } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
-import { describeConstraint } from "./constraint-words";
+import { constraintWords } from "~/lib/results/constraint-words";
 
-type WithLimits = Pick<TrussResult, "shadowPrices" | "activeConstraints" | "objective">;
+type WithLimits = Pick<TrussResult, "shadowPrices" | "activeConstraints" | "objective"> & Partial<Pick<TrussResult, "loadCases" | "combinations" | "members">>;
 
 /** `total`: how many active limits the whole result has, when `result` carries only the first ones. */
 export function GoverningConstraints({ result, limit = 12, total }: { result: WithLimits; limit?: number; total?: number }) {
@@ -15,13 +15,13 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
           id: p.constraint,
           multiplier: p.multiplier,
           unit: p.unit,
-          sentence: p.sentence || `Relaxing the ${describeConstraint(p.constraint)} by one unit would change the ${result.objective.kind} by about ${formatResidual(p.multiplier)} ${p.unit}.`,
+          sentence: p.sentence || `Relaxing the ${constraintWords(p.constraint, result)} by one unit would change the ${result.objective.kind} by about ${formatResidual(p.multiplier)} ${p.unit}.`,
         }))
       : result.activeConstraints.map((a) => ({
           id: a.id,
           multiplier: a.multiplier,
           unit: "",
-          sentence: `Relaxing the ${describeConstraint(a.id)} by one unit would change the ${result.objective.kind} by about ${formatResidual(a.multiplier)}.`,
+          sentence: `Relaxing the ${constraintWords(a.id, result)} by one unit would change the ${result.objective.kind} by about ${formatResidual(a.multiplier)}.`,
         }));
   // shadow prices come ranked by the engine on a unit-free scale; raw multipliers of different
   // units cannot be compared, so only the fallback list is ordered here
@@ -35,8 +35,8 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
         {shown.map((r) => (
           <li key={r.id} className="rounded-md border border-rule px-3 py-2">
             <div className="flex flex-wrap items-baseline justify-between gap-x-4">
-              <span className="min-w-0 text-xs text-ink-muted" title={r.id}>
-                {describeConstraint(r.id)}
+              <span className="min-w-0 text-xs text-ink-muted" title={`check id: ${r.id}`}>
+                {constraintWords(r.id, result)}
               </span>
               <span className="num text-sm text-ink" title="shadow price (Lagrange multiplier)">
                 {formatResidual(r.multiplier)} {r.unit}
@@ -52,7 +52,7 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
           <ul className="mt-2 space-y-1">
             {rows.slice(limit).map((r) => (
               <li key={r.id} className="flex gap-3">
-                <span className="text-xs text-ink-muted" title={r.id}>{describeConstraint(r.id)}</span>
+                <span className="text-xs text-ink-muted" title={`check id: ${r.id}`}>{constraintWords(r.id, result)}</span>
                 <span className="num">{formatResidual(r.multiplier)} {r.unit}</span>
               </li>
             ))}

@@ -1,5 +1,5 @@
 // What happened in a run and, when it did not reach an optimum, what to try next.
-import { OUTCOME_WORDS } from "./constraint-words";
+import { OUTCOME_WORDS } from "./result-words";
 
 export function OutcomePanel({
   status,

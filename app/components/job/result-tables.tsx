@@ -12,6 +12,7 @@ import { UtilizationChip } from "~/components/viewer/UtilizationKey";
 import { governingCaseOf } from "~/lib/results/cases";
 import { membersCsv, nodesCsv } from "~/lib/results/result-csv";
 import { CaseSelect, useResultCase } from "./ResultCase";
+import { governingCheckWords } from "~/lib/results/constraint-words";
 
 interface Topology {
   members: Map<string, { start: string; end: string; group?: string }>;
@@ -108,7 +109,7 @@ export function MemberTable({
       ...(withK ? [col.accessor((m) => m.bucklingFactor ?? null, { id: "k", header: "buckling factor k", cell: (c) => formatNumber(c.getValue(), { sig: 3 }), meta: { numeric: true } })] : []),
       col.accessor((m) => `${m.start ?? topology.members.get(m.id)?.start ?? "?"}–${m.end ?? topology.members.get(m.id)?.end ?? "?"}`, { id: "nodes", header: "nodes" }),
       col.accessor((m) => m.group ?? topology.members.get(m.id)?.group ?? "", { id: "group", header: "group" }),
-      col.accessor((m) => m.governing ?? "", { id: "governing", header: "governed by" }),
+      col.accessor((m) => governingCheckWords(m.governing), { id: "governing", header: "governed by" }),
       ...(lcs.length > 1 ? [col.accessor((m) => governingCaseOf(m, lcs) ?? "", { id: "governingCase", header: "governing case" })] : []),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps

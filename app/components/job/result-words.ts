@@ -24,3 +24,21 @@ export function viewerTitle(outcome: string | null | undefined): string {
 export function countOf(n: number, one: string, many: string): string {
   return `${n} ${n === 1 ? one : many}`;
 }
+
+/** What the solver outcome means for the engineer, when the result carries no hint. */
+export const OUTCOME_WORDS: Record<string, { title: string; tryThis: string }> = {
+  optimal: { title: "Converged to an optimum", tryThis: "" },
+  analysed: { title: "Analysed as given", tryThis: "" },
+  "not-converged": {
+    title: "Stopped before converging",
+    tryThis: "Raise the iteration cap, loosen the tolerance, or start from areas closer to the expected design.",
+  },
+  infeasible: {
+    title: "No design meets every limit",
+    tryThis: "Relax the tightest limits (displacement, volume), widen the area bounds, or add members where the truss is overstressed.",
+  },
+  failed: {
+    title: "The solver could not finish",
+    tryThis: "Check the model for nearly unstable parts and very different member sizes; re-run, or queue it with the other formulation.",
+  },
+};

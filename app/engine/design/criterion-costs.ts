@@ -18,6 +18,8 @@ import type { CriterionCost, CriterionKind, CriterionPlace } from "./result-type
 import { designState, type DesignProblem } from "./problem";
 import { eulerStress } from "./buckling";
 import { memberLengths } from "./element";
+import { unitLabel } from "../truss/units";
+import type { Units } from "../truss/schema";
 
 /** the relaxation every saving is quoted for */
 export const RELAXATION = 0.01;
@@ -34,7 +36,7 @@ interface Draft extends Omit<CriterionCost, "share" | "places"> {
 export function criterionCosts(p: DesignProblem, r: SqpResult, objectiveScale: number, objectiveFinal: number): CriterionCost[] {
   const s = p.structure;
   const u = p.model.units;
-  const stressUnit = `${u.force}/${u.length}²`;
+  const stressUnit = unitLabel("stress", u as Units);
   const drafts = new Map<string, Draft>();
   const open = (id: string, kind: CriterionKind, subject: string, value: number, unit: string, extra: Partial<Draft> = {}): Draft => {
     let d = drafts.get(id);

@@ -12,6 +12,8 @@
 import type { SqpResult } from "../sqp";
 import type { ActiveConstraint, ShadowPrice } from "./result-types";
 import type { DesignProblem, Limit } from "./problem";
+import { unitLabel } from "../truss/units";
+import type { Units } from "../truss/schema";
 
 /** multipliers below this (scaled, dimensionless) count as zero */
 const MULTIPLIER_FLOOR = 1e-9;
@@ -30,7 +32,7 @@ export interface PricedConstraint {
 function limitWords(p: DesignProblem, lim: Limit): { what: string; relaxUnit: string } {
   const s = p.structure;
   const u = p.model.units;
-  const stress = `${u.force}/${u.length}²`;
+  const stress = unitLabel("stress", u as Units);
   const lc = lim.loadCase >= 0 ? s.responseIds[lim.loadCase] : "";
   switch (lim.kind) {
     case "stress-tension":

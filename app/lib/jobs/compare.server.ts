@@ -11,6 +11,7 @@ import { isMember, type SessionUser } from "~/lib/access.server";
 import { getJobResult } from "~/lib/jobs/queue.server";
 import { latestDecisions } from "~/lib/jobs/review-state.server";
 import { notFound } from "~/lib/http.server";
+import { constraintKindWords } from "~/lib/results/constraint-words";
 
 /** More runs than this do not fit side by side on a desktop; the page says so. */
 export const COMPARE_MAX = 6;
@@ -54,25 +55,11 @@ export function parseJobIds(param: string | null): string[] {
   return [...new Set((param ?? "").split(",").map((s) => s.trim()).filter(Boolean))];
 }
 
-const LIMIT_KINDS: Record<string, string> = {
-  stress: "stress",
-  "stress-tension": "stress",
-  "stress-compression": "stress",
-  buckling: "buckling",
-  displacement: "displacement",
-  volume: "volume",
-  "area-min": "minimum size",
-  "area-max": "maximum size",
-  "shape-min": "shape bound",
-  "shape-max": "shape bound",
-  equilibrium: "equilibrium",
-};
-
 /** Active limits counted by what they are, in plain words ("stress": 12, "minimum size": 3). */
 export function governingKinds(active: { id: string }[]): { kind: string; count: number }[] {
   const counts = new Map<string, number>();
   for (const a of active) {
-    const k = LIMIT_KINDS[a.id.split(":")[0] ?? ""] ?? "other";
+    const k = constraintKindWords(a.id);
     counts.set(k, (counts.get(k) ?? 0) + 1);
   }
   return [...counts].map(([kind, count]) => ({ kind, count })).sort((a, b) => b.count - a.count || a.kind.localeCompare(b.kind));

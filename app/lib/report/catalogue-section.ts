@@ -44,7 +44,7 @@ export function catalogueSection(w: ReportWriter, data: ReportData) {
       { header: `Area (${u.area})`, weight: 2.2, align: "right" },
       { header: "Kept from the next lighter section by", weight: 5 },
     ],
-    c.choices.map((ch) => [ch.id, String(ch.members), formatNumber(ch.continuousArea), ch.section, formatNumber(ch.area), steppedByWords(ch.steppedBy)]),
+    c.choices.map((ch) => [ch.id, String(ch.members), formatNumber(ch.continuousArea), ch.section, formatNumber(ch.area), steppedByWords(ch.steppedBy, r)]),
     { title: "Section of each variable" },
   );
   w.doc.fillColor(INK);

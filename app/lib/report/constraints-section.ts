@@ -3,9 +3,10 @@
 // design criterion by 1 % would save, and the worst deflection of each case; section 5, the
 // independent verification checks of the final design.
 import type { VerificationCheck } from "~/engine/design/result-types";
-import { formatNumber, formatPercent, formatResidual } from "~/lib/format";
+import { formatPercent, formatResidual, quantityFormatter } from "~/lib/format";
+import { constraintQuantity, constraintWords } from "~/lib/results/constraint-words";
 import type { ReportWriter } from "./layout";
-import { BAD, INK, OK } from "./palette";
+import { BAD, INK, INK_MUTED, OK } from "./palette";
 import type { ReportData } from "./report-data";
 import { table } from "./tables";
 import { criterionCostsPart, deflectionsPart, governingLimits, sizeBounds } from "./governing-section";
@@ -34,19 +35,29 @@ export function constraintsSection(w: ReportWriter, data: ReportData) {
     ["Equilibrium residual", `${formatResidual(v.equilibriumResidual)} (largest |K u − f| over |f|, all load cases)`],
     ["Largest utilization", formatPercent(v.maxUtilization)],
   ]);
+  const q = quantityFormatter(r.units);
+  // members with their nodes, cases by id only: a case's name would not fit the row (section 2 names them)
+  const ctx = { members: r.members };
+  // each check in words with its value and limit in their unit; the engine's id stays in a
+  // last, labelled column for whoever traces a check back to the result JSON
   const checkTable = (title: string, checks: VerificationCheck[]) =>
     table(
       w,
       [
-        { header: "Check", weight: 4 },
-        { header: "Kind", weight: 2 },
-        { header: "Value", weight: 2, align: "right" },
-        { header: "Limit", weight: 2, align: "right" },
-        { header: "Ratio", weight: 1.8, align: "right" },
-        { header: "Result", weight: 1.4 },
+        { header: "Check", weight: 7 },
+        { header: "Value", weight: 1.7, align: "right" },
+        { header: "Limit", weight: 1.7, align: "right" },
+        { header: "Unit", weight: 1.1 },
+        { header: "Ratio", weight: 1.5, align: "right" },
+        { header: "Result", weight: 1.3 },
+        { header: "Check id", weight: 2.6, face: "mono" },
       ],
-      checks.map((c) => [c.id, c.kind, formatNumber(c.value), formatNumber(c.limit), formatPercent(c.ratio), c.ok ? "met" : "FAILED"]),
-      { title, cellColor: (i, col) => (col === 5 ? (checks[i]!.ok ? OK : BAD) : undefined) },
+      checks.map((c) => {
+        const quantity = constraintQuantity(c.id);
+        const num = (x: number) => (quantity ? q.number(x, quantity) : formatResidual(x));
+        return [constraintWords(c.id, ctx), num(c.value), num(c.limit), quantity ? q.unit(quantity) : "ratio", formatPercent(c.ratio), c.ok ? "met" : "FAILED", c.id];
+      }),
+      { title, cellColor: (i, col) => (col === 5 ? (checks[i]!.ok ? OK : BAD) : col === 6 ? INK_MUTED : undefined) },
     );
   if (v.failures.length) checkTable("Failed checks", v.failures);
   if (v.worst.length) checkTable("Closest to their limits", v.worst);

@@ -5,48 +5,21 @@
 import type { ShadowPrice, TrussResult } from "~/engine/design/result-types";
 import { areaBoundsRule } from "~/engine/design/problem";
 import { formatNumber, formatPercent, quantityFormatter } from "~/lib/format";
-import { bindingCriteria, caseWords, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
+import { caseWords } from "~/lib/results/cases";
+import { constraintQuantity, constraintWords } from "~/lib/results/constraint-words";
+import { bindingCriteria, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
 import { isOverLimit } from "~/lib/utilization-scale";
 import type { ReportWriter } from "./layout";
 import { BAD, INK_MUTED } from "./palette";
 import type { ReportData } from "./report-data";
 import { table } from "./tables";
-import { objectiveUnit, unitLabels } from "./units";
+import { objectiveUnit } from "./units";
 
-/** "stress:AB:LC1" → "the stress limit of member AB in load case LC1", for ids without a sentence. */
-export function describeConstraint(id: string): string {
-  const p = id.split(":");
-  switch (p[0]) {
-    case "stress":
-      return `the stress limit of member ${p[1]}${p[2] ? ` in load case ${p[2]}` : ""}`;
-    case "buckling":
-      return `the buckling limit of member ${p[1]}${p[2] ? ` in load case ${p[2]}` : ""}`;
-    case "displacement":
-      return `the displacement limit of node ${p[1]} along ${p[2]}${p[3] ? ` in load case ${p[3]}` : ""}`;
-    case "volume":
-      return "the volume limit";
-    case "area-min":
-      return `the lower area bound of ${p[1]}`;
-    case "area-max":
-      return `the upper area bound of ${p[1]}`;
-    case "shape-min":
-      return `the lower bound of shape variable ${p[1]}`;
-    case "shape-max":
-      return `the upper bound of shape variable ${p[1]}`;
-    default:
-      return `the constraint ${id}`;
-  }
-}
-
+/** The unit of a shadow price: the objective's per the limit's quantity ("t per MPa"). */
 function priceUnit(id: string, r: TrussResult): string {
-  const u = unitLabels(r.units);
-  const obj = objectiveUnit(r.objective.kind, r.units);
-  const kind = id.split(":")[0];
-  if (kind === "stress" || kind === "buckling") return `${obj} per ${u.stress}`;
-  if (kind === "displacement" || kind?.startsWith("shape")) return `${obj} per ${u.length}`;
-  if (kind === "volume") return `${obj} per ${u.volume}`;
-  if (kind?.startsWith("area")) return `${obj} per ${u.area}`;
-  return `${obj} per unit`;
+  const q = quantityFormatter(r.units);
+  const quantity = constraintQuantity(id);
+  return `${objectiveUnit(r.objective.kind, r.units)} per ${quantity ? q.unit(quantity) : "unit"}`;
 }
 
 /** The result's own shadow prices, or ones worded here from the active constraints. */
@@ -55,7 +28,7 @@ export function shadowPrices(r: TrussResult): ShadowPrice[] {
   const obj = objectiveUnit(r.objective.kind, r.units);
   return r.activeConstraints.map((a) => {
     const unit = priceUnit(a.id, r);
-    const what = describeConstraint(a.id);
+    const what = `the ${constraintWords(a.id, r)}`;
     return {
       constraint: a.id,
       multiplier: a.multiplier,
@@ -87,7 +60,8 @@ export function governingLimits(w: ReportWriter, r: TrussResult) {
       { header: "Shadow price", weight: 2, align: "right" },
       { header: "Unit", weight: 2.2 },
     ],
-    limits.map((p) => [describeConstraint(p.constraint).replace(/^the /, ""), formatNumber(p.multiplier, { sig: 3 }), p.unit]),
+    // the unit is spelled here, not taken from the stored price, so older results read as new ones
+    limits.map((p) => [constraintWords(p.constraint, r), formatNumber(p.multiplier, { sig: 3 }), priceUnit(p.constraint, r)]),
   );
 }
 
@@ -131,7 +105,7 @@ export function sizeBounds(w: ReportWriter, data: ReportData) {
   const atMax = on.filter((v) => v.side === "maximum");
   if (atMax.length) w.paragraph(`At their maximum area: ${words(atMax)}.`, { size: 9 });
   const shape = r.activeConstraints.filter((a) => /^shape-(min|max):/.test(a.id));
-  if (shape.length) w.paragraph(`Shape variables at the end of their range: ${shape.map((a) => describeConstraint(a.id).replace(/^the /, "")).join(", ")}.`, { size: 9 });
+  if (shape.length) w.paragraph(`Shape variables at the end of their range: ${shape.map((a) => constraintWords(a.id, r)).join(", ")}.`, { size: 9 });
 }
 
 export function criterionCostsPart(w: ReportWriter, r: TrussResult) {

@@ -12,6 +12,7 @@ import { chunks, table } from "./tables";
 import { drawingInput, trussDrawing } from "./truss-drawing";
 import { objectiveUnit, unitLabels } from "./units";
 import { resultCases } from "~/lib/results/cases";
+import { governingCheckWords } from "~/lib/results/constraint-words";
 
 export function loadCaseIds(data: ReportData): { id: string; name?: string }[] {
   if (data.result.loadCases?.length) return resultCases(data.result); // load cases, then combinations
@@ -84,7 +85,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
       formatNumber(m.length, { sig: 5 }),
       ...(withK ? [formatNumber(m.bucklingFactor, { sig: 3 })] : []),
       formatPercent(m.utilization),
-      m.governing ?? "",
+      governingCheckWords(m.governing),
     ]),
     {
       title: `${r.members.length} members`,

@@ -1,21 +1,23 @@
-// Unit labels derived from the model's declared units (docs/model-format.md: stress is force per
-// length squared, volume is length cubed).
+// Unit symbols of the report, in the model's declared units, spelled by the one formatter
+// (app/lib/format.ts): stress reads "MPa" for N and mm in the tables as in the sentences.
 import type { Units } from "~/engine/design/result-types";
+import { quantityFormatter } from "~/lib/format";
 
 export function unitLabels(u: Units) {
+  const q = quantityFormatter(u);
   return {
-    length: u.length,
-    force: u.force,
-    mass: u.mass,
-    area: `${u.length}²`,
-    stress: `${u.force}/${u.length}²`,
-    volume: `${u.length}³`,
-    density: `${u.mass}/${u.length}³`,
+    length: q.unit("length"),
+    force: q.unit("force"),
+    mass: q.unit("mass"),
+    area: q.unit("area"),
+    stress: q.unit("stress"),
+    volume: q.unit("volume"),
+    density: q.unit("density"),
   };
 }
 
 export type UnitLabels = ReturnType<typeof unitLabels>;
 
 export function objectiveUnit(kind: "mass" | "compliance", u: Units): string {
-  return kind === "mass" ? u.mass : `${u.force}·${u.length}`;
+  return quantityFormatter(u).unit(kind);
 }

@@ -4,6 +4,7 @@
 import type { CriterionCost, CriterionPlace, DeflectionSummary, TrussResult } from "~/engine/design/result-types";
 import { formatNumber, formatPercent, quantityFormatter, type QuantityFormatter } from "~/lib/format";
 import type { Quantity } from "~/engine/truss/units";
+import { caseWords } from "./cases";
 
 type Facts = Pick<TrussResult, "objective" | "units" | "loadCases" | "combinations"> & { members?: TrussResult["members"] };
 
@@ -79,13 +80,6 @@ export function savingText(c: CriterionCost, r: Facts, q?: QuantityFormatter): s
 export function shareText(share: number): string {
   if (share > 0 && share < 1e-4) return "below 0.01 %";
   return formatPercent(share, share >= 1e-3 ? 1 : 2);
-}
-
-/** The plain name of a load case or combination: "Snow (G+S)", or the id when it has no name. */
-export function caseWords(id: string | undefined, r: Pick<TrussResult, "loadCases" | "combinations">): string {
-  if (!id) return "";
-  const named = r.loadCases?.find((l) => l.id === id)?.name ?? r.combinations?.find((c) => c.id === id)?.name;
-  return named ? `${named} (${id})` : id;
 }
 
 /** "member U4-U5 under G+S", "node C in y under SLS", "group diagonals" (case ids: a list names many) */
