@@ -1,14 +1,17 @@
-// Design benchmark: time, iterations and analyses to the optimum for the ten-bar benchmark and
-// generated planar ground structures of about 100, 400, 1,000 and 2,500 members (minimum mass
-// under a tip deflection limit, minimum compliance under a volume limit), nested beside
-// simultaneous, beside scipy SLSQP (tests/python/slsqp_truss.py, same scaled variables, same
-// ratio limits, same analytic gradients) when python3-scipy is present, with the time ratio.
-// Peak memory (RSS, sampled every iteration) is printed per run. Models under 200 members are
-// solved once untimed before the timed run (JIT warm-up; scipy's time is taken after its imports).
+// Design benchmark, whole process against scipy SLSQP in the same run: the ten-bar benchmark
+// and generated planar ground structures of about 100, 400, 1,000 and 2,500 members (minimum
+// mass under a tip deflection limit, minimum compliance under a volume limit), then the
+// stress-limited layout studies (minimum mass under stress limits and a tip deflection of
+// span/250) on the 1,041- and 2,560-member ground structures.
 //
-// Then the stress-limited layout studies (minimum mass under stress limits and a tip deflection
-// of span/250) on the 1,041- and 2,560-member ground structures, nested, beside scipy, with the
-// targets: optimal in under 60 s (about 1,000 members) and under 600 s (about 2,500).
+// Every run is a process of its own timed from spawn to exit (bench/design-runs.ts): ours is
+// the `optimize` command as shipped, scipy is tests/python/slsqp_truss.py (same scaled
+// variables, same ratio limits, same analytic gradients, one start). The ratio is ours/scipy;
+// the targets (issue 17): at most 1.0 on every model, at most 0.2 from 1,000 members, and the
+// stress-limited layouts optimal in under 60 s (about 1,000 members) and 600 s (about 2,500).
+// Models with several starts by default also run with one start, so the ratio is printed for
+// like against like beside the shipped default. Models under 200 members run three times,
+// interleaved with scipy, and keep each side's fastest time (the machine is shared).
 //
 // Each run is capped so the benchmark ends in reasonable time; a capped run prints its status
 // (not-converged) and a scipy run stopped by its cap prints "> cap" (the ratio is then a bound).
@@ -17,15 +20,16 @@
 //   DESIGN_BENCH_SCIPY_LIMIT_S  cap per scipy run, default 120
 //   DESIGN_BENCH_MAX_MEMBERS    largest ground structure to run, default 3000
 //   DESIGN_BENCH_SIMULTANEOUS_MAX  largest member count for the simultaneous runs, default 3000
+//   DESIGN_BENCH_REPEAT         runs per side on models under 200 members, default 3
 import fs from "node:fs";
+import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { buildStructure, trussModelSchema, type TrussModel } from "../app/engine/truss";
-import { optimizeModel } from "../app/engine/design";
-import { buildDesignProblem } from "../app/engine/design/problem";
-import { nestedFormulation } from "../app/engine/design/nested";
+import { trussModelSchema, type TrussModel } from "../app/engine/truss";
+import { plannedStarts } from "../app/engine/design";
 import { groundStructure } from "../tests/engine/design/ground-structure";
-import { runSlsqp, scipyPython } from "../tests/engine/design/slsqp-reference";
+import { ensureToolsBundle } from "../scripts/tools-bundle.mjs";
+import { faster, hasScipy, oursWholeProcess, scipyWholeProcess, type OursSetup, type Run } from "./design-runs";
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 const limitS = Number(process.env.DESIGN_BENCH_LIMIT_S ?? 90);
@@ -33,95 +37,93 @@ const scipyLimitS = Number(process.env.DESIGN_BENCH_SCIPY_LIMIT_S ?? 120);
 const stressLimitS = Number(process.env.DESIGN_BENCH_STRESS_LIMIT_S ?? 600);
 const maxMembers = Number(process.env.DESIGN_BENCH_MAX_MEMBERS ?? 3000);
 const simMax = Number(process.env.DESIGN_BENCH_SIMULTANEOUS_MAX ?? 3000);
-const hasScipy = scipyPython() !== null;
+const repeat = Number(process.env.DESIGN_BENCH_REPEAT ?? 3);
+/** Models this small are run `repeat` times per side: a run takes about a second, load swings as much. */
+const REPEAT_BELOW = 200;
+/** Targets of issue 17 for ours/scipy, whole process. */
+const RATIO_TARGET = 1.0;
+const LARGE_RATIO_TARGET = 0.2;
+const LARGE_FROM_MEMBERS = 1000;
+
 if (!hasScipy) console.log("!!! python3-scipy not found: the SLSQP columns are left empty (apt-get install -y python3-scipy) !!!");
+await ensureToolsBundle(); // the bundle is made before any timing, never during it
 
-interface Row {
-  problem: string;
-  members: number;
-  run: string;
-  status: string;
-  seconds: number;
-  iterations: number;
-  analyses: number;
-  objective: number;
-  peakMiB: number;
-}
+console.log(
+  "Whole process, spawn to exit, on both sides.\n" +
+    "  ours:  node scripts/run-tool.mjs optimize model.truss.json (what `npm run optimize` runs): reads and checks the\n" +
+    "         model, solves the least-mass LP (HiGHS) for a start and the lower bound, runs the starts (default 6 up to\n" +
+    "         300 design variables, in solver threads from 40 members, else 1), re-analyses, writes the result JSON.\n" +
+    "  scipy: python3 tests/python/slsqp_truss.py: imports numpy and scipy, one SLSQP run from the model's own areas\n" +
+    "         with analytic gradients; no LP, no re-analysis.\n" +
+    "  ratio = ours/scipy process time (below 1: ours is faster). 'solve' is the solver's own time inside the process.",
+);
+console.log("\nmembers  run                    status             process     solve  iters  analyses      objective       peak  ours/scipy  target");
 
-function mib(bytes: number) {
-  return bytes / (1 << 20);
-}
-
-/** Models this small run once untimed first: otherwise the JIT's warm-up is most of the time. */
-const WARM_UP_BELOW = 200;
-
-function ours(model: TrussModel, formulation: "nested" | "simultaneous", capS = limitS): Row {
-  if (model.members.length < WARM_UP_BELOW) optimizeModel(model, { formulation });
-  (globalThis as { gc?: () => void }).gc?.();
-  let peak = process.memoryUsage().rss;
-  const t = performance.now();
-  const r = optimizeModel(model, {
-    formulation,
-    timeLimitMs: capS * 1000,
-    onProgress: () => {
-      peak = Math.max(peak, process.memoryUsage().rss);
-    },
-  });
-  const seconds = (performance.now() - t) / 1000;
-  peak = Math.max(peak, process.memoryUsage().rss);
-  return {
-    problem: model.name, members: model.members.length, run: formulation, status: r.status, seconds,
-    iterations: r.iterations, analyses: r.analyses, objective: r.objective.final, peakMiB: mib(peak),
-  };
-}
-
-function scipy(model: TrussModel): Row | null {
-  if (!hasScipy) return null;
-  const p = buildDesignProblem(model, buildStructure(model), {});
-  const f0 = nestedFormulation(p).objectiveScale;
-  const t = performance.now();
-  try {
-    // SLSQP stops itself at the cap and reports the iterations it did; the kill is a backstop
-    const r = runSlsqp(p, f0, { maxiter: 3000, maxSeconds: scipyLimitS, timeoutMs: (scipyLimitS + 120) * 1000 })!;
-    return {
-      problem: model.name, members: model.members.length, run: "scipy SLSQP", status: r.success ? "optimal" : r.message,
-      seconds: r.seconds, iterations: r.nit, analyses: r.capped ? NaN : r.nfev, objective: r.capped ? NaN : r.f, peakMiB: NaN,
-    };
-  } catch {
-    return {
-      problem: model.name, members: model.members.length, run: "scipy SLSQP", status: `stopped at the ${scipyLimitS} s cap`,
-      seconds: (performance.now() - t) / 1000, iterations: NaN, analyses: NaN, objective: NaN, peakMiB: NaN,
-    };
+function setupsFor(model: TrussModel, capS: number, formulations: ("nested" | "simultaneous")[]): OursSetup[] {
+  const setups: OursSetup[] = [];
+  for (const formulation of formulations) {
+    setups.push({ formulation, capS });
+    if (plannedStarts(model, { formulation }) > 1) setups.push({ formulation, starts: 1, capS });
   }
+  return setups;
 }
 
-function print(rows: Row[], ref: Row | null) {
-  for (const r of rows) {
-    const ratio = ref ? ref.seconds / r.seconds : NaN;
-    const gap = ref && Number.isFinite(ref.objective) ? (r.objective - ref.objective) / ref.objective : NaN;
-    const capped = ref && !Number.isFinite(ref.objective) ? ">" : "";
-    console.log(
-      [
-        String(r.members).padStart(5), r.run.padEnd(13), r.status.padEnd(14).slice(0, 30),
-        `${r.seconds.toFixed(2)} s`.padStart(10), String(r.iterations).padStart(5), String(r.analyses).padStart(6),
-        r.objective.toPrecision(8).padStart(14),
-        Number.isFinite(r.peakMiB) ? `${r.peakMiB.toFixed(0)} MiB`.padStart(9) : "".padStart(9),
-        r.iterations > 0 ? `${((1000 * r.seconds) / r.iterations).toFixed(1)} ms/iter`.padStart(14) : "".padStart(14),
-        Number.isFinite(ratio) && r.run !== "scipy SLSQP" ? `scipy/ours ${capped}${ratio.toFixed(2)}x` : "",
-        Number.isFinite(gap) && r.run !== "scipy SLSQP" ? `objective vs scipy ${(100 * gap).toExponential(1)}%` : "",
-      ].join("  "),
-    );
+function load(): string {
+  return `load ${os.loadavg().map((l) => l.toFixed(2)).join(" ")}`;
+}
+
+function fmt(v: number, digits: number, unit = ""): string {
+  return Number.isFinite(v) ? `${v.toFixed(digits)}${unit}` : "";
+}
+
+function printRow(members: number, r: Run, ref: Run | null, target: number) {
+  const ratio = ref && r !== ref ? r.processS / ref.processS : NaN;
+  const bound = ref?.capped ? "<" : "";
+  const gap = ref && r !== ref && Number.isFinite(ref.objective) ? (r.objective - ref.objective) / ref.objective : NaN;
+  console.log(
+    [
+      String(members).padStart(7), r.label.padEnd(22), r.status.slice(0, 30).padEnd(16),
+      fmt(r.processS, 2, " s").padStart(9), fmt(r.solveS, 2, " s").padStart(9), String(r.iterations).padStart(6), String(r.analyses).padStart(9),
+      (Number.isFinite(r.objective) ? r.objective.toPrecision(8) : "").padStart(14), fmt(r.peakMiB, 0, " MiB").padStart(10),
+      (Number.isFinite(ratio) ? `${bound}${ratio.toFixed(2)}` : "").padStart(10),
+      Number.isFinite(ratio) ? (ratio <= target ? "  met" : "  NOT met") : "",
+      Number.isFinite(gap) ? `  objective vs scipy ${(100 * gap).toExponential(1)} %` : "",
+    ].join(" "),
+  );
+}
+
+/** Runs ours (each setup) and scipy, interleaved, prints the rows and the model's verdict. */
+function compare(title: string, model: TrussModel, setups: OursSetup[]): Run[] {
+  const members = model.members.length;
+  const target = members >= LARGE_FROM_MEMBERS ? LARGE_RATIO_TARGET : RATIO_TARGET;
+  console.log(`\n-- ${title} (${load()})`);
+  const rounds = members < REPEAT_BELOW ? repeat : 1;
+  const ours: (Run | null)[] = setups.map(() => null);
+  let ref: Run | null = null;
+  for (let round = 0; round < rounds; round++) {
+    setups.forEach((s, i) => (ours[i] = faster(ours[i], oursWholeProcess(model, s))));
+    ref = faster(ref, scipyWholeProcess(model, scipyLimitS));
   }
+  const runs = ours as Run[];
+  for (const r of runs) printRow(members, r, ref, target);
+  if (ref) printRow(members, ref, ref, target);
+  if (!ref || !Number.isFinite(ref.processS)) {
+    console.log("   verdict: no scipy time to compare with");
+    return runs;
+  }
+  const ratios = runs.map((r) => ({ label: r.label, ratio: r.processS / ref.processS }));
+  const missed = ratios.filter((r) => !(r.ratio <= target));
+  const list = (rs: typeof ratios) => rs.map((r) => `${r.label} ${r.ratio.toFixed(2)}`).join("; ");
+  console.log(
+    missed.length === 0
+      ? `   verdict: ours/scipy <= ${target.toFixed(1)} met by every run (${list(ratios)})${rounds > 1 ? `, fastest of ${rounds} each` : ""}; ${load()}`
+      : `   verdict: ours/scipy <= ${target.toFixed(1)} NOT met by ${list(missed)}${rounds > 1 ? `, fastest of ${rounds} each` : ""}; ${load()}`,
+  );
+  return runs;
 }
 
-console.log("members  run            status               time  iters  analyses      objective      peak     per iteration");
 const tenBar = trussModelSchema.parse(JSON.parse(fs.readFileSync(path.join(here, "../tests/fixtures/models/design/ten-bar.truss.json"), "utf8")));
-console.log(`\n-- ${tenBar.name}`);
-{
-  const rows = [ours(tenBar, "nested"), ours(tenBar, "simultaneous")];
-  const ref = scipy(tenBar);
-  print(ref ? [...rows, ref] : rows, ref);
-}
+compare(tenBar.name, tenBar, setupsFor(tenBar, limitS, ["nested", "simultaneous"]));
 
 const grids = [
   { nx: 6, ny: 4, reach: 2 }, // ~110 members
@@ -133,11 +135,9 @@ for (const g of grids) {
   for (const objective of ["mass", "compliance"] as const) {
     const model = trussModelSchema.parse(groundStructure({ ...g, objective, stress: false, deflection: 8 }));
     if (model.members.length > maxMembers) continue;
-    console.log(`\n-- ${model.name}, ${objective === "mass" ? "minimum mass, tip deflection limit" : "minimum compliance, volume limit"}`);
-    const rows = [ours(model, "nested")];
-    if (model.members.length <= simMax) rows.push(ours(model, "simultaneous"));
-    const ref = scipy(model);
-    print(ref ? [...rows, ref] : rows, ref);
+    const formulations: ("nested" | "simultaneous")[] = model.members.length <= simMax ? ["nested", "simultaneous"] : ["nested"];
+    const what = objective === "mass" ? "minimum mass, tip deflection limit" : "minimum compliance, volume limit";
+    compare(`${model.name}, ${what}`, model, setupsFor(model, limitS, formulations));
   }
 }
 
@@ -149,10 +149,8 @@ const stressTargets = [
 for (const g of stressTargets) {
   const model = trussModelSchema.parse(groundStructure({ ...g, objective: "mass", stress: true }));
   if (model.members.length > maxMembers) continue;
-  console.log(`\n-- ${model.name}, minimum mass, stress limits and tip deflection span/250 (target: optimal in under ${g.targetS} s)`);
-  const rows = [ours(model, "nested", stressLimitS)];
-  const ref = scipy(model);
-  print(ref ? [...rows, ref] : rows, ref);
-  const r = rows[0];
-  console.log(`   target ${r.status === "optimal" && r.seconds < g.targetS ? "met" : "NOT met"}: ${r.status} in ${r.seconds.toFixed(1)} s (target < ${g.targetS} s), peak ${r.peakMiB.toFixed(0)} MiB`);
+  const title = `${model.name}, minimum mass, stress limits and tip deflection span/250 (target: optimal in under ${g.targetS} s)`;
+  const [r] = compare(title, model, setupsFor(model, stressLimitS, ["nested"]));
+  const met = r.status === "optimal" && r.processS < g.targetS;
+  console.log(`   target ${met ? "met" : "NOT met"}: ${r.status} in ${r.processS.toFixed(1)} s (target < ${g.targetS} s), peak ${r.peakMiB.toFixed(0)} MiB`);
 }

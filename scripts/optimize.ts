@@ -1,9 +1,9 @@
-// `npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--starts N]`
+// `npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--starts N] [--time-limit S]`
 // Result JSON on stdout (or into --out), progress on stderr.
 // Exit codes: 0 optimal, 2 invalid input, 3 infeasible, 4 not converged, 1 anything else.
 import fs from "node:fs";
 
-const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--starts N] [--quiet]";
+const USAGE = "usage: npm run -s optimize -- model.truss.json [--formulation nested|simultaneous] [--out result.json] [--max-iterations N] [--starts N] [--time-limit S] [--quiet]";
 const EXIT = { optimal: 0, failed: 1, infeasible: 3, "not-converged": 4, analysed: 0 } as const;
 
 function fail(code: number, lines: string[]): never {
@@ -12,7 +12,7 @@ function fail(code: number, lines: string[]): never {
 }
 
 function parseArgs(argv: string[]) {
-  const out: { file?: string; formulation?: "nested" | "simultaneous"; out?: string; maxIterations?: number; starts?: number; quiet: boolean } = { quiet: false };
+  const out: { file?: string; formulation?: "nested" | "simultaneous"; out?: string; maxIterations?: number; starts?: number; timeLimitS?: number; quiet: boolean } = { quiet: false };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === "--formulation") {
@@ -30,6 +30,10 @@ function parseArgs(argv: string[]) {
       const v = Number(argv[++i]);
       if (!Number.isInteger(v) || v < 1 || v > 12) fail(2, [`--starts must be a whole number from 1 to 12, got "${argv[i] ?? ""}"`, USAGE]);
       out.starts = v;
+    } else if (a === "--time-limit") {
+      const v = Number(argv[++i]);
+      if (!(v > 0) || !Number.isFinite(v)) fail(2, [`--time-limit must be a positive number of seconds, got "${argv[i] ?? ""}"`, USAGE]);
+      out.timeLimitS = v;
     } else if (a === "--quiet") out.quiet = true;
     else if (a === "--help" || a === "-h") fail(0, [USAGE]);
     else if (a.startsWith("--")) fail(2, [`unknown option ${a}`, USAGE]);
@@ -73,7 +77,8 @@ async function main() {
   // the least-mass LP at the model's geometry, solved once: a start for the solver, then the bound (as in the worker)
   const plastic = plasticDesignBeforeRun(parsed.model, jobOptions, lpSolver);
   try {
-    const options = { ...jobOptions, plasticStart: plastic?.status === "optimal" ? plastic.memberAreas : undefined };
+    const timeLimitMs = args.timeLimitS !== undefined ? args.timeLimitS * 1000 : undefined;
+    const options = { ...jobOptions, timeLimitMs, plasticStart: plastic?.status === "optimal" ? plastic.memberAreas : undefined };
     const onProgress = args.quiet
       ? undefined
       : (p: { iteration: number; objective: number; maxViolation: number; kktResidual: number }) => process.stderr.write(

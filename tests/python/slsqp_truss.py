@@ -4,7 +4,8 @@
 Reads one JSON problem on stdin (written by tests/engine/design/slsqp-reference.ts), solves it
 with the same analytic formulas the Strutwise design engine uses (direct stiffness analysis,
 adjoint gradients, limits as ratios g <= 0, areas scaled by A_ref, objective divided by f0)
-and prints one JSON line: x (scaled), f (model units), nit, nfev, njev, success, message, seconds.
+and prints one JSON line: x (scaled), f (model units), nit, nfev, njev, success, message, seconds
+(the solve, after the imports), peakKiB (the process's peak resident memory).
 
 Own weight and combinations (optional fields): case l carries the load P_l + s_l W(A), W the
 own weight at factor 1 (half of each member's weight g rho A L on each end node, along minus
@@ -13,6 +14,7 @@ the gravity axis); a combination's displacements are the factored sum of the cas
 limit on response r then gains lambda^T s_r dW/dA, s_r the response's own-weight factor.
 """
 import json
+import resource
 import sys
 import time
 
@@ -148,11 +150,18 @@ def main():
     except TimeUp:
         secs = time.perf_counter() - t
         print(json.dumps({"x": list(map(float, done["x"])), "f": float(fun(done["x"]) * f0), "nit": done["nit"], "nfev": -1,
-                          "njev": -1, "success": False, "message": f"stopped at the {max_seconds} s cap", "seconds": secs, "capped": True}))
+                          "njev": -1, "success": False, "message": f"stopped at the {max_seconds} s cap", "seconds": secs, "capped": True,
+                          "peakKiB": peak_kib()}))
         return
     secs = time.perf_counter() - t
     print(json.dumps({"x": r.x.tolist(), "f": float(r.fun * f0), "nit": int(r.nit), "nfev": int(r.nfev),
-                      "njev": int(r.njev), "success": bool(r.success), "message": str(r.message), "seconds": secs}))
+                      "njev": int(r.njev), "success": bool(r.success), "message": str(r.message), "seconds": secs,
+                      "peakKiB": peak_kib()}))
+
+
+def peak_kib():
+    """The process's peak resident memory in KiB (Linux reports ru_maxrss in KiB)."""
+    return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
 
 
 if __name__ == "__main__":

@@ -42,6 +42,9 @@ describe("optimize command line", () => {
 
   it("exits 2 for a bad option and for a file that is not JSON", () => {
     expect(run(fx("three-bar.truss.json"), "--formulation", "sideways").status).toBe(2);
+    const noTime = run(fx("three-bar.truss.json"), "--time-limit", "0");
+    expect(noTime.status).toBe(2);
+    expect(noTime.stderr).toMatch(/--time-limit must be a positive number of seconds, got "0"/);
     const bad = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "sw-opt-")), "x.truss.json");
     fs.writeFileSync(bad, "{ not json");
     const r = run(bad);

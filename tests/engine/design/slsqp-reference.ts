@@ -24,6 +24,10 @@ export interface SlsqpOutcome {
   seconds: number;
   /** stopped by maxSeconds: nit iterations done in `seconds` */
   capped?: boolean;
+  /** the whole python process, spawn to exit (start-up and imports included), measured here */
+  processSeconds: number;
+  /** the python process's peak resident memory */
+  peakKiB?: number;
 }
 
 export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
@@ -59,7 +63,9 @@ export function runSlsqp(p: DesignProblem, f0: number, opts: { maxiter?: number;
   const py = scipyPython();
   if (!py) return null;
   const input = JSON.stringify({ ...slsqpProblemData(p, f0, opts.maxiter), ...(opts.maxSeconds ? { maxSeconds: opts.maxSeconds } : {}) });
+  const t0 = performance.now();
   const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs });
+  const processSeconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`slsqp_truss.py failed (${r.status ?? r.signal}): ${r.stderr}`);
-  return JSON.parse(r.stdout.trim().split("\n").pop()!) as SlsqpOutcome;
+  return { ...(JSON.parse(r.stdout.trim().split("\n").pop()!) as Omit<SlsqpOutcome, "processSeconds">), processSeconds };
 }

@@ -1,0 +1,100 @@
+// Whole-process runs for the design benchmark: every run is a process of its own, timed in
+// this process from spawn to exit, so start-up counts on both sides as a user meets it —
+// `node scripts/run-tool.mjs optimize` (what `npm run optimize` runs, without npm's own
+// wrapper, which adds the same 0.2 s to any command) and python3 tests/python/slsqp_truss.py
+// (scipy SLSQP; its imports of numpy and scipy included). Peak memory is each process's own
+// maximum resident set (solver threads included).
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { buildStructure, type TrussModel } from "../app/engine/truss";
+import { buildDesignProblem } from "../app/engine/design/problem";
+import { nestedFormulation } from "../app/engine/design/nested";
+import { runSlsqp, scipyPython } from "../tests/engine/design/slsqp-reference";
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const root = path.resolve(here, "..");
+const work = fs.mkdtempSync(path.join(os.tmpdir(), "sw-design-bench-"));
+process.on("exit", () => fs.rmSync(work, { recursive: true, force: true }));
+
+export interface Run {
+  /** what ran, e.g. "nested, 6 starts" or "scipy SLSQP, 1 start" */
+  label: string;
+  status: string;
+  /** the whole process, spawn to exit */
+  processS: number;
+  /** the solve alone, as the process reports it (ours: the result's elapsed time; scipy: after its imports) */
+  solveS: number;
+  iterations: number;
+  analyses: number;
+  objective: number;
+  peakMiB: number;
+  /** scipy stopped at its cap: its time is a lower bound */
+  capped?: boolean;
+}
+
+export interface OursSetup {
+  formulation: "nested" | "simultaneous";
+  /** undefined: the command's default (several starts on small models) */
+  starts?: number;
+  capS: number;
+}
+
+/** One `optimize` process on the model (written to a file first, as a user would have it). */
+export function oursWholeProcess(model: TrussModel, setup: OursSetup): Run {
+  const modelFile = path.join(work, "model.truss.json");
+  const outFile = path.join(work, "result.json");
+  const peakFile = path.join(work, "peak-rss");
+  fs.writeFileSync(modelFile, JSON.stringify(model));
+  fs.rmSync(outFile, { force: true });
+  const args = [modelFile, "--quiet", "--out", outFile, "--formulation", setup.formulation, "--time-limit", String(setup.capS)];
+  if (setup.starts !== undefined) args.push("--starts", String(setup.starts));
+  const t0 = performance.now();
+  const r = spawnSync(process.execPath, ["--require", path.join(here, "peak-rss.cjs"), path.join(root, "scripts/run-tool.mjs"), "optimize", ...args], {
+    cwd: root,
+    encoding: "utf8",
+    env: { ...process.env, BENCH_PEAK_RSS_FILE: peakFile, STRUTWISE_QUIET_BUNDLE: "1" },
+  });
+  const processS = (performance.now() - t0) / 1000;
+  if (!fs.existsSync(outFile)) throw new Error(`optimize wrote no result (exit ${r.status ?? r.signal}): ${r.stderr}`);
+  const res = JSON.parse(fs.readFileSync(outFile, "utf8"));
+  const starts: number = res.starts?.tried ?? 1;
+  return {
+    label: `${setup.formulation}, ${starts} start${starts === 1 ? "" : "s"}`,
+    status: res.status,
+    processS,
+    solveS: res.solver.elapsedMs / 1000,
+    iterations: res.iterations,
+    analyses: res.analyses,
+    objective: res.objective.final,
+    peakMiB: Number(fs.readFileSync(peakFile, "utf8")) / 1024,
+  };
+}
+
+export const hasScipy = scipyPython() !== null;
+
+/** One scipy SLSQP process on the same scaled sizing problem, from the model's own start. */
+export function scipyWholeProcess(model: TrussModel, capS: number): Run | null {
+  if (!hasScipy) return null;
+  const p = buildDesignProblem(model, buildStructure(model), {});
+  const f0 = nestedFormulation(p).objectiveScale;
+  const label = "scipy SLSQP, 1 start";
+  try {
+    // SLSQP stops itself at the cap and reports the iterations it did; the kill is a backstop
+    const r = runSlsqp(p, f0, { maxiter: 3000, maxSeconds: capS, timeoutMs: (capS + 120) * 1000 })!;
+    return {
+      label, status: r.success ? "optimal" : r.message, processS: r.processSeconds, solveS: r.seconds, iterations: r.nit,
+      analyses: r.capped ? NaN : r.nfev, objective: r.capped ? NaN : r.f, peakMiB: (r.peakKiB ?? NaN) / 1024, capped: r.capped,
+    };
+  } catch {
+    return { label, status: `killed after the ${capS} s cap`, processS: NaN, solveS: NaN, iterations: NaN, analyses: NaN, objective: NaN, peakMiB: NaN, capped: true };
+  }
+}
+
+/** The faster of two runs of the same setup (same results; their times differ by the machine's load). */
+export function faster(a: Run | null, b: Run | null): Run | null {
+  if (!a || !b) return a ?? b;
+  return b.processS < a.processS ? b : a;
+}
