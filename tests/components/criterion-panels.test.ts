@@ -8,7 +8,8 @@ import { describe, expect, it } from "vitest";
 import { CriterionCostsPanel } from "~/components/job/CriterionCostsPanel";
 import { DeflectionSummaryPanel } from "~/components/job/DeflectionSummaryPanel";
 import { optimizeContinuous } from "~/engine/design/result";
-import { criterionSentence } from "~/lib/results/criterion-words";
+import { bindingCriteria, criterionSentence, idleCriteria, idleCriteriaSentence } from "~/lib/results/criterion-words";
+import type { CriterionCost } from "~/engine/design/result-types";
 import { fixture } from "../engine/design/models";
 
 const plain = (html: string) => html.replace(/<!-- -->/g, "").replace(/&#x27;/g, "'");
@@ -28,9 +29,34 @@ describe("criterion costs in words", () => {
     const html = plain(renderToString(createElement(CriterionCostsPanel, { result: tenBar })));
     expect(html).toContain("Raising the deflection limit at every node in every direction (2.000 in) by 1 % would save about 49 lb, 1.0 % of the mass; it binds at node 1 in y under LC1.");
     expect(html).toMatch(/Lowering the minimum area \(0.1000 in²\) by 1 % would save about 0.55 lb, 0.01 % of the mass; it binds at member m\d+, member m\d+, member m\d+\.<\/li>/);
-    // the allowable compression stress does not bind: a table row, no saving
-    expect(html).toMatch(/allowable compression stress of aluminium<\/td><td[^>]*>25.00 ksi<\/td><td[^>]*>does not bind at this design/);
+    // the allowable compression stress does not bind: no row of its own, one line for it
+    expect(html).not.toContain('data-testid="criterion-row"');
+    expect(html).toContain("1 other criterion does not bind at this design: the allowable compression stress of aluminium.");
     expect(html).not.toMatch(/(stress|displacement|area-min):/);
+  });
+
+  it("folds the criteria that do not bind, or save below the solver's resolution, into one line by kind", () => {
+    // a roof with a deflection limit per node and direction, of which one binds: the page must not
+    // list eleven rows that say "does not bind"
+    const deflection = (node: string, axis: "x" | "y", saving: number): CriterionCost => ({
+      id: `deflection:${node}${axis}`, kind: "deflection", subject: node, node, axis, value: 20, unit: "mm", saving, share: saving / 1000, count: saving > 0 ? 1 : 0, places: [],
+    });
+    const costs: CriterionCost[] = [
+      { ...deflection("U3", "y", 12), places: [{ node: "U3", axis: "y", case: "SLS", saving: 12 }] },
+      ...["U1", "U2", "U4", "U5"].map((n) => deflection(n, "y", 0)),
+      deflection("U3", "x", 2e-4), // 2e-7 of the mass: below NEGLIGIBLE_SHARE, noise
+      { id: "allowable-compression:S355", kind: "allowable-compression", subject: "S355", value: 210, unit: "MPa", saving: 0, share: 0, count: 0, places: [] },
+      { id: "volume", kind: "volume", subject: "the design", value: 1e9, unit: "mm³", saving: 0, share: 0, count: 0, places: [] },
+    ];
+    expect(bindingCriteria(costs).map((c) => c.id)).toEqual(["deflection:U3y"]);
+    const idle = idleCriteria(costs);
+    expect(idle).toHaveLength(7);
+    expect(idleCriteriaSentence(idle, { objective: { kind: "mass", initial: 1200, final: 1000 } })).toBe(
+      "7 other criteria do not bind at this design or would save less than 0.0001 % of the mass: " +
+        "the deflection limits at node U1 in y, node U2 in y, node U4 in y, node U5 in y and node U3 in x; " +
+        "the allowable compression stress of S355; the volume cap.",
+    );
+    expect(idleCriteriaSentence([costs[1]!], { objective: { kind: "mass", initial: 1, final: 1 } }, false)).toBe("1 criterion does not bind at this design: the deflection limit at node U1 in y.");
   });
 
   it("prices nothing on a run that did not end proved optimal", () => {

@@ -57,6 +57,13 @@ describe("report of a solved two-bar truss", () => {
     const top = result.criterionCosts![0]!;
     expect(top.id).toBe("deflection:0");
     expect(all).toContain("1. Raising the deflection limit at every node in every direction (2.000 in) by 1 % would save about 49 lb, 1.0 % of the mass; it binds at node 1 in y under LC1.");
+    // the compression allowable does not bind: one line, no table row saying "does not bind"
+    expect(all).toContain("1 other criterion does not bind at this design: the allowable compression stress of aluminium.");
+    expect(all).not.toContain("Other criteria that bind");
+    expect(all).not.toContain("does not bind at this design –");
+    // stress in ksi for kip and in, the same spelling in tables and sentences
+    expect(all).toContain("ksi");
+    expect(all).not.toMatch(/kip\/in²/);
     expect(all).toMatch(/Tip loads \(LC1\) node 1, y −2\.000 2\.000 100\.0 % node 1, y −2\.000/);
   });
 });

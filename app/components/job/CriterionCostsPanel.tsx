@@ -3,7 +3,7 @@
 // stored before the criterion costs existed keep the per-limit shadow prices.
 import type { TrussResult } from "~/engine/design/result-types";
 import type { QuantityFormatter } from "~/lib/format";
-import { bindingCriteria, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
+import { bindingCriteria, criterionName, criterionSentence, criterionValue, idleCriteria, idleCriteriaSentence, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
 import { EmptyState } from "~/components/ui/States";
 import { GoverningConstraints } from "./GoverningConstraints";
 
@@ -42,7 +42,9 @@ function CriterionCostsBody({ result, q }: { result: Head; q?: QuantityFormatter
     return <EmptyState title="No criterion binds">At this design no stress, deflection, volume, buckling or size limit is binding; relaxing one would save nothing.</EmptyState>;
   }
   const top = binding.slice(0, TOP);
-  const rest = costs.filter((c) => !top.includes(c));
+  // the binding criteria beyond the top three get a row each; those that do not bind, one line
+  const rest = binding.slice(TOP);
+  const idle = idleCriteria(costs);
   return (
     <>
       <p className="mb-3 text-sm text-ink-muted">
@@ -59,7 +61,7 @@ function CriterionCostsBody({ result, q }: { result: Head; q?: QuantityFormatter
         <table className="data-table" aria-label="Criterion costs">
           <thead>
             <tr>
-              <th>{top.length ? "other criteria" : "criterion"}</th>
+              <th>other criteria that bind</th>
               <th className="text-right">now</th>
               <th>binds at</th>
               <th className="whitespace-nowrap text-right">saving of 1 % relaxed</th>
@@ -72,13 +74,18 @@ function CriterionCostsBody({ result, q }: { result: Head; q?: QuantityFormatter
                 <td>{criterionName(c).replace(/^the /, "")}</td>
                 <td className="num whitespace-nowrap">{criterionValue(c, result, q)}</td>
                 <td className="min-w-[14rem] text-ink-soft">{placesWords(c, result, 4)}</td>
-                <td className="num whitespace-nowrap">{c.saving > 0 ? savingText(c, result, q) : "–"}</td>
-                <td className="num whitespace-nowrap">{c.saving > 0 ? shareText(c.share) : "–"}</td>
+                <td className="num whitespace-nowrap">{savingText(c, result, q)}</td>
+                <td className="num whitespace-nowrap">{shareText(c.share)}</td>
               </tr>
             ))}
           </tbody>
         </table>
       </div>
+      )}
+      {idle.length > 0 && (
+        <p className="mt-3 text-sm text-ink-muted" data-testid="criteria-idle">
+          {idleCriteriaSentence(idle, result)}
+        </p>
       )}
     </>
   );

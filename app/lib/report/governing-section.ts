@@ -7,7 +7,7 @@ import { areaBoundsRule } from "~/engine/design/problem";
 import { formatNumber, formatPercent, quantityFormatter } from "~/lib/format";
 import { caseWords } from "~/lib/results/cases";
 import { constraintQuantity, constraintWords } from "~/lib/results/constraint-words";
-import { bindingCriteria, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
+import { bindingCriteria, idleCriteria, idleCriteriaSentence, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
 import { isOverLimit } from "~/lib/utilization-scale";
 import type { ReportWriter } from "./layout";
 import { BAD, INK_MUTED } from "./palette";
@@ -134,19 +134,22 @@ export function criterionCostsPart(w: ReportWriter, r: TrussResult) {
     w.doc.y = y;
     w.paragraph(text, { size: 9, x: w.left + 14, width: w.width - 14, gap: 4 });
   });
-  const rest = costs.filter((c) => !binding.slice(0, TOP).includes(c));
+  // the binding criteria beyond the top three get a row each; those that do not bind, one line
+  const rest = binding.slice(TOP);
   if (rest.length)
     table(
       w,
       [
-        { header: "Other criteria", weight: 4.2 },
+        { header: "Other criteria that bind", weight: 4.2 },
         { header: "Now", weight: 1.8, align: "right" },
         { header: "Binds at", weight: 4.6 },
         { header: "Saving", weight: 1.6, align: "right" },
         { header: "Share", weight: 1.3, align: "right" },
       ],
-      rest.map((c) => [criterionName(c).replace(/^the /, ""), criterionValue(c, r), placesWords(c, r, 2), c.saving > 0 ? savingText(c, r) : "–", c.saving > 0 ? shareText(c.share) : "–"]),
+      rest.map((c) => [criterionName(c).replace(/^the /, ""), criterionValue(c, r), placesWords(c, r, 2), savingText(c, r), shareText(c.share)]),
     );
+  const idle = idleCriteria(costs);
+  if (idle.length) w.paragraph(idleCriteriaSentence(idle, r), { size: 9, color: INK_MUTED });
 }
 
 export function deflectionsPart(w: ReportWriter, r: TrussResult) {

@@ -110,9 +110,69 @@ export function criterionSentence(c: CriterionCost, r: Facts, q?: QuantityFormat
   return `${relaxVerb(c)} ${name}${value} by 1 % ${save} ${savingText(c, r, q)}, ${shareText(c.share)} of the ${r.objective.kind}; it binds at ${placesWords(c, r)}.`;
 }
 
+/**
+ * A criterion that would save less than this share of the objective is below what the run can
+ * tell apart from nothing (the solver stops at a KKT residual of about 1e-6): it is folded with
+ * the criteria that do not bind instead of taking a row of its own.
+ */
+export const NEGLIGIBLE_SHARE = 1e-6;
+
+const matters = (c: CriterionCost) => c.saving > 0 && c.share >= NEGLIGIBLE_SHARE;
+
 /** Criteria that bind, the costliest first: the page and the report word the first three. */
 export function bindingCriteria(costs: readonly CriterionCost[] | undefined): CriterionCost[] {
-  return (costs ?? []).filter((c) => c.saving > 0);
+  return (costs ?? []).filter(matters);
+}
+
+/** Criteria that do not bind, or save too little to tell: one line, not a row each. */
+export function idleCriteria(costs: readonly CriterionCost[] | undefined): CriterionCost[] {
+  return (costs ?? []).filter((c) => !matters(c));
+}
+
+/** How criteria of one kind are named together: the shared start of their names, singular and plural. */
+const SHARED_START: Record<CriterionCost["kind"], [string, string] | null> = {
+  deflection: ["the deflection limit at ", "the deflection limits at "],
+  "allowable-tension": ["the allowable tension stress of ", "the allowable tension stresses of "],
+  "allowable-compression": ["the allowable compression stress of ", "the allowable compression stresses of "],
+  "buckling-length": ["the buckling length of ", "the buckling lengths of "],
+  "min-size": ["the minimum area of ", "the minimum areas of "],
+  "max-size": ["the maximum area of ", "the maximum areas of "],
+  "shape-range": ["the range of shape variable ", "the ranges of shape variables "],
+  volume: null,
+};
+
+/** "a", "a and b", "a, b and c" */
+function listWords(items: string[]): string {
+  return items.length <= 1 ? (items[0] ?? "") : `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}`;
+}
+
+/** The folded criteria by kind: "the deflection limits at node 3 in y and every node in x; the volume cap". */
+export function idleCriteriaWords(idle: readonly CriterionCost[]): string {
+  const byKind = new Map<CriterionCost["kind"], string[]>();
+  for (const c of idle) byKind.set(c.kind, [...(byKind.get(c.kind) ?? []), criterionName(c)]);
+  const parts: string[] = [];
+  for (const [kind, names] of byKind) {
+    const start = SHARED_START[kind];
+    const shared = start ? names.filter((n) => n.startsWith(start[0])) : [];
+    const own = names.filter((n) => !shared.includes(n));
+    if (start && shared.length) parts.push(`${shared.length === 1 ? start[0] : start[1]}${listWords(shared.map((n) => n.slice(start[0].length)))}`);
+    parts.push(...own);
+  }
+  return parts.join("; ");
+}
+
+/**
+ * One sentence for every criterion that does not bind: "12 other criteria do not bind at this
+ * design: the deflection limits at node 3 in y, node 5 in y and every node in x." `others`:
+ * whether binding criteria were listed before it.
+ */
+export function idleCriteriaSentence(idle: readonly CriterionCost[], r: Pick<TrussResult, "objective">, others = true): string {
+  if (idle.length === 0) return "";
+  const n = idle.length;
+  const subject = `${n}${others ? " other" : ""} ${n === 1 ? "criterion does" : "criteria do"} not bind at this design`;
+  const tiny = idle.some((c) => c.saving > 0);
+  const qualifier = tiny ? ` or would save less than ${formatPercent(NEGLIGIBLE_SHARE, 4)} of the ${r.objective.kind}` : "";
+  return `${subject}${qualifier}: ${idleCriteriaWords(idle)}.`;
 }
 
 /** "−12.3 mm in y at node C" */
