@@ -19,6 +19,15 @@ export const TOOL_ENTRIES = {
   "web-task": "workers/web-task.ts",
 };
 
+/**
+ * Packages bundled into the tools with our own sources: pure JavaScript, loaded at every launch
+ * and in every solver thread, where node's resolution and loading of their many files (zod) or
+ * its scan of a CommonJS file (ml-matrix) cost more than the solve of a small model. Every other
+ * package stays external, resolved by node from node_modules: those with files of their own
+ * beside their code (the HiGHS WebAssembly) or native parts (the database client).
+ */
+const BUNDLED_PACKAGES = ["zod", "ml-matrix", "d3-scale"];
+
 /** Files that change every bundle without being one of its inputs. */
 const BUILD_SETTINGS = ["package.json", "package-lock.json", "tsconfig.json", "scripts/tools-bundle.mjs"];
 
@@ -86,7 +95,7 @@ export async function bundleTools(dir = root) {
     format: "esm",
     platform: "node",
     target: "node20",
-    packages: "external",
+    plugins: [packagesExternalExcept(BUNDLED_PACKAGES)],
     sourcemap: "linked",
     metafile: true,
     write: false,
@@ -107,6 +116,28 @@ export async function bundleTools(dir = root) {
   const list = path.join(out, `inputs.json.${process.pid}.tmp`);
   fs.writeFileSync(list, JSON.stringify({ entries: Object.keys(TOOL_ENTRIES), inputs }, null, 1));
   fs.renameSync(list, path.join(out, "inputs.json"));
+}
+
+/**
+ * esbuild's `packages: "external"` with exceptions: a bare import in our sources of a package
+ * not in `bundled` (or of one of its files) is left to node; the bundled ones bring their own
+ * dependencies along.
+ * @param {string[]} bundled
+ * @returns {import("esbuild").Plugin}
+ */
+function packagesExternalExcept(bundled) {
+  return {
+    name: "packages-external-except",
+    setup(build) {
+      build.onResolve({ filter: /^[^./~]/ }, (args) => {
+        if (args.path.startsWith("node:")) return { path: args.path, external: true };
+        // an import inside a bundled package: its dependencies come along
+        if (args.importer.includes(`${path.sep}node_modules${path.sep}`)) return undefined;
+        const name = args.path.startsWith("@") ? args.path.split("/").slice(0, 2).join("/") : args.path.split("/")[0];
+        return bundled.includes(name) ? undefined : { path: args.path, external: true };
+      });
+    },
+  };
 }
 
 /**
