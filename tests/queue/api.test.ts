@@ -98,7 +98,8 @@ describe("jobs API", () => {
     const m = await upload();
     const ok = await submit(engineer.key, { modelId: m.id, options: { formulation: "simultaneous", maxIterations: 80 } });
     expect(ok.status).toBe(202);
-    expect(await ok.json()).toEqual({ id: expect.any(String), status: "queued" });
+    const okBody = (await ok.json()) as { id: string; status: string };
+    expect(okBody).toEqual({ id: expect.any(String), status: "queued" });
     const badOption = await submit(engineer.key, { modelId: m.id, options: { maxIterations: 0 } });
     expect(badOption.status).toBe(400);
     expect(await badOption.json()).toMatchObject({ details: [{ path: "options.maxIterations" }] });
@@ -107,6 +108,18 @@ describe("jobs API", () => {
     expect((await submit(engineer.key, { modelId: "no-such-model" })).status).toBe(404);
     expect((await submit(engineer.key, {})).status).toBe(400);
     expect((await submit(viewer.key, { modelId: m.id })).status).toBe(403);
+    // a run answering a returned run of the same model records it, and the job JSON says so;
+    // a run of another model is refused in words
+    const answering = await submit(engineer.key, { modelId: m.id, answersJobId: okBody.id });
+    expect(answering.status).toBe(202);
+    const jobRoute = await import("~/routes/api/jobs.$jobId");
+    const answeringId = ((await answering.json()) as { id: string }).id;
+    const read = await call(jobRoute.loader, new Request(url(`/api/jobs/${answeringId}`), { headers: auth(viewer.key) }), { jobId: answeringId });
+    expect(((await read.json()) as { answersJobId: string | null }).answersJobId).toBe(okBody.id);
+    const other = await upload({ ...twoBarModel(), name: "Another frame" });
+    const wrong = await submit(engineer.key, { modelId: other.id, answersJobId: answeringId });
+    expect(wrong.status).toBe(400);
+    expect(((await wrong.json()) as { error: string }).error).toMatch(/is not a run of model "Another frame"/);
   });
 
   it("lists newest first with filters and a cursor that walks every job once", async () => {

@@ -1,4 +1,5 @@
-// GET /api/jobs (?status=&projectId=&modelId=&limit=&cursor=), POST /api/jobs (queue a run).
+// GET /api/jobs (?status=&projectId=&modelId=&limit=&cursor=), POST /api/jobs (queue a run, optionally
+// answering a returned run of the same model).
 import { z } from "zod";
 import { JOB_STATUSES } from "~/db/schema";
 import { audit } from "~/lib/auth/audit.server";
@@ -24,6 +25,8 @@ const submitSchema = z.object({
   version: z.number({ error: "version must be a whole number from 1" }).int("version must be a whole number from 1").min(1, "version must be a whole number from 1").optional(),
   kind: z.enum(["design", "analysis"], { error: 'kind must be "design" or "analysis"' }).optional(),
   options: z.record(z.string(), z.unknown()).optional(),
+  /** the returned run ("changes requested") this run answers: a run of the same model */
+  answersJobId: z.string({ error: "answersJobId must be a job id" }).min(1, "answersJobId must be a job id").optional(),
 });
 
 export const loader = withDependencies(async function loader({ request }: Route.LoaderArgs) {
@@ -41,9 +44,9 @@ export const action = withDependencies(async function action({ request }: Route.
   const user = await requirePermission(request, "create:job");
   const body = submitSchema.safeParse(await readJson(request));
   if (!body.success) return jsonError(400, "The job request is not valid", zodDetails(body.error.issues));
-  const { modelId, version, kind, options } = body.data;
+  const { modelId, version, kind, options, answersJobId } = body.data;
   await assertModelVisible(user, modelId);
-  const job = await enqueueJob({ modelId, version, kind, options, user });
-  await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, version: job.modelVersion, kind: job.kind, options: job.options } });
+  const job = await enqueueJob({ modelId, version, kind, options, user, answers: answersJobId ?? null });
+  await audit({ request, actor: user, action: "job.submit", entityType: "job", entityId: job.id, detail: { modelId: job.modelId, version: job.modelVersion, kind: job.kind, options: job.options, ...(job.answersJobId ? { answersJobId: job.answersJobId } : {}) } });
   return Response.json({ id: job.id, status: job.status }, { status: 202, headers: { Location: `/api/jobs/${job.id}` } });
 });
