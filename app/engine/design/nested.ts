@@ -118,6 +118,12 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
       for (let k = 0; k < grad.length; k++) grad[k] /= objectiveScale;
 
       const ineq: Float64Array[] = [];
+      const coefficientsByCase = new Map<number, AreaAdjointCoefficients>();
+      const adjointCoefficients = (state: NestedState, loadCase: number) => {
+        let c = coefficientsByCase.get(loadCase);
+        if (!c) coefficientsByCase.set(loadCase, (c = areaAdjointCoefficients(p, state, state.displacements[loadCase])));
+        return c;
+      };
       const lambdaCache = new Map<string, { lambda: Float64Array; ref: number }>();
       const rhs = new Float64Array(s.coords.length);
       for (let k = 0; k < rows.length; k++) {
@@ -136,7 +142,8 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
             lambdaCache.set(key, entry);
           }
           const factor = part.uVal[0] / entry.ref;
-          subtractAdjoint(st, st.displacements[lim.loadCase], entry.lambda, factor, row);
+          if (p.shapeMembers.length === 0) subtractAreaAdjoint(adjointCoefficients(st, lim.loadCase), entry.lambda, factor, row);
+          else subtractAdjoint(st, st.displacements[lim.loadCase], entry.lambda, factor, row);
           const sw = selfWeightOf[lim.loadCase];
           if (sw !== 0) addOwnWeightGradient(p, st.areas, st.coords, st.lengths, entry.lambda, factor * sw, row, isShapeMember);
         }
@@ -150,6 +157,50 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
     },
   };
   return { problem, counters, objectiveScale, stateAt };
+}
+
+/**
+ * Per member, what the area part of d(lambda^T K u)/dA needs from u alone (areas only, no shape
+ * variables): the member vector d and c = E (d.du) / L^3 times the area variable's scale, so
+ * that one adjoint row costs c (d.dlambda) per member (adjointProduct without the square root
+ * and the shape terms). Computed once per load case and evaluation, shared by every row.
+ */
+interface AreaAdjointCoefficients {
+  d: Float64Array; // 3 per member
+  c: Float64Array;
+  start: Int32Array; // 3 * start node
+  end: Int32Array; // 3 * end node
+  variable: Int32Array;
+}
+
+function areaAdjointCoefficients(p: DesignProblem, st: NestedState, u: ArrayLike<number>): AreaAdjointCoefficients {
+  const s = p.structure;
+  const m = s.memberIds.length;
+  const d = new Float64Array(3 * m), c = new Float64Array(m), start = new Int32Array(m), end = new Int32Array(m);
+  for (let e = 0; e < m; e++) {
+    const i = 3 * s.start[e], j = 3 * s.end[e];
+    start[e] = i;
+    end[e] = j;
+    let eu = 0;
+    for (let a = 0; a < 3; a++) {
+      const da = st.coords[j + a] - st.coords[i + a];
+      d[3 * e + a] = da;
+      eu += da * (u[j + a] - u[i + a]);
+    }
+    const L = st.lengths[e];
+    c[e] = ((s.E[e] * eu) / (L * L * L)) * p.areaVars[p.memberVar[e]].scale;
+  }
+  return { d, c, start, end, variable: p.memberVar };
+}
+
+/** out -= factor * d(lambda^T K u)/d(area variables), from the coefficients of u. */
+function subtractAreaAdjoint(k: AreaAdjointCoefficients, lambda: ArrayLike<number>, factor: number, out: Float64Array): void {
+  const { d, c, start, end, variable } = k;
+  for (let e = 0; e < c.length; e++) {
+    const i = start[e], j = end[e], q = 3 * e;
+    const el = d[q] * (lambda[j] - lambda[i]) + d[q + 1] * (lambda[j + 1] - lambda[i + 1]) + d[q + 2] * (lambda[j + 2] - lambda[i + 2]);
+    out[variable[e]] -= factor * c[e] * el;
+  }
 }
 
 function sameVector(a: Float64Array, b: Float64Array, n: number): boolean {
