@@ -2,7 +2,7 @@
 // each from the model text (parsed here, so no structured object crosses threads) and posts
 // back the start's result. Progress is posted for start 0 (the engineer's own start) only.
 import { parentPort, workerData } from "node:worker_threads";
-import { runStart } from "~/engine/design/multi-start";
+import { runStart, startingDesignsOnce } from "~/engine/design/multi-start";
 import type { OptimizeOptions } from "~/engine/design/result";
 import { parseModel } from "~/engine/truss";
 
@@ -23,6 +23,8 @@ const data = workerData as StartThreadData;
 const parsed = parseModel(JSON.parse(data.modelText));
 const port = parentPort!;
 const stop = data.stopFlag ? new Int32Array(data.stopFlag) : null;
+// every start this thread runs belongs to the same run: its starting designs are made once
+const designs = startingDesignsOnce();
 
 port.on("message", (index: number) => {
   try {
@@ -32,7 +34,7 @@ port.on("message", (index: number) => {
       stopRequested: stop ? () => Atomics.load(stop, 0) === 1 : undefined,
       onProgress: index === 0 ? (progress) => port.postMessage({ kind: "progress", progress } satisfies StartThreadMessage) : undefined,
     };
-    const { label, result } = runStart(parsed.model, options, index, data.count);
+    const { label, result } = runStart(parsed.model, options, index, data.count, undefined, designs);
     port.postMessage({ kind: "done", index, label, resultJson: JSON.stringify(result) } satisfies StartThreadMessage);
   } catch (e) {
     port.postMessage({ kind: "error", index, message: e instanceof Error ? e.message : String(e) } satisfies StartThreadMessage);

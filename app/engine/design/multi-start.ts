@@ -26,6 +26,8 @@ export const MULTI_START_MAX_VARIABLES = 300;
 export const MAX_STARTS = 12;
 /** Two starts reached the same design when their objectives differ by less than this share. */
 export const SAME_DESIGN = 1e-4;
+/** The label of the engineer's own start (always the first). */
+const OWN_START = "your start";
 /** Resizing passes of the fully stressed start. */
 const FULLY_STRESSED_PASSES = 6;
 /** Spread of the perturbed starts: each area times exp(u), u uniform in +-PERTURBATION. */
@@ -128,7 +130,7 @@ export function plasticStart(p: DesignProblem, memberAreas: ArrayLike<number>): 
  */
 export function startingDesigns(p: DesignProblem, count: number, plastic?: ArrayLike<number>): StartDesign[] {
   const nA = p.areaVars.length;
-  const starts: StartDesign[] = [{ label: "your start", z: Float64Array.from(p.x0) }];
+  const starts: StartDesign[] = [{ label: OWN_START, z: Float64Array.from(p.x0) }];
   const lp = count > 1 && plastic ? plasticStart(p, plastic) : null;
   if (lp) starts.push({ label: "least-mass LP", z: lp });
   const fsd = count > 1 ? fullyStressedStart(p) : null;
@@ -150,13 +152,39 @@ export function startingDesigns(p: DesignProblem, count: number, plastic?: Array
   return starts.slice(0, count);
 }
 
-/** One start of a multi-start run, as a complete result of its own (progress from the first only). */
-export function runStart(model: TrussModel | DesignModel, options: OptimizeOptions, index: number, count: number, prepared?: PreparedRun): { label: string; result: TrussResult } {
+export type StartDesigns = typeof startingDesigns;
+
+/**
+ * startingDesigns made once and then handed out again: the starts of one run share it, since
+ * the fully stressed and LP starts each cost a dozen analyses (more than a small model's solve).
+ */
+export function startingDesignsOnce(): StartDesigns {
+  let made: StartDesign[] | null = null;
+  return (p, count, plastic) => (made ??= startingDesigns(p, count, plastic));
+}
+
+/**
+ * One start of a multi-start run, as a complete result of its own (progress from the first
+ * only). `designs`: the run's starting designs, shared between its starts (startingDesignsOnce).
+ */
+export function runStart(
+  model: TrussModel | DesignModel,
+  options: OptimizeOptions,
+  index: number,
+  count: number,
+  prepared?: PreparedRun,
+  designs: StartDesigns = startingDesigns,
+): { label: string; result: TrussResult } {
   const t0 = Date.now();
   const base = prepared ?? prepareRun(model, { ...options, onProgress: index === 0 ? options.onProgress : undefined });
-  const start = startingDesigns(base.design, count, options.plasticStart)[index];
+  if (index === 0) {
+    // the engineer's own start is the prepared run itself: no other start need be made for it
+    const r = minimize(base.sqp, base.sqpOptions);
+    return { label: OWN_START, result: buildResult(base, r, Date.now() - t0) };
+  }
+  const start = designs(base.design, count, options.plasticStart)[index];
   if (!start) throw new RangeError(`Start ${index} does not exist: this run has ${count} starts.`);
-  const run = index === 0 ? base : prepareRun(model, { ...options, onProgress: undefined }, start.z);
+  const run = prepareRun(model, { ...options, onProgress: undefined }, start.z);
   const r = minimize(run.sqp, run.sqpOptions);
   return { label: start.label, result: buildResult(run, r, Date.now() - t0) };
 }
@@ -229,10 +257,11 @@ export function optimizeWithStarts(model: TrussModel | DesignModel, options: Opt
   const first = prepareRun(model, options);
   const count = startCount(first.design, options);
   const runs: { label: string; result: TrussResult }[] = [];
+  const designs = startingDesignsOnce();
   for (let k = 0; k < count; k++) {
     // after a stop request no further start begins (the one under way stopped at an iteration)
     if (k > 0 && options.stopRequested?.()) break;
-    runs.push(runStart(model, options, k, count, k === 0 ? first : undefined));
+    runs.push(runStart(model, options, k, count, k === 0 ? first : undefined, designs));
   }
   return combineStarts(runs, Date.now() - t0);
 }
