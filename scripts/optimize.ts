@@ -50,7 +50,7 @@ async function main() {
   // without it (the precompiled bundle keeps it in a chunk of its own)
   const { parseModel } = await import("../app/engine/truss");
   const { optimizeModel, plannedStarts, DesignSetupError } = await import("../app/engine/design");
-  const { attachLowerBound, loadHighsSolver, plasticDesignBeforeRun } = await import("../app/engine/lp");
+  const { attachLowerBound, boundWithheldWithoutLp, loadHighsSolver, plasticDesignBeforeRun, runUsesLp, withLowerBound } = await import("../app/engine/lp");
   const { formatGap } = await import("../app/lib/lower-bound-words");
   let text: string;
   try {
@@ -73,9 +73,11 @@ async function main() {
   const objUnit = (parsed.model.design.objective ?? "mass") === "mass" ? units.mass : `${units.force}·${units.length}`;
   let result;
   const jobOptions = { formulation: args.formulation, maxIterations: args.maxIterations, starts: args.starts };
-  const lpSolver = await loadHighsSolver();
+  // the LP runtime loads only for a run that may solve an LP (a mass run checking no stresses
+  // has no bound to take, and it is a tenth of a second of a small model's whole run)
+  const lpSolver = runUsesLp(parsed.model, jobOptions) ? await loadHighsSolver() : null;
   // the least-mass LP at the model's geometry, solved once: a start for the solver, then the bound (as in the worker)
-  const plastic = plasticDesignBeforeRun(parsed.model, jobOptions, lpSolver);
+  const plastic = lpSolver ? plasticDesignBeforeRun(parsed.model, jobOptions, lpSolver) : null;
   try {
     const timeLimitMs = args.timeLimitS !== undefined ? args.timeLimitS * 1000 : undefined;
     const options = { ...jobOptions, timeLimitMs, plasticStart: plastic?.status === "optimal" ? plastic.memberAreas : undefined };
@@ -97,7 +99,8 @@ async function main() {
     fail(1, [`optimization could not run: ${err.message}`]);
   }
   // beside the result, the least-mass certificate (or the reason there is none)
-  result = attachLowerBound(parsed.model, result, jobOptions, lpSolver, plastic);
+  const withheld = lpSolver ? null : boundWithheldWithoutLp(parsed.model, result, jobOptions);
+  result = withheld ? withLowerBound(result, withheld) : attachLowerBound(parsed.model, result, jobOptions, lpSolver ?? (await loadHighsSolver()), plastic);
   const json2 = JSON.stringify(result, null, 2);
   if (args.out) fs.writeFileSync(args.out, json2 + "\n");
   else process.stdout.write(json2 + "\n");

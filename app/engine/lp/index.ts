@@ -5,6 +5,6 @@ export type { LinearProgram, LpSolution, LpSolver, LpStatus } from "./solver";
 export { loadHighsSolver } from "./highs";
 export { solvePlasticDesign, type PlasticDesign, type PlasticDesignInput, type PlasticCase } from "./plastic";
 export { plasticInputFromModel, checkedCases, weightPerMass, resultCoords } from "./from-model";
-export { lowerBoundForResult, withLowerBound, attachLowerBound, plasticDesignBeforeRun, type BoundOutcome } from "./lower-bound";
+export { lowerBoundForResult, withLowerBound, attachLowerBound, plasticDesignBeforeRun, runUsesLp, boundWithheldWithoutLp, type BoundOutcome } from "./lower-bound";
 export { predictVanishingMembers, vanishingMembers, type VanishingPrediction } from "./predict";
 export { cleanLayout, type CleanLayout, type CleanLayoutOptions } from "./clean-layout";

@@ -32,15 +32,19 @@ export function plasticDesignBeforeRun(model: TrussModel, options: JobOptions, s
 }
 
 /**
- * Mass (or compliance) result -> its lower bound, or the reason there is none. Never throws for
- * bad data. `before`: the plastic design solved before the run (plasticDesignBeforeRun), used
- * instead of solving the same LP again when the bound is taken at the model's geometry.
+ * Whether a run of this model may solve an LP, before it or for its bound: compliance runs and
+ * mass runs with stress checks. The others need not load the LP runtime (HiGHS, about 0.1 s of
+ * CPU): their bound is withheld without one (boundWithheldWithoutLp).
  */
-export function lowerBoundForResult(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver, before?: PlasticDesign | null): BoundOutcome {
-  const objective = result.objective.final;
-  if (!Number.isFinite(objective)) return { kind: "withheld", reason: "The run produced no design to compare with a bound." };
-  if (result.objective.kind === "compliance") return complianceLowerBound(model, result, options, solver);
+export function runUsesLp(model: TrussModel, options: JobOptions): boolean {
+  const objective = options.objective ?? model.design?.objective ?? "mass";
+  return objective === "compliance" || (options.stress ?? model.design?.constraints?.stress ?? false);
+}
 
+/** The reasons for no bound that need no LP (no design, or a mass run that checks no stresses); else null. */
+export function boundWithheldWithoutLp(model: TrussModel, result: TrussResult, options: JobOptions): BoundOutcome | null {
+  if (!Number.isFinite(result.objective.final)) return { kind: "withheld", reason: "The run produced no design to compare with a bound." };
+  if (result.objective.kind === "compliance") return null;
   const stressChecked = options.stress ?? model.design?.constraints?.stress ?? false;
   if (!stressChecked) {
     return {
@@ -48,6 +52,18 @@ export function lowerBoundForResult(model: TrussModel, result: TrussResult, opti
       reason: "This run checks no stresses. The least-mass bound rests on the allowable stresses; without them a design may be lighter than any bound they give, so none is shown.",
     };
   }
+  return null;
+}
+
+/**
+ * Mass (or compliance) result -> its lower bound, or the reason there is none. Never throws for
+ * bad data. `before`: the plastic design solved before the run (plasticDesignBeforeRun), used
+ * instead of solving the same LP again when the bound is taken at the model's geometry.
+ */
+export function lowerBoundForResult(model: TrussModel, result: TrussResult, options: JobOptions, solver: LpSolver, before?: PlasticDesign | null): BoundOutcome {
+  const withheld = boundWithheldWithoutLp(model, result, options);
+  if (withheld) return withheld;
+  if (result.objective.kind === "compliance") return complianceLowerBound(model, result, options, solver);
   const final = (model.design?.shape?.length ?? 0) > 0;
   const coords = final ? resultCoords(model, result) : undefined;
   const { input, checked } = plasticInputFromModel(model, coords);
@@ -68,7 +84,7 @@ export function lowerBoundForResult(model: TrussModel, result: TrussResult, opti
     plasticAreas: lp.memberAreas,
     lowerBound: {
       value: lp.mass,
-      gap: objective / lp.mass - 1,
+      gap: result.objective.final / lp.mass - 1,
       basis: massBasis(model, checked.kind, checked.cases.length, final, lp.solver),
       geometry: final ? "final" : "model",
       ...(leftOut.length > 0 ? { leftOut } : {}),
