@@ -336,7 +336,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               <Stat label="max utilization" value={formatPercent(head.maxUtilization)} />
               {head.formulation && <Stat label="formulation" value={head.formulation} />}
               {head.verification && (
-                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : `${head.verification.failures.length} limits exceeded`} hint={`equilibrium residual ${formatResidual(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
+                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : countOf(head.verification.failures.length, "limit exceeded", "limits exceeded")} hint={`equilibrium residual ${formatResidual(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
               )}
               {head.solver && <Stat label="solver" value={`${head.solver.name} ${head.solver.version}`} wrap />}
             </dl>
@@ -464,7 +464,7 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
             {job.status === "succeeded" && (
               <li>
                 <a className="text-info hover:underline" href={`/api/jobs/${job.id}/report`} data-testid="download-report">
-                  {reportLinkLabel(current?.decision)}
+                  {reportLinkLabel(current?.decision, reviewable)}
                 </a>
               </li>
             )}

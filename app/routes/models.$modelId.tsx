@@ -249,8 +249,8 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
                     <th>load case</th>
                     <th className="num whitespace-nowrap">loads</th>
                     <th className="num whitespace-nowrap">Σfx ({u?.force})</th>
-                    <th className="num whitespace-nowrap">Σfy</th>
-                    <th className="num whitespace-nowrap">Σfz</th>
+                    <th className="num whitespace-nowrap">Σfy ({u?.force})</th>
+                    <th className="num whitespace-nowrap">Σfz ({u?.force})</th>
                   </tr>
                 </thead>
                 <tbody>

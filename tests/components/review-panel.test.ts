@@ -27,6 +27,7 @@ describe("review state words", () => {
     expect(reportLinkLabel("changes-requested")).toBe("Calculation report (PDF) — changes requested, not approved");
     expect(reportLinkLabel("approved")).toBe("Calculation report (PDF) — approved");
     expect(reportLinkLabel(null)).toBe("Calculation report (PDF) — not reviewed yet");
+    expect(reportLinkLabel(null, false)).toBe("Calculation report (PDF) — no design to sign off");
     // the report's own banner for the same decision says the same
     const toReport = (r: ReviewView) => ({ id: r.id, decision: r.decision, comment: r.comment, reviewer: r.reviewerName, at: new Date(r.createdAt) });
     expect(reviewBanner(reviewState([toReport(returned)])).text).toMatch(/^CHANGES REQUESTED — NOT APPROVED/);

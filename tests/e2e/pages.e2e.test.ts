@@ -13,6 +13,7 @@ import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startApp, type RunningApp } from "./harness";
 import { launchBrowser, screenshot, signIn, type Browser } from "./support/browser";
+import { canvasInk, waitForCanvas } from "./support/canvas";
 
 const fixtures = path.resolve(import.meta.dirname, "fixtures");
 const GOOD = path.join(fixtures, "kiln-roof.truss.json");
@@ -44,76 +45,6 @@ async function pageAs(role: string, viewport = { width: 1440, height: 900 }): Pr
   const a = account(role);
   await signIn(page, a.email, a.password, app.baseUrl);
   return page;
-}
-
-/**
- * Share of canvas pixels that differ clearly from the background, how many colours, and how
- * many of them lie in a band of 4 % along the canvas edges.
- */
-async function canvasInk(page: Page) {
-  return page.evaluate(() => {
-    const c = document.querySelector<HTMLCanvasElement>('[data-testid="truss-viewer"] canvas');
-    if (!c || c.width === 0) return { ratio: 0, colours: 0, width: 0, border: -1 };
-    const off = document.createElement("canvas");
-    off.width = c.width;
-    off.height = c.height;
-    const ctx = off.getContext("2d")!;
-    ctx.drawImage(c, 0, 0);
-    const d = ctx.getImageData(0, 0, c.width, c.height).data;
-    const bg = [d[0]!, d[1]!, d[2]!];
-    const bx = Math.ceil(c.width * 0.04);
-    const by = Math.ceil(c.height * 0.04);
-    let ink = 0;
-    let border = 0;
-    const colours = new Set<number>();
-    for (let i = 0; i < d.length; i += 4) {
-      if (Math.abs(d[i]! - bg[0]!) + Math.abs(d[i + 1]! - bg[1]!) + Math.abs(d[i + 2]! - bg[2]!) > 40) {
-        ink++;
-        colours.add(((d[i]! >> 4) << 8) | ((d[i + 1]! >> 4) << 4) | (d[i + 2]! >> 4));
-        const x = (i / 4) % c.width;
-        const y = Math.floor(i / 4 / c.width);
-        if (x < bx || y < by || x >= c.width - bx || y >= c.height - by) border++;
-      }
-    }
-    return { ratio: ink / (d.length / 4), colours: colours.size, width: c.width, border };
-  });
-}
-
-async function waitForCanvas(page: Page) {
-  await page.locator('[data-testid="truss-viewer"] canvas').waitFor({ state: "visible", timeout: 30_000 });
-  // frames are drawn on demand; give the first frames a moment
-  await page.waitForTimeout(1200);
-}
-
-/** A double-layer grid roof on perimeter supports (n × n top nodes), with a design block. */
-function gridRoof(n: number) {
-  const bay = 3000;
-  const nodes: { id: string; x: number; y: number; z: number; fixed?: string[] }[] = [];
-  const members: { id: string; start: string; end: string; material: string; area: number }[] = [];
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++)
-      nodes.push({ id: `T${i}_${j}`, x: i * bay, y: j * bay, z: 2000, ...(i === 0 || j === 0 || i === n - 1 || j === n - 1 ? { fixed: ["x", "y", "z"] } : {}) });
-  for (let i = 0; i < n - 1; i++) for (let j = 0; j < n - 1; j++) nodes.push({ id: `L${i}_${j}`, x: (i + 0.5) * bay, y: (j + 0.5) * bay, z: 0 });
-  const add = (a: string, b: string) => members.push({ id: `${a}-${b}`, start: a, end: b, material: "S355", area: 1500 });
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++) {
-      if (i + 1 < n) add(`T${i}_${j}`, `T${i + 1}_${j}`);
-      if (j + 1 < n) add(`T${i}_${j}`, `T${i}_${j + 1}`);
-    }
-  for (let i = 0; i < n - 1; i++)
-    for (let j = 0; j < n - 1; j++) {
-      if (i + 2 < n) add(`L${i}_${j}`, `L${i + 1}_${j}`);
-      if (j + 2 < n) add(`L${i}_${j}`, `L${i}_${j + 1}`);
-      for (const [di, dj] of [[0, 0], [1, 0], [0, 1], [1, 1]]) add(`L${i}_${j}`, `T${i + di!}_${j + dj!}`);
-    }
-  const inner = nodes.filter((x) => x.id.startsWith("T") && !x.fixed);
-  return {
-    dimension: 3,
-    nodes,
-    members,
-    loadCases: [{ id: "ROOF", name: "Roof load", loads: inner.map((x) => ({ node: x.id, fz: -9000 })) }],
-    design: { objective: "mass", areaBounds: { min: 100, max: 20000 }, constraints: { stress: true, displacement: [{ node: "*", axis: "z", limit: 60 }] }, solver: { maxIterations: 500, tolerance: 1e-9 } },
-  };
 }
 
 beforeAll(async () => {
@@ -244,32 +175,6 @@ describe("pages", () => {
     expect(await page.evaluate(() => (window as unknown as { __stillHere?: boolean }).__stillHere)).toBe(true);
     const polls = requests.filter((u) => u.includes(`/api/jobs/${state.jobId}`));
     expect(polls.length, "progress came from the API by fetch").toBeGreaterThan(0);
-    await page.close();
-  });
-
-  it("cancels a run on request of its submitter", async () => {
-    const page = await pageAs("engineer");
-    // a double-layer grid big enough that the run is still going when cancel is pressed (the
-    // solver got quicker: 12 x 12 sometimes finished first)
-    const model = JSON.parse(fs.readFileSync(GOOD, "utf8")) as Record<string, unknown>;
-    const grid = gridRoof(16);
-    Object.assign(model, grid, { name: "Kiln shed roof grid (cancel test)" });
-    await page.goto(`${app.baseUrl}/projects/${state.projectId}`);
-    await page.locator('[data-testid="upload"] input[type="file"]').setInputFiles({ name: "grid.truss.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(model)) });
-    await page.waitForURL(/\/models\/[^/]+$/, { timeout: 20_000 });
-    await page.getByRole("button", { name: "Queue job" }).click();
-    await page.waitForURL(/\/jobs\/[^/]+$/, { timeout: 20_000 });
-    // live: the iteration count and the convergence plot fill in while it runs
-    await page.getByTestId("live-status").getByText(/^iteration \d+/).waitFor({ timeout: 60_000 });
-    await screenshot(page, "pages-job-running-1440x900");
-    // stopping asks first (issue 16), then keeps the best design found so far
-    await page.getByTestId("cancel-job").click();
-    await page.getByTestId("cancel-confirm").getByText("The best design found so far is kept").waitFor();
-    await page.getByTestId("cancel-confirm-yes").click();
-    await page.getByTestId("outcome").waitFor({ timeout: 60_000 });
-    await expect(page.locator("h1 [data-status]").getAttribute("data-status")).resolves.toBe("cancelled");
-    await expect(page.locator("h1").getByTestId("job-state").innerText()).resolves.toContain("stopped on request — best design so far kept");
-    await page.getByTestId("truss-viewer").waitFor({ timeout: 30_000 });
     await page.close();
   });
 

@@ -31,7 +31,7 @@ export function DeflectionSummaryPanel({ result, q }: { result: Head; q?: Quanti
                   <th>closest to its limit at</th>
                   <th className="whitespace-nowrap text-right">displacement ({len})</th>
                   <th className="whitespace-nowrap text-right">limit ({len})</th>
-                  <th className="whitespace-nowrap text-right">share of the limit</th>
+                  <th className="whitespace-nowrap text-right">share of the limit (%)</th>
                 </>
               )}
               <th>largest at</th>

@@ -6,7 +6,7 @@ import { formatGap } from "~/lib/lower-bound-words";
 export function gapColumn<Row extends { gap?: number | null }>(col: ColumnHelper<Row>) {
   return col.accessor((r) => r.gap ?? null, {
     id: "gap",
-    header: "gap",
+    header: "gap (%)",
     meta: { numeric: true, className: "hidden sm:table-cell" },
     sortUndefined: "last",
     cell: (c) => (

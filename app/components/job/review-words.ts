@@ -11,7 +11,9 @@ export function reviewStateWords(decision: string | null | undefined): string {
 }
 
 /** The label of the PDF link: what the downloaded report will say about its review. */
-export function reportLinkLabel(decision: string | null | undefined): string {
+export function reportLinkLabel(decision: string | null | undefined, signable = true): string {
+  // a run without a design to sign off (infeasible) is never "not reviewed yet": it cannot be approved
+  if (!signable && decision !== "changes-requested") return "Calculation report (PDF) — no design to sign off";
   if (decision === "approved") return "Calculation report (PDF) — approved";
   if (decision === "changes-requested") return "Calculation report (PDF) — changes requested, not approved";
   return "Calculation report (PDF) — not reviewed yet";

@@ -60,7 +60,8 @@ export function Stat({ label, value, hint, wrap = false }: { label: string; valu
   return (
     <div className={wrap ? "col-span-2 min-w-0" : "min-w-0"}>
       <dt className="text-xs font-semibold text-ink-muted">{label}</dt>
-      <dd className={`num mt-0.5 text-left text-lg text-ink ${wrap ? "break-words" : "truncate"}`} title={hint}>
+      {/* a figure wraps rather than being cut off: "1 limit exceeded" must read whole */}
+      <dd className="num mt-0.5 break-words text-left text-lg text-ink" title={hint}>
         {value}
       </dd>
     </div>

@@ -130,7 +130,8 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
             </select>
           </label>
         )}
-        {view.loadCases.length > 1 && caseId === undefined && (
+        {/* a painted view (the compare page's change in area) has no load case or deformed shape to show */}
+        {view.loadCases.length > 1 && caseId === undefined && !paint && (
           <label className="flex min-w-0 max-w-full items-center gap-2">
             <span className="whitespace-nowrap text-ink-muted">Load case</span>
             <select className="field-input w-auto min-w-0 max-w-full py-1" value={loadCase} onChange={(e) => setLoadCase(Number(e.target.value))}>
@@ -157,11 +158,11 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
         {view.hasResult && (
           <Toggle label={view.shapeChanged ? "initial geometry" : "initial outline"} checked={settings.showInitial} onChange={(v) => set("showInitial", v)} />
         )}
-        {view.hasResult && <Toggle label="deformed shape" checked={settings.showDeformed} onChange={(v) => set("showDeformed", v)} />}
+        {view.hasResult && !paint && <Toggle label="deformed shape" checked={settings.showDeformed} onChange={(v) => set("showDeformed", v)} />}
         <Toggle label="loads" checked={settings.showLoads} onChange={(v) => set("showLoads", v)} />
         <Toggle label="supports" checked={settings.showSupports} onChange={(v) => set("showSupports", v)} />
         {hasReactions && <Toggle label="reactions" checked={!!settings.showReactions} onChange={(v) => set("showReactions", v)} />}
-        {view.hasResult && settings.showDeformed && (
+        {view.hasResult && settings.showDeformed && !paint && (
           <label className="flex min-w-56 flex-1 items-center gap-2">
             <span className="whitespace-nowrap text-ink-muted">Magnify ×{formatNumber(deformationScale, { sig: 2 })}</span>
             <input
