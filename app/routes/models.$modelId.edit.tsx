@@ -1,13 +1,16 @@
 // The editor page: a version of a model (the latest, or ?version=N, e.g. from "edit and run
 // again" on a job page) in editable tables with a live preview; saving adds a new version.
+// The model itself is not in the page's data: the page fetches the version's file, preloaded
+// from its head (use-model-file.ts, docs/decisions/0021).
 import { data, Link, redirect, useNavigation } from "react-router";
 import { ModelEditor } from "~/components/editor/ModelEditor";
+import { modelFileUrl, preloadModelFile, useModelFile } from "~/components/editor/use-model-file";
 import { RouteError } from "~/components/ui/RouteError";
 import { audit } from "~/lib/auth/audit.server";
 import { requireModel } from "~/lib/access.server";
 import { badRequest, notFound, withDependencies } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
-import { createModelVersion, getModelVersionFile } from "~/lib/models/versions.server";
+import { createModelVersion, getModelVersion } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.edit";
 
 export function meta({ data }: Route.MetaArgs) {
@@ -32,12 +35,9 @@ export const loader = withDependencies(async function loader({ request, params }
   await requireModel(request, params.modelId, "create:model");
   const model = await getModel(params.modelId);
   if (!model) notFound(`Model ${params.modelId}`);
-  const file = await getModelVersionFile(model.id, versionParam(request));
-  if (!file) notFound(`That version of model ${params.modelId}`);
-  const json = JSON.parse(file.text) as Record<string, unknown>;
-  // the model goes to the page as its text: one string crosses faster than thousands of
-  // objects encoded one by one (a 3,000-member model: most of the page's data)
-  return { id: model.id, name: model.name, version: file.version, modelText: file.text, units: json.units as { length: string; force: string; mass: string }, answers: answersParam(request) };
+  const version = await getModelVersion(model.id, versionParam(request));
+  if (!version) notFound(`That version of model ${params.modelId}`);
+  return { id: model.id, name: model.name, version: version.version, answers: answersParam(request) };
 });
 
 export const action = withDependencies(async function action({ request, params }: Route.ActionArgs) {
@@ -57,8 +57,14 @@ export function ErrorBoundary() {
   return <RouteError what="model" />;
 }
 
+type Units = { length: string; force: string; mass: string };
+
 export default function EditModelPage({ loaderData, actionData }: Route.ComponentProps) {
   const nav = useNavigation();
+  const fileUrl = modelFileUrl(loaderData.id, loaderData.version);
+  preloadModelFile(fileUrl);
+  const file = useModelFile(fileUrl);
+  const units = file.status === "loaded" ? (file.model.units as Units | undefined) : undefined;
   return (
     <div className="space-y-4">
       <header>
@@ -79,10 +85,24 @@ export default function EditModelPage({ loaderData, actionData }: Route.Componen
           </p>
         )}
         <p className="mt-1 max-w-3xl text-sm text-ink-soft">
-          Units of this model: lengths in {loaderData.units.length}, forces in {loaderData.units.force}, masses in {loaderData.units.mass}. Saving keeps version {loaderData.version} as it is and adds the next version.
+          {units ? `Units of this model: lengths in ${units.length}, forces in ${units.force}, masses in ${units.mass}. ` : ""}Saving keeps version {loaderData.version} as it is and adds the next version.
         </p>
       </header>
-      <ModelEditor initialText={loaderData.modelText} units={loaderData.units} baseVersion={loaderData.version} saving={nav.state === "submitting"} saveError={actionData?.error ?? null} />
+      {file.status === "loaded" && units ? (
+        <ModelEditor key={fileUrl} initial={file.model} units={units} baseVersion={loaderData.version} saving={nav.state === "submitting"} saveError={actionData?.error ?? null} />
+      ) : file.status === "failed" ? (
+        <p className="max-w-3xl rounded-md bg-bad-wash px-3 py-2 text-sm text-bad" role="alert">
+          Version {loaderData.version} of this model could not be loaded ({file.message}). Reload the page to try again.
+        </p>
+      ) : file.status === "loaded" ? (
+        <p className="max-w-3xl rounded-md bg-bad-wash px-3 py-2 text-sm text-bad" role="alert">
+          Version {loaderData.version} of this model has no units block, so its tables cannot be labelled. See docs/model-format.md (units).
+        </p>
+      ) : (
+        <p className="rounded-md bg-paper-sunk px-3 py-2 text-sm text-ink-muted" role="status">
+          Loading version {loaderData.version} of the model…
+        </p>
+      )}
     </div>
   );
 }

@@ -3,9 +3,10 @@
 // own parser (the messages an upload gives), run in a worker; the 2D/3D preview beside them,
 // where clicking a member or a node selects its row and selecting a row shows it in the view.
 // Saving posts the model as a new version.
-import { useCallback, useDeferredValue, useMemo, useRef, useState } from "react";
+import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from "react";
 import { Form } from "react-router";
 import { TrussViewer } from "~/components/viewer/TrussViewer";
+import { markOnce, PAGE_MARKS } from "~/lib/page-timing";
 import type { ModelLike } from "~/components/viewer/truss-view";
 import { EditableGrid, type GridColumn, type GridRow } from "./EditableGrid";
 import { EditorSections } from "~/components/catalogues/EditorSections";
@@ -25,17 +26,30 @@ const TABS: { id: Tab; label: string }[] = [
   { id: "design", label: "Design" },
 ];
 
+/** The first check starts when the preview has drawn, or after this long without a drawing (no WebGL, a lost context). */
+const CHECK_AT_THE_LATEST_MS = 2000;
+
 /** The selected row: a node or a member (table row index), shown in the preview too. */
 type Selection = { kind: "node" | "member"; row: number } | null;
 
-export function ModelEditor({ initialText, units, baseVersion, saving, saveError }: { initialText: string; units: { length: string; force: string; mass: string }; baseVersion: number; saving: boolean; saveError?: string | null }) {
-  const [initial] = useState(() => JSON.parse(initialText) as Record<string, unknown>);
+export function ModelEditor({ initial, units, baseVersion, saving, saveError }: { initial: Record<string, unknown>; units: { length: string; force: string; mass: string }; baseVersion: number; saving: boolean; saveError?: string | null }) {
   const [tables, setTables] = useState<EditorTables>(() => toTables(initial));
   const [tab, setTab] = useState<Tab>("nodes");
   const [selection, setSelection] = useState<Selection>(null);
   const [note, setNote] = useState("");
+  useEffect(() => markOnce(PAGE_MARKS.editorHydrated), []);
   const deferred = useDeferredValue(tables);
-  const model = useMemo(() => fromTables(deferred), [deferred]);
+  // the first check (building the model from the tables, starting the parser's worker and
+  // handing it thousands of rows) waits until the preview has drawn its first frame: on a
+  // small machine it would otherwise take CPU from that frame, and the stored version it
+  // checks passed the same gate when it was saved
+  const [checkFromNow, setCheckFromNow] = useState(false);
+  const startChecking = useCallback(() => setCheckFromNow(true), []);
+  useEffect(() => {
+    const fallback = setTimeout(startChecking, CHECK_AT_THE_LATEST_MS);
+    return () => clearTimeout(fallback);
+  }, [startChecking]);
+  const model = useMemo(() => (checkFromNow ? fromTables(deferred) : null), [checkFromNow, deferred]);
   const { result: check, current: checked } = useModelCheck(model);
   const errors = check === null || check.ok ? [] : check.errors;
   const flagged = useMemo(() => {
@@ -74,8 +88,8 @@ export function ModelEditor({ initialText, units, baseVersion, saving, saveError
   const memberInView = viewIndex("member");
   const nodeInView = viewIndex("node");
   const viewer = useMemo(
-    () => <TrussViewer model={preview} title="Preview" height="h-[28rem]" selectedMember={memberInView} onSelectMember={pickMember} selectedNode={nodeInView} onSelectNode={pickNode} />,
-    [preview, memberInView, nodeInView, pickMember, pickNode],
+    () => <TrussViewer model={preview} title="Preview" height="h-[28rem]" selectedMember={memberInView} onSelectMember={pickMember} selectedNode={nodeInView} onSelectNode={pickNode} onFirstFrame={startChecking} />,
+    [preview, memberInView, nodeInView, pickMember, pickNode, startChecking],
   );
   const selectedRow = (kind: "node" | "member") => (selection?.kind === kind ? selection.row : null);
   const selectRow = (kind: "node" | "member") => (row: number | null) => setSelection(row === null ? null : { kind, row });
@@ -176,7 +190,7 @@ export function ModelEditor({ initialText, units, baseVersion, saving, saveError
             sectionCount={Array.isArray(tables.rest.sections) ? tables.rest.sections.length : 0}
             units={units}
             problems={errors}
-            json={model.design}
+            json={model?.design}
           />
         )}
 

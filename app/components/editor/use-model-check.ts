@@ -27,31 +27,33 @@ function startChecker(onResult: (id: number, result: ParseResult) => void): Chec
   }
 }
 
-/** The newest answer (null before the first) and whether it is about `model` as it is now. */
+/** The newest answer (null before the first) and whether it is about `model` as it is now. A null model is not checked: the worker starts with the first model given. */
 export function useModelCheck(model: unknown): { result: ParseResult | null; current: boolean } {
   const [answer, setAnswer] = useState<{ result: ParseResult; model: unknown } | null>(null);
   const state = useRef<{ checker: Checker | null; busy: boolean; next: { id: number; model: unknown } | null; latest: number; latestModel: unknown }>({ checker: null, busy: false, next: null, latest: 0, latestModel: undefined });
 
   useEffect(() => {
     const s = state.current;
-    s.checker = startChecker((id, r) => {
-      s.busy = false;
-      if (id === s.latest) setAnswer({ result: r, model: s.latestModel });
-      if (s.next) {
-        s.busy = true;
-        s.checker!.post(s.next.id, s.next.model);
-        s.next = null;
-      }
-    });
     return () => {
       s.checker?.stop();
       s.checker = null;
+      s.busy = false;
+      s.next = null;
     };
   }, []);
 
   useEffect(() => {
     const s = state.current;
-    if (!s.checker) return;
+    if (model === null) return;
+    s.checker ??= startChecker((id, r) => {
+      s.busy = false;
+      if (id === s.latest) setAnswer({ result: r, model: s.latestModel });
+      if (s.next) {
+        s.busy = true;
+        s.checker?.post(s.next.id, s.next.model);
+        s.next = null;
+      }
+    });
     const id = ++s.latest;
     s.latestModel = model;
     if (s.busy) s.next = { id, model };

@@ -4,10 +4,11 @@
 // loads arrows. The camera frames the truss on demand ("fit"); planar trusses get a 2D
 // projection (orthographic, pan and zoom only) unless the user asks for 3D.
 import { AdaptiveDpr, OrbitControls, OrthographicCamera, PerspectiveCamera } from "@react-three/drei";
-import { Canvas, useFrame, useThree } from "@react-three/fiber";
+import { addAfterEffect, Canvas, useThree } from "@react-three/fiber";
 import { useEffect, useLayoutEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
+import { markOnce, PAGE_MARKS } from "~/lib/page-timing";
 import { cssColor, forceSense, SENSE_TOKENS } from "./palette";
 import { isOverLimit, OVER_LIMIT_OUTLINE, utilizationColor } from "~/lib/utilization-scale";
 import { placeCone, placeCylinder } from "./instancing";
@@ -50,9 +51,11 @@ interface Props {
   onSelectNode?: (index: number | null) => void;
   onHoverMember?: (hover: MemberHover | null) => void;
   onContextLost?: () => void;
+  /** called once, after the first frame is rendered */
+  onFirstFrame?: () => void;
 }
 
-export default function TrussScene({ view, settings, paint, selected, onSelectMember, selectedNode, onSelectNode, onHoverMember, onContextLost }: Props) {
+export default function TrussScene({ view, settings, paint, selected, onSelectMember, selectedNode, onSelectNode, onHoverMember, onContextLost, onFirstFrame }: Props) {
   const up = upAxis(view);
   const ortho = view.planar && settings.projection2d;
   const span = view.bounds.span;
@@ -75,7 +78,7 @@ export default function TrussScene({ view, settings, paint, selected, onSelectMe
       dpr={heavy ? 1 : [1, 2]}
       gl={{ antialias: !heavy, preserveDrawingBuffer: true, powerPreference: "high-performance" }}
       onCreated={({ gl }) => {
-        markOnce("truss-canvas-created");
+        markOnce(PAGE_MARKS.canvasCreated);
         // reading each shader's compile log makes the first frame wait for every compile in
         // turn (a large share of it on software renderers); a production build skips that check
         gl.debug.checkShaderErrors = import.meta.env.DEV;
@@ -108,23 +111,25 @@ export default function TrussScene({ view, settings, paint, selected, onSelectMe
       {settings.showLoads && <Loads view={view} loadCase={settings.loadCase} />}
       {settings.showReactions && <Loads view={view} loadCase={settings.loadCase} reactions />}
       <Framing view={view} box={box} ortho={ortho} up={up} fitNonce={settings.fitNonce} />
-      <FirstFrameMark />
+      <FirstFrameMark onDrawn={onFirstFrame} />
     </Canvas>
   );
 }
 
-/** User-timing marks of the first scene on a page (read by the workbench bench; cheap, no effect on drawing). */
-function markOnce(name: string) {
-  if (typeof performance !== "undefined" && performance.getEntriesByName(name).length === 0) performance.mark(name);
-}
-
-function FirstFrameMark() {
-  const done = useRef(false);
-  useFrame(() => {
-    if (done.current) return;
-    done.current = true;
-    markOnce("truss-first-frame");
-  });
+/** Marks the page's timeline once the scene's first frame is rendered (after its draw calls). */
+function FirstFrameMark({ onDrawn }: { onDrawn?: () => void }) {
+  const gl = useThree((s) => s.gl);
+  const latest = useRef(onDrawn);
+  latest.current = onDrawn;
+  useEffect(() => {
+    const stop = addAfterEffect(() => {
+      if (gl.info.render.frame === 0) return; // a tick of the loop that drew nothing yet
+      stop();
+      markOnce(PAGE_MARKS.firstFrame);
+      latest.current?.();
+    });
+    return stop;
+  }, [gl]);
   return null;
 }
 

@@ -54,11 +54,13 @@ interface Props {
   displayUnits?: DisplayUnitChoice;
   /** colours by member id in place of the colour modes, with their own legend and hover words */
   paint?: { colours: Record<string, string>; legend: ReactNode; describe: (memberId: string) => string } | null;
+  /** called once the first frame is drawn (or at once when this browser cannot draw one) */
+  onFirstFrame?: () => void;
 }
 
 const SCALE_STEPS = 40; // slider positions, on a log scale around the default magnification
 
-export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, selectedNode = null, onSelectNode, selectedMemberId, onSelectMemberId, displayUnits = "model", paint }: Props) {
+export function TrussViewer({ model, result, title = "3D view", height = "h-[26rem] sm:h-[32rem]", caseId, selectedMember, onSelectMember, selectedNode = null, onSelectNode, selectedMemberId, onSelectMemberId, displayUnits = "model", paint, onFirstFrame }: Props) {
   const view = useMemo(() => buildTrussView(model, result), [model, result]);
   const q = useMemo(() => (view.units ? quantityFormatter(view.units, displayUnits) : null), [view.units, displayUnits]);
   const byId = useMemo(() => new Map(view.members.map((m, i) => [m.id, i])), [view]);
@@ -95,6 +97,10 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
     setMounted(true);
     setGl(webglAvailable());
   }, []);
+  // nothing will be drawn without WebGL or after a lost context: whoever waits goes on now
+  useEffect(() => {
+    if (gl === false || lost) onFirstFrame?.();
+  }, [gl, lost, onFirstFrame]);
 
   // slider position → magnification: centre = default, ends = default / 10 and × 10
   const deformationScale = baseScale * Math.pow(10, (scaleStep - SCALE_STEPS / 2) / (SCALE_STEPS / 2));
@@ -211,6 +217,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
                 onSelectNode={onSelectNode}
                 onHoverMember={onHover}
                 onContextLost={() => setLost(true)}
+                onFirstFrame={onFirstFrame}
               />
             </Suspense>
           </SceneBoundary>
