@@ -23,6 +23,17 @@ describe("result tables", () => {
     expect(html).toContain("106.4"); // 25,000 N / 235 MPa, four figures (statics, common practice)
   });
 
+  it("prints a member force of rounding noise as 0 and words the governing check", () => {
+    // a billionth of the largest force is rounding, not a force (app/lib/format.ts noiseFloor)
+    const noisy = structuredClone(result);
+    const lc = Object.keys(noisy.members[0]!.force)[0]!;
+    noisy.members.push({ ...structuredClone(noisy.members[0]!), id: "idle", force: { [lc]: 5.376e-10 }, stress: { [lc]: 3.424e-13 } });
+    const html = renderToString(createElement(MemberTable, { result: noisy, topology, fileName: "two-bar" }));
+    expect(html).not.toMatch(/537\.6e-12|342\.4e-15/);
+    expect(html).toMatch(/stress under \S+/);
+    expect(html).not.toMatch(/>stress:/);
+  });
+
   it("lists the nodes with theirs", () => {
     const html = renderToString(createElement(NodeTable, { result, topology, fileName: "two-bar" }));
     expect(html).toContain('placeholder="Filter nodes…"');

@@ -224,6 +224,22 @@ describe("results that need attention", () => {
     expect(all).not.toMatch(/lower area bound|minimum area of D6/);
   });
 
+  it("prints rounding noise as 0 in the force, stress, displacement and reaction tables", async () => {
+    // a member the load case leaves unloaded comes out of the solve with a force of about 1e-9
+    // of the largest one, not 0: that is rounding, not a force (common practice: a billionth of
+    // the column's largest value, app/lib/format.ts noiseFloor)
+    const f = warrenFixture({ panels: 4 });
+    const data = reportDataFor(f);
+    const r = structuredClone(data.result);
+    const m = r.members.find((x) => x.id === "D4")!;
+    m.force.LC1 = 5.376e-10;
+    m.stress.LC1 = 3.424e-13;
+    r.nodes[0]!.displacement.LC1 = [4.892e-15, 0, 0];
+    const all = (await pageTexts(await buildReportPdf({ ...data, result: r }))).join("\n");
+    expect(all).toMatch(/D4 0 0 /);
+    expect(all).not.toMatch(/5\.376e-12|537\.6e-12|342\.4e-15|4\.892e-15/);
+  });
+
   it("words the active constraints itself when the result has no shadow prices", async () => {
     const f = warrenFixture({ panels: 4 });
     const data = reportDataFor(f);

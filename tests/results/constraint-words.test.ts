@@ -9,7 +9,7 @@ import {
   constraintWords,
   governingCheckWords,
   parseConstraintId,
-} from "~/lib/results/constraint-words";
+} from "~/engine/design/constraint-words";
 import { steppedByWords } from "~/lib/results/catalogue-words";
 import { caseWords } from "~/lib/results/cases";
 

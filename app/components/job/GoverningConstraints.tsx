@@ -3,7 +3,7 @@
 import type { TrussResult } from "~/engine/design/result-types";
 import { formatResidual } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
-import { constraintWords } from "~/lib/results/constraint-words";
+import { constraintWords } from "~/engine/design/constraint-words";
 
 type WithLimits = Pick<TrussResult, "shadowPrices" | "activeConstraints" | "objective"> & Partial<Pick<TrussResult, "loadCases" | "combinations" | "members">>;
 

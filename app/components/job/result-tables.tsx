@@ -12,7 +12,7 @@ import { UtilizationChip } from "~/components/viewer/UtilizationKey";
 import { governingCaseOf } from "~/lib/results/cases";
 import { membersCsv, nodesCsv } from "~/lib/results/result-csv";
 import { CaseSelect, useResultCase } from "./ResultCase";
-import { governingCheckWords } from "~/lib/results/constraint-words";
+import { governingCheckWords } from "~/engine/design/constraint-words";
 
 interface Topology {
   members: Map<string, { start: string; end: string; group?: string }>;
@@ -84,6 +84,11 @@ export function MemberTable({
   const { ids: lcs, current: lc } = cases;
   const q = useMemo(() => quantityFormatter(result.units as Units, units), [result.units, units]);
   const maxAbs = useMemo(() => result.members.reduce((m, r) => Math.max(m, Math.abs(r.force[lc] ?? 0)), 0), [result, lc]);
+  // rounding noise (5.4e-10 N beside 360,000 N) prints as 0: a billionth of the column's largest value
+  const floors = useMemo(
+    () => ({ force: noiseFloor(result.members.map((m) => m.force[lc] ?? 0)), stress: noiseFloor(result.members.map((m) => m.stress[lc] ?? 0)) }),
+    [result, lc],
+  );
   const col = createColumnHelper<ResultMember>();
   const withSection = result.members.some((m) => m.section !== undefined);
   const withK = result.members.some((m) => m.bucklingFactor !== undefined);
@@ -102,8 +107,8 @@ export function MemberTable({
         ),
       }),
       col.accessor("area", { header: `area (${q.unit("area")})`, cell: (c) => q.number(c.getValue(), "area"), meta: { numeric: true } }),
-      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${q.unit("force")})`, cell: (c) => q.number(c.getValue(), "force"), meta: { numeric: true } }),
-      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${q.unit("stress")})`, cell: (c) => q.number(c.getValue(), "stress"), meta: { numeric: true } }),
+      col.accessor((m) => m.force[lc] ?? 0, { id: "force", header: `force (${q.unit("force")})`, cell: (c) => q.number(c.getValue(), "force", { zeroBelow: floors.force }), meta: { numeric: true } }),
+      col.accessor((m) => m.stress[lc] ?? 0, { id: "stress", header: `stress (${q.unit("stress")})`, cell: (c) => q.number(c.getValue(), "stress", { zeroBelow: floors.stress }), meta: { numeric: true } }),
       col.accessor((m) => forceSense(m.force[lc] ?? 0, maxAbs), { id: "sense", header: "sense" }),
       col.accessor("length", { header: `length (${q.unit("length")})`, cell: (c) => q.number(c.getValue(), "length"), meta: { numeric: true } }),
       ...(withK ? [col.accessor((m) => m.bucklingFactor ?? null, { id: "k", header: "buckling factor k", cell: (c) => formatNumber(c.getValue(), { sig: 3 }), meta: { numeric: true } })] : []),
@@ -113,7 +118,7 @@ export function MemberTable({
       ...(lcs.length > 1 ? [col.accessor((m) => governingCaseOf(m, lcs) ?? "", { id: "governingCase", header: "governing case" })] : []),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
-    [lc, lcs, maxAbs, topology, q, withSection, withK],
+    [lc, lcs, maxAbs, floors, topology, q, withSection, withK],
   );
   const csv = () => {
     const t = membersCsv(result, topology);

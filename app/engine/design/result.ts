@@ -16,6 +16,7 @@ import { memberForceMap, memberStressMap, nodeDisplacementMap, reactionBalance, 
 import { maxOf } from "../util/extent";
 import { criterionCosts } from "./criterion-costs";
 import { deflectionSummary, problemDeflectionLimits } from "./deflection-summary";
+import { constraintWords } from "./constraint-words";
 
 const DESIGN_HINTS: Partial<Record<SolverStatus, string>> = {
   "not-converged":
@@ -131,7 +132,7 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
   if (status === "optimal" && !re.verification.allLimitsMet) {
     const f = re.verification.failures[0];
     status = "not-converged";
-    message = `The optimizer stopped at a point the independent re-analysis rejects: ${f.id} is at ${(100 * f.ratio).toFixed(2)}% of its limit.`;
+    message = `The optimizer stopped at a point the independent re-analysis rejects: the ${constraintWords(f.id, p.model)} is at ${(100 * f.ratio).toFixed(2)} % of its limit.`;
     hint = "Tighten the tolerance or raise the iteration limit and run again.";
   }
 
@@ -140,7 +141,7 @@ export function buildResult(run: PreparedRun, r: SqpResult, elapsedMs: number): 
     // displacement variables, "off by 1.48" with no unit); the engineer needs the limit that
     // the fresh analysis finds broken, as a share of that limit
     const worst = re.verification.failures.reduce((a, b) => (b.ratio > a.ratio ? b : a));
-    message = `The limits cannot be met together near this design: in a fresh analysis of the least-violating design found, ${worst.id} is at ${(100 * worst.ratio).toFixed(1)}% of its limit.`;
+    message = `The limits cannot be met together near this design: in a fresh analysis of the least-violating design found, the ${constraintWords(worst.id, p.model)} is at ${(100 * worst.ratio).toFixed(1)} % of its limit.`;
   }
 
   const priced = priceConstraints(p, r, run.objectiveScale);

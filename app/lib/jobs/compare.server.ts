@@ -11,7 +11,7 @@ import { isMember, type SessionUser } from "~/lib/access.server";
 import { getJobResult } from "~/lib/jobs/queue.server";
 import { latestDecisions } from "~/lib/jobs/review-state.server";
 import { notFound } from "~/lib/http.server";
-import { constraintKindWords } from "~/lib/results/constraint-words";
+import { constraintKindWords } from "~/engine/design/constraint-words";
 
 /** More runs than this do not fit side by side on a desktop; the page says so. */
 export const COMPARE_MAX = 6;

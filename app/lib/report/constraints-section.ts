@@ -4,7 +4,7 @@
 // independent verification checks of the final design.
 import type { VerificationCheck } from "~/engine/design/result-types";
 import { formatPercent, formatResidual, quantityFormatter } from "~/lib/format";
-import { constraintQuantity, constraintWords } from "~/lib/results/constraint-words";
+import { constraintQuantity, constraintWords } from "~/engine/design/constraint-words";
 import type { ReportWriter } from "./layout";
 import { BAD, INK, INK_MUTED, OK } from "./palette";
 import type { ReportData } from "./report-data";
@@ -44,20 +44,20 @@ export function constraintsSection(w: ReportWriter, data: ReportData) {
     table(
       w,
       [
-        { header: "Check", weight: 7 },
-        { header: "Value", weight: 1.7, align: "right" },
-        { header: "Limit", weight: 1.7, align: "right" },
-        { header: "Unit", weight: 1.1 },
-        { header: "Ratio", weight: 1.5, align: "right" },
-        { header: "Result", weight: 1.3 },
-        { header: "Check id", weight: 2.6, face: "mono" },
+        { header: "Check", weight: 6.4 },
+        { header: "Value", weight: 1.5, align: "right" },
+        { header: "Limit", weight: 1.5, align: "right" },
+        { header: "Unit", weight: 0.9 },
+        { header: "Ratio", weight: 1.4, align: "right" },
+        { header: "Result", weight: 1.2 },
+        { header: "Check id", weight: 3.6, face: "mono" },
       ],
       checks.map((c) => {
         const quantity = constraintQuantity(c.id);
         const num = (x: number) => (quantity ? q.number(x, quantity) : formatResidual(x));
         return [constraintWords(c.id, ctx), num(c.value), num(c.limit), quantity ? q.unit(quantity) : "ratio", formatPercent(c.ratio), c.ok ? "met" : "FAILED", c.id];
       }),
-      { title, cellColor: (i, col) => (col === 5 ? (checks[i]!.ok ? OK : BAD) : col === 6 ? INK_MUTED : undefined) },
+      { title, size: 7.2, cellColor: (i, col) => (col === 5 ? (checks[i]!.ok ? OK : BAD) : col === 6 ? INK_MUTED : undefined) },
     );
   if (v.failures.length) checkTable("Failed checks", v.failures);
   if (v.worst.length) checkTable("Closest to their limits", v.worst);

@@ -6,7 +6,7 @@ import type { ShadowPrice, TrussResult } from "~/engine/design/result-types";
 import { areaBoundsRule } from "~/engine/design/problem";
 import { formatNumber, formatPercent, quantityFormatter } from "~/lib/format";
 import { caseWords } from "~/lib/results/cases";
-import { constraintQuantity, constraintWords } from "~/lib/results/constraint-words";
+import { constraintQuantity, constraintWords } from "~/engine/design/constraint-words";
 import { bindingCriteria, idleCriteria, idleCriteriaSentence, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
 import { isOverLimit } from "~/lib/utilization-scale";
 import type { ReportWriter } from "./layout";
@@ -168,7 +168,7 @@ export function deflectionsPart(w: ReportWriter, r: TrussResult) {
   table(
     w,
     [
-      { header: "Case", weight: 3.2 },
+      { header: "Case", weight: 6.5 }, // a case's name and id: room for about 45 characters
       ...(limited
         ? [
             { header: "Closest to limit", weight: 2.2 },

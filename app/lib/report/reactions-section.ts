@@ -3,7 +3,7 @@
 import type { ReportWriter } from "./layout";
 import { INK, INK_MUTED } from "./palette";
 import type { ReportData } from "./report-data";
-import { formatNumber, formatResidual } from "~/lib/format";
+import { formatNumber, formatResidual, noiseFloor } from "~/lib/format";
 import { chunks, table } from "./tables";
 import { unitLabels } from "./units";
 import { resultCases } from "~/lib/results/cases";
@@ -19,11 +19,12 @@ export function reactionsSection(w: ReportWriter, data: ReportData) {
 
   w.heading("Support reactions", 2);
   w.paragraph(`Forces the supports exert on the truss along the global axes, in ${u.force}; 0 on an axis the node is free to move along.`, { size: 8.5, color: INK_MUTED });
+  const reactionFloor = noiseFloor(reactions.flatMap((x) => Object.values(x.values).flat()));
   for (const group of chunks(cases, dim === 3 ? 2 : 3)) {
     table(
       w,
       [{ header: "Node", weight: 3 }, ...group.flatMap((c) => axes.map((a) => ({ header: `${c.id} R${a} (${u.force})`, weight: 2.3, align: "right" as const })))],
-      reactions.map((x) => [x.node, ...group.flatMap((c) => axes.map((_, k) => formatNumber(x.values[c.id]?.[k], { sig: 5 })))]),
+      reactions.map((x) => [x.node, ...group.flatMap((c) => axes.map((_, k) => formatNumber(x.values[c.id]?.[k], { sig: 5, zeroBelow: reactionFloor })))]),
       { title: `Reactions, ${group.map((c) => c.id).join(", ")}` },
     );
   }
@@ -42,7 +43,10 @@ export function reactionsSection(w: ReportWriter, data: ReportData) {
         ...axes.map((a) => ({ header: `applied ${a} (${u.force})`, weight: 2.3, align: "right" as const })),
         { header: "left over (relative)", weight: 2.4, align: "right" },
       ],
-      balance.map((b) => [b.id, ...axes.map((_, k) => formatNumber(b.reactions[k], { sig: 6 })), ...axes.map((_, k) => formatNumber(b.applied[k], { sig: 6 })), formatResidual(b.residual)]),
+      balance.map((b) => {
+        const zeroBelow = noiseFloor([...b.reactions, ...b.applied]);
+        return [b.id, ...axes.map((_, k) => formatNumber(b.reactions[k], { sig: 6, zeroBelow })), ...axes.map((_, k) => formatNumber(b.applied[k], { sig: 6, zeroBelow })), formatResidual(b.residual)];
+      }),
       { title: "Balance of reactions and loads" },
     );
   }

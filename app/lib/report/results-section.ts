@@ -3,7 +3,7 @@
 import { convergencePlot } from "./convergence-plot";
 import { lowerBoundSection } from "./lower-bound-section";
 import { statusWords } from "./cover";
-import { formatNumber, formatPercent, formatResidual } from "~/lib/format";
+import { formatNumber, formatPercent, formatResidual, noiseFloor } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, COMPRESSION, INK, INK_MUTED, TENSION } from "./palette";
 import { isOverLimit, utilizationColor } from "~/lib/utilization-scale";
@@ -12,7 +12,7 @@ import { chunks, table } from "./tables";
 import { drawingInput, trussDrawing } from "./truss-drawing";
 import { objectiveUnit, unitLabels } from "./units";
 import { resultCases } from "~/lib/results/cases";
-import { governingCheckWords } from "~/lib/results/constraint-words";
+import { governingCheckWords } from "~/engine/design/constraint-words";
 
 export function loadCaseIds(data: ReportData): { id: string; name?: string }[] {
   if (data.result.loadCases?.length) return resultCases(data.result); // load cases, then combinations
@@ -94,6 +94,9 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
     },
   );
 
+  // rounding noise (5.4e-10 N beside 360,000 N) prints as 0: a billionth of the largest value of its kind
+  const forceFloor = noiseFloor(r.members.flatMap((m) => Object.values(m.force)));
+  const stressFloor = noiseFloor(r.members.flatMap((m) => Object.values(m.stress)));
   for (const group of chunks(lcs, 3)) {
     const names = group.map((l) => l.id).join(", ");
     w.heading(`Forces and stresses, ${group.length > 1 ? "load cases" : "load case"} ${names}`, 2);
@@ -107,12 +110,12 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
           { header: `${lc.id} stress (${u.stress})`, weight: 2.6, align: "right" as const },
         ]),
       ],
-      r.members.map((m) => [m.id, ...group.flatMap((lc) => [formatNumber(m.force[lc.id]), formatNumber(m.stress[lc.id])])]),
+      r.members.map((m) => [m.id, ...group.flatMap((lc) => [formatNumber(m.force[lc.id], { zeroBelow: forceFloor }), formatNumber(m.stress[lc.id], { zeroBelow: stressFloor })])]),
       {
         cellColor: (i, c) => {
           if (c === 0) return undefined;
           const f = r.members[i]!.force[group[Math.floor((c - 1) / 2)]!.id];
-          return f === undefined || f === 0 ? INK : f > 0 ? TENSION : COMPRESSION;
+          return f === undefined || Math.abs(f) < forceFloor || f === 0 ? INK : f > 0 ? TENSION : COMPRESSION;
         },
       },
     );
@@ -120,6 +123,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
 
   const dim = data.model.file?.dimension === 3 || r.nodes.some((n) => Object.values(n.displacement).some((d) => d[2] !== 0)) ? 3 : 2;
   const axes = dim === 3 ? ["x", "y", "z"] : ["x", "y"];
+  const displacementFloor = noiseFloor(r.nodes.flatMap((n) => Object.values(n.displacement).flat()));
   for (const group of chunks(lcs, dim === 3 ? 2 : 3)) {
     w.heading(`Displacements (${u.length}), ${group.length > 1 ? "load cases" : "load case"} ${group.map((l) => l.id).join(", ")}`, 2);
     table(
@@ -128,7 +132,7 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
         { header: "Node", weight: 3 },
         ...group.flatMap((lc) => axes.map((a) => ({ header: `${lc.id} u${a}`, weight: 2, align: "right" as const }))),
       ],
-      r.nodes.map((n) => [n.id, ...group.flatMap((lc) => axes.map((_, k) => formatNumber(n.displacement[lc.id]?.[k])))]),
+      r.nodes.map((n) => [n.id, ...group.flatMap((lc) => axes.map((_, k) => formatNumber(n.displacement[lc.id]?.[k], { zeroBelow: displacementFloor })))]),
     );
   }
 
@@ -139,8 +143,8 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
     [
       { header: "Variable", weight: 3 },
       { header: `Final value (${u.length})`, weight: 2.5, align: "right" },
-      { header: "Lower bound", weight: 2, align: "right" },
-      { header: "Upper bound", weight: 2, align: "right" },
+      { header: `Lower bound (${u.length})`, weight: 2, align: "right" },
+      { header: `Upper bound (${u.length})`, weight: 2, align: "right" },
     ],
     r.variables.map((v) => [v.id, formatNumber(v.value, { sig: 6 }), formatNumber(shapeDef.get(v.id)?.min), formatNumber(shapeDef.get(v.id)?.max)]),
     { empty: "This design problem has no shape variables; the geometry is as uploaded." },

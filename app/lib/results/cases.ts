@@ -53,15 +53,5 @@ export function governingCaseOf(m: Pick<ResultMember, "governing" | "governingCa
   return caseIds.find((id) => g === id || g.endsWith(`:${id}`));
 }
 
-/** Whatever names the load cases and combinations: a result, or its head. */
-export interface NamedCases {
-  loadCases?: readonly { id: string; name?: string }[];
-  combinations?: readonly { id: string; name?: string }[];
-}
-
-/** The plain name of a load case or combination: "Snow (G+S)", or the id when it has no name. */
-export function caseWords(id: string | undefined, r?: NamedCases): string {
-  if (!id) return "";
-  const named = r?.loadCases?.find((l) => l.id === id)?.name ?? r?.combinations?.find((c) => c.id === id)?.name;
-  return named ? `${named} (${id})` : id;
-}
+// the rule for naming a case lives beside the constraint words it serves
+export { caseWords, type NamedCases } from "~/engine/design/constraint-words";

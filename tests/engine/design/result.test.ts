@@ -67,7 +67,9 @@ describe("infeasible designs", () => {
     it(`names the broken limit (${formulation})`, () => {
       const r = optimizeModel(fixture("infeasible-bracket.truss.json"), { formulation });
       expect(r.status).toBe("infeasible");
-      expect(r.message).toMatch(/stress:tie/);
+      // in words, with the tie's nodes and the load case's name (app/engine/design/constraint-words.ts), no raw id
+      expect(r.message).toMatch(/the stress limit of member tie \(nodes W2–T\) under Sign weight \(sign\) is at \d+\.\d % of its limit/);
+      expect(r.message).not.toMatch(/stress:tie/);
       expect(r.message).not.toMatch(/equilibrium/);
       expect(r.verification!.allLimitsMet).toBe(false);
     });

@@ -1,6 +1,8 @@
 // The one home of the rule that turns an engine constraint or check id into plain words
 // ("stress:U4-U5:G+S" → "stress limit of member U4-U5 (nodes U4–U5) under Snow (G+S)"), for the
-// job page, the compare page, the PDF report, the mail and the CSV alike. Pure and isomorphic.
+// engine's own messages, the job page, the compare page, the PDF report and the mail alike. Pure
+// and isomorphic; it lives in the engine because the engine's messages name checks too
+// (docs/decisions: constraint words).
 //
 // The ids are the engine's (app/engine/design/problem.ts, verify.ts, shadow-prices.ts):
 //   stress:<member>:<case>            stress-tension:… / stress-compression:… (older results)
@@ -8,8 +10,20 @@
 //   volume    length:<member>         equilibrium
 //   area-min:<variable>  area-max:<variable>  shape-min:<variable>  shape-max:<variable>
 // Member and node ids may themselves hold ":", so the case and axis are read from the end.
-import type { Quantity } from "~/engine/truss/units";
-import { caseWords, type NamedCases } from "./cases";
+import type { Quantity } from "../truss/units";
+
+/** Whatever names the load cases and combinations: a result, its head, or a model. */
+export interface NamedCases {
+  loadCases?: readonly { id: string; name?: string }[];
+  combinations?: readonly { id: string; name?: string }[];
+}
+
+/** The plain name of a load case or combination: "Snow (G+S)", or the id when it has no name. */
+export function caseWords(id: string | undefined, r?: NamedCases): string {
+  if (!id) return "";
+  const named = r?.loadCases?.find((l) => l.id === id)?.name ?? r?.combinations?.find((c) => c.id === id)?.name;
+  return named ? `${named} (${id})` : id;
+}
 
 /** What the words may name: load cases and combinations with their names, members with their nodes, groups. */
 export interface ConstraintContext extends NamedCases {
