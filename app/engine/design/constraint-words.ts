@@ -2,7 +2,7 @@
 // ("stress:U4-U5:G+S" → "stress limit of member U4-U5 (nodes U4–U5) under Snow (G+S)"), for the
 // engine's own messages, the job page, the compare page, the PDF report and the mail alike. Pure
 // and isomorphic; it lives in the engine because the engine's messages name checks too
-// (docs/decisions: constraint words).
+// (docs/decisions/0022-constraint-words-in-the-engine.md).
 //
 // The ids are the engine's (app/engine/design/problem.ts, verify.ts, shadow-prices.ts):
 //   stress:<member>:<case>            stress-tension:… / stress-compression:… (older results)
