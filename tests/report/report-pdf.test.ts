@@ -208,6 +208,12 @@ describe("results that need attention", () => {
     }
     expect(all).toContain("What to try Raise the iteration limit or start from larger areas");
     expect(all).toContain("All limits met NO: 1 check failed");
+    // the drawing is the best design found, not "the optimized truss" (the job page's words)
+    expect(all).toContain("Best design found (the run stopped before converging)");
+    expect(all).not.toMatch(/optimized truss/i);
+    // multipliers away from a proved optimum are not offered as prices
+    expect(all).toMatch(/\d+ limits are active at the design this run ended with\. They are not priced/);
+    expect(all).not.toMatch(/Shadow price Unit/);
     // the check in words, value and limit with their unit; the engine's id only in its labelled column
     expect(all).toMatch(/Failed checks Check Value Limit Unit Ratio Result Check id stress limit of member BC2 \(nodes L1–L2\) under LC1 244\.4 235\.0 MPa 104\.0 % FAILED stress:BC2:LC1/);
     expect(all).toMatch(/BC2 L1–L2 bottom-chord \S+ 2,500\.0 104\.0 %/);

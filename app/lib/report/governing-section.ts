@@ -49,6 +49,15 @@ export function governingLimits(w: ReportWriter, r: TrussResult) {
     w.paragraph("No stress, deflection, buckling or volume limit is binding at the final design.", { size: 9, color: INK_MUTED });
     return;
   }
+  if (r.status !== "optimal" && !r.criterionCostsOf) {
+    // multipliers away from a proved optimum price nothing (as the criterion costs below say)
+    w.paragraph(
+      `${limits.length} limit${limits.length === 1 ? " is" : "s are"} active at the design this run ended with. They are not priced: a shadow price is read from the optimizer's multipliers at a proved optimum only.`,
+      { size: 9 },
+    );
+    table(w, [{ header: "Active limit", weight: 1 }], limits.map((p) => [constraintWords(p.constraint, r)]));
+    return;
+  }
   w.paragraph(
     `${limits.length} limit${limits.length === 1 ? " binds" : "s bind"} at the final design. The shadow price of a limit (its Lagrange multiplier) is how much the ${r.objective.kind} would drop per unit the limit is relaxed; the dearest come first.`,
     { size: 9 },

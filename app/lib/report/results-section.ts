@@ -13,6 +13,7 @@ import { drawingInput, trussDrawing } from "./truss-drawing";
 import { objectiveUnit, unitLabels } from "./units";
 import { resultCases } from "~/lib/results/cases";
 import { governingCheckWords } from "~/engine/design/constraint-words";
+import { viewerTitle } from "~/components/job/result-words";
 
 export function loadCaseIds(data: ReportData): { id: string; name?: string }[] {
   if (data.result.loadCases?.length) return resultCases(data.result); // load cases, then combinations
@@ -47,7 +48,8 @@ export function resultsSection(w: ReportWriter, data: ReportData) {
   lowerBoundSection(w, data);
 
   convergencePlot(w, r.history, `${r.objective.kind} (${objUnit})`, { title: "Convergence" });
-  trussDrawing(w, drawingInput(r, data.model.file), { title: "The optimized truss" });
+  // only an optimum is "the optimized truss": the same words as the job page's viewer
+  trussDrawing(w, drawingInput(r, data.model.file), { title: viewerTitle(data.job.status === "cancelled" ? "cancelled" : r.status) });
 
   const lcs = loadCaseIds(data);
   const utilColor = (x: number) => utilizationColor(x);
