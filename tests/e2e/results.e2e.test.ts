@@ -77,7 +77,7 @@ const sideways = (page: Page) =>
     // the outermost elements past the right edge, named by tag, test id or class
     const out = [...document.querySelectorAll<HTMLElement>("main *")]
       .filter((e) => e.getBoundingClientRect().right > width + 1)
-      .filter((e) => e.parentElement!.getBoundingClientRect().right <= width + 1)
+      .filter((e) => e.parentElement!.getBoundingClientRect().right <= width + 1 && getComputedStyle(e.parentElement!).overflowX === "visible")
       .map((e) => `${e.tagName.toLowerCase()}${e.dataset.testid ? `[${e.dataset.testid}]` : ""}.${String(e.className).slice(0, 60)} → ${Math.round(e.getBoundingClientRect().right)} px`);
     return { over: document.documentElement.scrollWidth - width, out: out.slice(0, 8) };
   });
@@ -132,8 +132,10 @@ beforeAll(async () => {
   });
   ids.project = (project.id ?? project.project?.id)!;
   for (const role of ["checker", "viewer"]) await api(page, "post", `/api/projects/${ids.project}/members`, { data: { email: account(role).email } });
-  const roof = JSON.parse(fs.readFileSync(ROOF, "utf8")) as { nodes: { id: string; y: number }[] };
+  const roof = JSON.parse(fs.readFileSync(ROOF, "utf8")) as { nodes: { id: string; y: number }[]; loadCases: { name: string }[] };
   roof.nodes.find((n) => n.id === "B0")!.y = NOISE;
+  // a case name as long as the demo roof's: the page-wide case picker once pushed a phone page 95 px wide
+  roof.loadCases[0]!.name = "Uniform snow on both slopes of the full roof";
   ids.roof = await upload(page, "kiln-roof.truss.json", roof);
   ids.bracket = await upload(page, "bracket.truss.json", JSON.parse(fs.readFileSync(BRACKET, "utf8")));
   ids.optimal = await queue(page, ids.roof);

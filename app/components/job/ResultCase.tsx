@@ -54,9 +54,10 @@ export function CaseSelect({ state, label = "Load case or combination" }: { stat
     </option>
   );
   return (
-    <label className="flex items-center gap-2 text-sm">
-      <span className="text-ink-muted">{label}</span>
-      <select className="field-input w-auto max-w-full py-1" value={state.current} onChange={(e) => state.setCurrent(e.target.value)} data-testid="result-case">
+    // min-w-0 down the chain: on a phone a long case name shrinks the select, not the page
+    <label className="flex min-w-0 max-w-full items-center gap-2 text-sm">
+      <span className="whitespace-nowrap text-ink-muted">{label}</span>
+      <select className="field-input w-auto min-w-0 max-w-full py-1" value={state.current} onChange={(e) => state.setCurrent(e.target.value)} data-testid="result-case">
         {combos.length ? (
           <>
             <optgroup label="Load cases">{loadCases.map(option)}</optgroup>
