@@ -19,8 +19,11 @@
 //   cases with one K, so the solver takes null-space steps (sqp/reduced-space.ts): one sparse
 //   factorization of K per iterate, the displacement part of each step from solves with it,
 //   and the quasi-Newton matrix only over the design variables, where the curvature is unknown.
-//   The displacements stay optimization variables: equilibrium holds only to first order along
-//   the way and exactly at the end. Nothing in this module stores a dense matrix.
+//   The displacements stay optimization variables, but the solver re-solves them at every trial
+//   design before reading it (declared linearInStates; sqp/restoration.ts): a step meets
+//   equilibrium only to first order, and the limits read at the stale displacements of a much
+//   thinner design looked met, so the merit accepted steps the next subproblem could not
+//   recover from. Nothing in this module stores a dense matrix.
 // Own weight: the load of case l is P_l + s_l W(A, x) (own-weight.ts), so the equilibrium rows
 //   depend on the areas (and the shape) through the load as well as through K: the rows of the
 //   gravity dofs at a member's ends get +s_l/2 g rho L (per unit area) and its length
@@ -335,6 +338,9 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     },
     stateEquations: {
       nDesign: nD,
+      // K(A, x) u = f(A, x) is linear in u: the solver restores each trial design's equilibrium
+      // with one solve, so the merit reads the limits at true displacements (sqp/restoration.ts)
+      linearInStates: true,
       factor(z) {
         const { areas, coords } = designState(p, z);
         const K = factorStiffness(s, areas, coords);

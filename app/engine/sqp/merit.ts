@@ -10,6 +10,7 @@ import { type QpRow, rowDot } from "./rows";
 import type { ScaledPoint } from "./scaled-problem";
 import { type SqpContext, type SqpState, l1Violation, maxAbsMultiplier, maxAbsVec, throwIfAborted } from "./state";
 import { linearizedViolation } from "./subproblem";
+import { evaluateTrial } from "./restoration";
 import {
   ARMIJO, BACKTRACK_HIGH, BACKTRACK_LOW, BELOW_NOISE_FACTOR, DESCENT_SHARE, FEASIBLE_NOISE, MERIT_NOISE, MIN_STEP_LENGTH,
   MIN_STEP_NORM, NON_FINITE_SHRINK, PENALTY_FLOOR, PENALTY_MARGIN, VIOLATION_REDUCTION_SHARE,
@@ -43,7 +44,9 @@ export function meritStep(ctx: SqpContext, state: SqpState, s: Float64Array, row
   const sBs = dot(s, bs, n);
   // elastic multipliers carry the relaxation weight, not the problem's prices: only the
   // descent requirement below sets the penalty then
-  let rhoReq = elastic ? 0 : PENALTY_MARGIN * maxAbsMultiplier(state.mult);
+  // with restored states every trial point meets the state equations, so their multipliers
+  // (the adjoints, often far larger than any limit's) need no weight in the merit (restoration.ts)
+  let rhoReq = elastic ? 0 : PENALTY_MARGIN * maxAbsMultiplier(ctx.restoreStates ? { ...state.mult, eq: new Float64Array(0) } : state.mult);
   const reduction = viol0 - linViol;
   // the descent requirement only where the violation is more than noise: dividing by a
   // rounding-level reduction would blow the penalty up and freeze the iterates
@@ -90,7 +93,7 @@ export function lineSearch(
   let xt = full ? full.x : trialPoint(ctx, x, s, 1);
   let nonFinite: string | null = trial === null ? "pending" : null;
   if (nonFinite) {
-    const ev = sp.evaluate(xt);
+    const ev = evaluateTrial(ctx, xt);
     nonFinite = ev.ok ? null : ev.message;
     trial = ev.ok ? ev.value : null;
   }
@@ -121,7 +124,7 @@ export function lineSearch(
     }
     xt = trialPoint(ctx, x, s, alpha);
     throwIfAborted(ctx);
-    const ev = sp.evaluate(xt);
+    const ev = evaluateTrial(ctx, xt);
     if (ev.ok) {
       trial = ev.value;
       nonFinite = null;
@@ -146,7 +149,7 @@ function secondOrderCorrection(ctx: SqpContext, state: SqpState, trial: ScaledPo
   for (let j = 0; j < n; j++) if (!Number.isFinite(s2[j])) return null;
   const xt = trialPoint(ctx, x, s2, 1);
   throwIfAborted(ctx);
-  const ev = sp.evaluate(xt);
+  const ev = evaluateTrial(ctx, xt);
   if (!ev.ok) return null;
   const phi = ev.value.f + state.rho * l1Violation(ev.value);
   return phi <= info.phi0 + ARMIJO * info.D ? { x: xt, pt: ev.value, alpha: 1 } : null;

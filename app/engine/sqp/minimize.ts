@@ -17,11 +17,12 @@
 import type { QpOutput } from "./dual-qp";
 import { type FullTrial, type MeritStep, lineSearch, meritStep, trialPoint } from "./merit";
 import { buildResult, failedAtIterate, infeasibleResult, recordIteration } from "./result";
+import { evaluateTrial } from "./restoration";
 import { startRun } from "./start";
 import { type SqpContext, type SqpState, abortError, considerSnapshot, l1Violation, maxViolation, throwIfAborted } from "./state";
 import { takeStep } from "./step";
 import { qpMultipliers, rememberActive, screenedRows, solveCompatibleSubproblem } from "./subproblem";
-import { atNoiseFloor, elasticShowsInfeasible, setMultipliers, shouldStopBeforeStep, stopReason } from "./termination";
+import { atNoiseFloor, elasticShowsInfeasible, recordKkt, setMultipliers, shouldStopBeforeStep, stopReason } from "./termination";
 import { ELASTIC_INFEASIBLE_RELAXATION, MAX_SCREEN_EXPANSIONS } from "./thresholds";
 import type { SqpOptions, SqpProblem, SqpResult } from "./types";
 
@@ -48,6 +49,7 @@ export function minimize(problem: SqpProblem, options: SqpOptions = {}): SqpResu
 
     const stop = stopReason(ctx, state, merit, elastic);
     if (stop) return buildResult(ctx, stop.atBest ? state.best : snap, stop.reason, state.iteration);
+    recordKkt(state);
     const relaxation = elastic ? qp.s[ctx.n] : 0;
     if (elasticShowsInfeasible(state, elastic, relaxation, l1Violation(state.pt))) return infeasibleResult(ctx, state);
 
@@ -88,12 +90,12 @@ function subproblemWithScreen(ctx: SqpContext, state: SqpState):
     const done = { qp, elastic, rowsIn, merit: null, full: null };
     if (shouldStopBeforeStep(ctx, state)) return done;
     const merit = meritStep(ctx, state, s, rowsIn, elastic);
-    if (!elastic && atNoiseFloor(ctx.tol, state.kktParts, merit.D, merit.phi0)) return { ...done, merit };
+    if (!elastic && atNoiseFloor(ctx, state, merit.D, merit.phi0)) return { ...done, merit };
 
     // full-step trial (also used to widen the screen)
     const xt = trialPoint(ctx, state.x, s, 1);
     throwIfAborted(ctx);
-    const ev = sp.evaluate(xt);
+    const ev = evaluateTrial(ctx, xt);
     const full: FullTrial = { x: xt, pt: ev.ok ? ev.value : null };
     if (!ev.ok || expansions >= MAX_SCREEN_EXPANSIONS || !Number.isFinite(ctx.screening)) return { ...done, merit, full };
     const add: number[] = [];

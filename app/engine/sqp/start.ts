@@ -63,21 +63,32 @@ function makeContext(problem: SqpProblem, options: SqpOptions, started: number, 
 
   // null-space steps when the equalities are declared state equations (reduced-space.ts):
   // B then approximates the reduced Hessian over the nD design variables
-  const stateEq = problem.stateEquations && options.reducedSpace !== false ? problem.stateEquations : null;
-  if (stateEq) {
-    const bad = checkStateEquations(stateEq, n, nEq, lower, upper, (j) => problem.names?.variables?.[j] ?? `x[${j}]`);
+  // (the declared structure also serves the restoration of trial points, restoration.ts)
+  const declared = problem.stateEquations ?? null;
+  if (declared) {
+    const bad = checkStateEquations(declared, n, nEq, lower, upper, (j) => problem.names?.variables?.[j] ?? `x[${j}]`);
     if (bad) return refusedResult(bad, x0, n, nEq, nIneq, history);
   }
+  const stateEq = declared && options.reducedSpace !== false ? declared : null;
   const nB = stateEq ? stateEq.nDesign : n;
   const hessianKind = options.hessian ?? (nB <= DENSE_BFGS_MAX_VARIABLES ? "bfgs" : "lbfgs");
   const B: HessianApprox = hessianKind === "bfgs" ? new DenseBfgs(nB) : new LimitedBfgs(nB, Math.max(1, options.memory ?? DEFAULT_LBFGS_MEMORY));
 
-  let stateFactor: { at: Float64Array; factor: ScaledStateFactor } | null = null;
-  const stateFactorAt = (xs: Float64Array): ScaledStateFactor | string => {
-    if (stateFactor?.at === xs) return stateFactor.factor;
+  // two factors kept: the iterate's, which the quasi-Newton pair reads after the line search,
+  // and the last trial point's, which becomes the iterate's when that point is accepted
+  let iterateFactor: { at: Float64Array; factor: ScaledStateFactor } | null = null;
+  let trialFactor: { at: Float64Array; factor: ScaledStateFactor } | null = null;
+  const stateFactorAt = (xs: Float64Array, trial = false): ScaledStateFactor | string => {
+    if (iterateFactor?.at === xs) return iterateFactor.factor;
+    if (trialFactor?.at === xs) {
+      if (!trial) [iterateFactor, trialFactor] = [trialFactor, null];
+      return (iterateFactor?.at === xs ? iterateFactor : trialFactor)!.factor;
+    }
     try {
-      stateFactor = { at: xs, factor: scaledStateFactor(sp, stateEq!, xs) };
-      return stateFactor.factor;
+      const made = { at: xs, factor: scaledStateFactor(sp, declared!, xs) };
+      if (trial) trialFactor = made;
+      else iterateFactor = made;
+      return made.factor;
     } catch (e) {
       if (e instanceof Error && e.name === "AbortError") throw e;
       return `The state equations could not be factored at ${sp.describePoint(xs)}: ${e instanceof Error ? e.message : String(e)}`;
@@ -85,6 +96,7 @@ function makeContext(problem: SqpProblem, options: SqpOptions, started: number, 
   };
   const ctx: SqpContext = {
     problem, options, sp, n, nEq, nIneq, nB, lo, hi, B, stateEq, history, started, clip, stateFactorAt,
+    restoreStates: declared?.linearInStates === true && options.restoreStates !== false,
     tol: options.tolerance ?? DEFAULT_TOLERANCE,
     maxIter: options.maxIterations ?? DEFAULT_MAX_ITERATIONS,
     screening: options.screening ?? Infinity,
@@ -166,7 +178,7 @@ export function startRun(problem: SqpProblem, options: SqpOptions, started: numb
     best: snap, leastViolating: snap,
     inScreen: new Uint8Array(nIneq),
     warmIneq: new Uint8Array(nIneq), warmLower: new Uint8Array(n), warmUpper: new Uint8Array(n),
-    iteration: 0, lastStep: 0, elasticRun: 0, wasElastic: false, elasticStuck: 0, elasticStartViol: 0, updatesSinceReset: 0,
+    iteration: 0, lastStep: 0, elasticRun: 0, wasElastic: false, elasticStuck: 0, elasticStartViol: 0, updatesSinceReset: 0, kktTrail: [],
   };
   rescreen(ctx, state, pt, null);
   return { ctx, state };

@@ -51,8 +51,13 @@ export interface SqpContext {
   started: number;
   /** Projects a scaled point into the bounds in place. */
   clip(v: Float64Array): void;
-  /** The state Jacobian's factor at xs (made once per iterate), or a sentence why it failed. */
-  stateFactorAt(xs: Float64Array): ScaledStateFactor | string;
+  /** With declared state equations: trial points get their states re-solved (restoration.ts). */
+  restoreStates: boolean;
+  /**
+   * The state Jacobian's factor at xs (made once per point), or a sentence why it failed;
+   * `trial` for a line-search point, whose factor is kept beside the iterate's.
+   */
+  stateFactorAt(xs: Float64Array, trial?: boolean): ScaledStateFactor | string;
 }
 
 export interface SqpState {
@@ -80,6 +85,8 @@ export interface SqpState {
   elasticStuck: number;
   elasticStartViol: number;
   updatesSinceReset: number;
+  /** The KKT measures of the last few iterations (termination.ts, the noise floor's stall test). */
+  kktTrail: number[];
 }
 
 export function emptyMultipliers(n: number, nEq: number, nIneq: number): Multipliers {

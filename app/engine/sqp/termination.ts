@@ -5,15 +5,20 @@
 // (stationarity divided by max(1, mean |multiplier| / 100): with huge multipliers the residual
 // carries their rounding, the measure interior-point codes use.) The KKT measure is the largest
 // of the three; "optimal" only when all three hold at the returned point, which then satisfies
-// all rows to tol (scaled) — never at a violating point. Also optimal: at the noise floor, where
-// the step's predicted merit decrease is below the merit's rounding (atNoiseFloor).
+// all rows to tol (scaled) — never at a violating point. Also optimal: at the noise floor
+// (atNoiseFloor), where feasibility and complementarity hold to tol, stationarity to sqrt(tol),
+// the step's predicted merit decrease is below NOISE_FLOOR_DECREASE x (1 + |merit|), so no
+// line search can verify progress, and the KKT measure has stopped falling (kktStuck). That happens when the gradient carries noise no step
+// removes (finite differences of a large value: tests/engine/sqp/noise-floor.test.ts, which
+// also shows the rule staying silent on a slowly converging degenerate minimum whose predicted
+// decrease stays measurable); the message then says "to the precision rounding allows".
 // Other ends: iteration or time limit, a stop request -> "not-converged" with the best point;
 // elastic mode that can no longer reduce the violation -> "infeasible".
 import type { StopReason } from "./messages";
 import type { ScaledDerivatives, ScaledPoint } from "./scaled-problem";
 import { type KktParts, type Multipliers, type SqpContext, type SqpState, axpyRow, maxViolation } from "./state";
 import {
-  ELASTIC_FULL_RELAXATION, ELASTIC_STALL_RATIO, ELASTIC_STALL_WINDOW, ELASTIC_STUCK_ITERATIONS, NOISE_FLOOR_DECREASE,
+  ELASTIC_FULL_RELAXATION, ELASTIC_STALL_RATIO, ELASTIC_STALL_WINDOW, ELASTIC_STUCK_ITERATIONS, NOISE_FLOOR_DECREASE, NOISE_FLOOR_FALL, NOISE_FLOOR_WINDOW,
   STATIONARITY_MULTIPLIER_SCALE,
 } from "./thresholds";
 
@@ -57,8 +62,28 @@ export function setMultipliers(ctx: SqpContext, state: SqpState, m: Multipliers)
  * to sqrt(tol), and the step's predicted merit decrease D below the rounding noise of the merit
  * value phi0 (no line search could then verify progress).
  */
-export function atNoiseFloor(tol: number, parts: KktParts, D: number, phi0: number): boolean {
-  return parts.feas <= tol && parts.compl <= tol && parts.stat <= Math.sqrt(tol) && -D <= NOISE_FLOOR_DECREASE * (1 + Math.abs(phi0));
+export function atNoiseFloor(ctx: SqpContext, state: SqpState, D: number, phi0: number): boolean {
+  const { tol } = ctx;
+  const parts = state.kktParts;
+  return parts.feas <= tol && parts.compl <= tol && parts.stat <= Math.sqrt(tol) && -D <= NOISE_FLOOR_DECREASE * (1 + Math.abs(phi0)) && kktStuck(state);
+}
+
+/**
+ * The KKT measure has not fallen by NOISE_FLOOR_FALL over the last NOISE_FLOOR_WINDOW
+ * iterations: a floor, not a run that is still converging (which would meet the ordinary test
+ * an iteration or two later, even where its predicted decrease is already below the merit's
+ * rounding, as on a problem whose objective carries a large constant).
+ */
+function kktStuck(state: SqpState): boolean {
+  const trail = state.kktTrail;
+  if (trail.length < NOISE_FLOOR_WINDOW) return false;
+  return state.kkt > NOISE_FLOOR_FALL * trail[trail.length - NOISE_FLOOR_WINDOW];
+}
+
+/** Keeps this iteration's KKT measure for the stall test of the noise floor. */
+export function recordKkt(state: SqpState): void {
+  state.kktTrail.push(state.kkt);
+  if (state.kktTrail.length > NOISE_FLOOR_WINDOW) state.kktTrail.shift();
 }
 
 export function timeUp(ctx: SqpContext): boolean {
@@ -75,7 +100,7 @@ export function stopReason(ctx: SqpContext, state: SqpState, step: { D: number; 
   const { tol, options } = ctx;
   const { pt, iteration, best } = state;
   if (state.kkt <= tol) return { reason: { kind: "optimal", tolerance: tol, maxViolation: maxViolation(pt.eqRaw, pt.ineqRaw), iterations: iteration }, atBest: false };
-  if (step && !elastic && atNoiseFloor(tol, state.kktParts, step.D, step.phi0))
+  if (step && !elastic && atNoiseFloor(ctx, state, step.D, step.phi0))
     return { reason: { kind: "optimal", tolerance: tol, maxViolation: maxViolation(pt.eqRaw, pt.ineqRaw), iterations: iteration, stationarity: state.kktParts.stat }, atBest: false };
   if (iteration >= ctx.maxIter) return { reason: { kind: "iteration-limit", iterations: iteration, feasible: best.viol <= tol }, atBest: true };
   if (timeUp(ctx)) return { reason: { kind: "time-limit", iterations: iteration, limitMs: options.timeLimitMs ?? 0, feasible: best.viol <= tol }, atBest: true };

@@ -26,6 +26,12 @@ export const STATIONARITY_MULTIPLIER_SCALE = 100;
  * is optimal to the precision rounding allows.
  */
 export const NOISE_FLOOR_DECREASE = 1e-13;
+/**
+ * ... and only when the KKT measure is stuck: it has not fallen below NOISE_FLOOR_FALL times
+ * its value NOISE_FLOOR_WINDOW iterations earlier (tests/engine/sqp/noise-floor.test.ts).
+ */
+export const NOISE_FLOOR_WINDOW = 3;
+export const NOISE_FLOOR_FALL = 0.1;
 
 // ---- merit function (l1 exact penalty) ----
 /** rho_req is at least this multiple of the largest multiplier. */

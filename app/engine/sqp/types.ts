@@ -30,6 +30,12 @@ export interface SqpProblem {
 export interface StateEquations {
   /** Variables 0..nDesign-1 are the design; nDesign..n-1 the states (n - nDesign === nEq). */
   nDesign: number;
+  /**
+   * c is affine in the states for fixed design (equilibrium K(d) y = f(d) is): one solve with
+   * dc/dy then meets c = 0 exactly, and the solver restores the states of every trial point
+   * that way before reading it (restoration.ts). Default false.
+   */
+  linearInStates?: boolean;
   /** Factors dc/dy at x (user units): solves with it and with its transpose (length nEq). */
   factor(x: Float64Array): { solve(rhs: Float64Array): Float64Array; solveTransposed(rhs: Float64Array): Float64Array };
 }
@@ -63,6 +69,11 @@ export interface SqpOptions {
   screening?: number;
   /** With problem.stateEquations: null-space steps (default true); false solves the full QP. */
   reducedSpace?: boolean;
+  /**
+   * With problem.stateEquations declared linearInStates: every trial point's states are
+   * re-solved from the state equations before the merit reads it (default true; restoration.ts).
+   */
+  restoreStates?: boolean;
   signal?: AbortSignal;
   /**
    * Asked between iterations: true ends the run like the iteration cap does, returning the
