@@ -2,8 +2,10 @@
 // this process from spawn to exit, so start-up counts on both sides as a user meets it —
 // `node scripts/run-tool.mjs optimize` (what `npm run optimize` runs, without npm's own
 // wrapper, which adds the same 0.2 s to any command) and python3 tests/python/slsqp_truss.py
-// (scipy SLSQP; its imports of numpy and scipy included). Peak memory is each process's own
-// maximum resident set (solver threads included).
+// (scipy SLSQP; its imports of numpy and scipy included). Each process's CPU time (user and
+// system, solver threads included) is printed beside its wall time: on a shared machine the
+// wall time carries the other users' load, the CPU time much less of it. Peak memory is each
+// process's own maximum resident set (solver threads included).
 import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
@@ -25,6 +27,8 @@ export interface Run {
   status: string;
   /** the whole process, spawn to exit */
   processS: number;
+  /** the whole process's CPU time, user and system, all its threads */
+  cpuS: number;
   /** the solve alone, as the process reports it (ours: the result's elapsed time; scipy: after its imports) */
   solveS: number;
   iterations: number;
@@ -46,30 +50,32 @@ export interface OursSetup {
 export function oursWholeProcess(model: TrussModel, setup: OursSetup): Run {
   const modelFile = path.join(work, "model.truss.json");
   const outFile = path.join(work, "result.json");
-  const peakFile = path.join(work, "peak-rss");
+  const usageFile = path.join(work, "process-usage.json");
   fs.writeFileSync(modelFile, JSON.stringify(model));
   fs.rmSync(outFile, { force: true });
   const args = [modelFile, "--quiet", "--out", outFile, "--formulation", setup.formulation, "--time-limit", String(setup.capS)];
   if (setup.starts !== undefined) args.push("--starts", String(setup.starts));
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, ["--require", path.join(here, "peak-rss.cjs"), path.join(root, "scripts/run-tool.mjs"), "optimize", ...args], {
+  const r = spawnSync(process.execPath, ["--require", path.join(here, "process-usage.cjs"), path.join(root, "scripts/run-tool.mjs"), "optimize", ...args], {
     cwd: root,
     encoding: "utf8",
-    env: { ...process.env, BENCH_PEAK_RSS_FILE: peakFile, STRUTWISE_QUIET_BUNDLE: "1" },
+    env: { ...process.env, BENCH_PROCESS_USAGE_FILE: usageFile, STRUTWISE_QUIET_BUNDLE: "1" },
   });
   const processS = (performance.now() - t0) / 1000;
   if (!fs.existsSync(outFile)) throw new Error(`optimize wrote no result (exit ${r.status ?? r.signal}): ${r.stderr}`);
   const res = JSON.parse(fs.readFileSync(outFile, "utf8"));
   const starts: number = res.starts?.tried ?? 1;
+  const usage = JSON.parse(fs.readFileSync(usageFile, "utf8")) as { peakKiB: number; cpuSeconds: number };
   return {
     label: `${setup.formulation}, ${starts} start${starts === 1 ? "" : "s"}`,
     status: res.status,
     processS,
+    cpuS: usage.cpuSeconds,
     solveS: res.solver.elapsedMs / 1000,
     iterations: res.iterations,
     analyses: res.analyses,
     objective: res.objective.final,
-    peakMiB: Number(fs.readFileSync(peakFile, "utf8")) / 1024,
+    peakMiB: usage.peakKiB / 1024,
   };
 }
 
@@ -85,11 +91,11 @@ export function scipyWholeProcess(model: TrussModel, capS: number): Run | null {
     // SLSQP stops itself at the cap and reports the iterations it did; the kill is a backstop
     const r = runSlsqp(p, f0, { maxiter: 3000, maxSeconds: capS, timeoutMs: (capS + 120) * 1000 })!;
     return {
-      label, status: r.success ? "optimal" : r.message, processS: r.processSeconds, solveS: r.seconds, iterations: r.nit,
+      label, status: r.success ? "optimal" : r.message, processS: r.processSeconds, cpuS: r.cpuSeconds ?? NaN, solveS: r.seconds, iterations: r.nit,
       analyses: r.capped ? NaN : r.nfev, objective: r.capped ? NaN : r.f, peakMiB: (r.peakKiB ?? NaN) / 1024, capped: r.capped,
     };
   } catch {
-    return { label, status: `killed after the ${capS} s cap`, processS: NaN, solveS: NaN, iterations: NaN, analyses: NaN, objective: NaN, peakMiB: NaN, capped: true };
+    return { label, status: `killed after the ${capS} s cap`, processS: NaN, cpuS: NaN, solveS: NaN, iterations: NaN, analyses: NaN, objective: NaN, peakMiB: NaN, capped: true };
   }
 }
 

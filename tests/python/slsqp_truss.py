@@ -5,7 +5,8 @@ Reads one JSON problem on stdin (written by tests/engine/design/slsqp-reference.
 with the same analytic formulas the Strutwise design engine uses (direct stiffness analysis,
 adjoint gradients, limits as ratios g <= 0, areas scaled by A_ref, objective divided by f0)
 and prints one JSON line: x (scaled), f (model units), nit, nfev, njev, success, message, seconds
-(the solve, after the imports), peakKiB (the process's peak resident memory).
+(the solve, after the imports), peakKiB (the process's peak resident memory), cpuSeconds (the
+process's CPU time, imports included).
 
 Own weight and combinations (optional fields): case l carries the load P_l + s_l W(A), W the
 own weight at factor 1 (half of each member's weight g rho A L on each end node, along minus
@@ -151,17 +152,23 @@ def main():
         secs = time.perf_counter() - t
         print(json.dumps({"x": list(map(float, done["x"])), "f": float(fun(done["x"]) * f0), "nit": done["nit"], "nfev": -1,
                           "njev": -1, "success": False, "message": f"stopped at the {max_seconds} s cap", "seconds": secs, "capped": True,
-                          "peakKiB": peak_kib()}))
+                          "peakKiB": peak_kib(), "cpuSeconds": cpu_seconds()}))
         return
     secs = time.perf_counter() - t
     print(json.dumps({"x": r.x.tolist(), "f": float(r.fun * f0), "nit": int(r.nit), "nfev": int(r.nfev),
                       "njev": int(r.njev), "success": bool(r.success), "message": str(r.message), "seconds": secs,
-                      "peakKiB": peak_kib()}))
+                      "peakKiB": peak_kib(), "cpuSeconds": cpu_seconds()}))
 
 
 def peak_kib():
     """The process's peak resident memory in KiB (Linux reports ru_maxrss in KiB)."""
     return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+
+
+def cpu_seconds():
+    """CPU time the process used so far (user and system), its imports included."""
+    r = resource.getrusage(resource.RUSAGE_SELF)
+    return r.ru_utime + r.ru_stime
 
 
 if __name__ == "__main__":

@@ -28,6 +28,8 @@ export interface SlsqpOutcome {
   processSeconds: number;
   /** the python process's peak resident memory */
   peakKiB?: number;
+  /** the python process's CPU time (user and system, imports included) */
+  cpuSeconds?: number;
 }
 
 export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
