@@ -17,7 +17,7 @@ import { Cautions } from "~/components/ui/Cautions";
 import { formatDateTime, formatDuration, formatNumber, formatPercent, formatResidual, quantityFormatter } from "~/lib/format";
 import { RouteError } from "~/components/ui/RouteError";
 import { JobStateBadge, ReviewBadge } from "~/components/ui/StatusBadge";
-import { countOf, viewerTitle } from "~/components/job/result-words";
+import { countOf, formulationWords, viewerTitle } from "~/components/job/result-words";
 import { ErrorNote, LoadingNote, Stat } from "~/components/ui/States";
 import { CatalogueDesignPanel } from "~/components/job/CatalogueDesignPanel";
 import { ReactionsPanel } from "~/components/job/ReactionsPanel";
@@ -328,13 +328,13 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               <Stat label={`${head.objective.kind} final${objUnit ? ` (${objUnit})` : ""}`} value={<span data-testid="objective-final">{objValue(head.objective.final)}</span>} />
               <Stat label="change" value={saving !== null ? formatPercent(-saving) : "–"} />
               <Stat label="iterations" value={head.iterations} />
-              <Stat label="analyses" value={head.analyses} hint="stiffness solves or KKT evaluations used" />
+              <Stat label="truss analyses" value={head.analyses} hint="stiffness solves of the whole truss (or evaluations of the equilibrium constraints) the run used" />
               <Stat label="KKT residual" value={formatResidual(head.kktResidual)} />
-              <Stat label="max violation" value={formatResidual(head.maxViolation)} />
+              <Stat label="largest violation (share of its limit)" value={formatResidual(head.maxViolation)} />
               <Stat label={`volume (${q?.unit("volume")})`} value={q?.number(head.volume, "volume")} />
               {head.mass !== undefined && <Stat label={`mass (${q?.unit("mass")})`} value={q?.number(head.mass, "mass")} />}
               <Stat label="max utilization" value={formatPercent(head.maxUtilization)} />
-              {head.formulation && <Stat label="formulation" value={head.formulation} />}
+              {head.formulation && <Stat label="formulation" value={formulationWords(head.formulation)} wrap />}
               {head.verification && (
                 <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : countOf(head.verification.failures.length, "limit exceeded", "limits exceeded")} hint={`equilibrium residual ${formatResidual(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
               )}

@@ -24,6 +24,7 @@ import { listModelVersions } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId";
 import { plainText } from "~/lib/text-hygiene";
 import { minOf } from "~/engine/util/extent";
+import { formulationWords } from "~/components/job/result-words";
 
 export function meta({ data }: Route.MetaArgs) {
   return [{ title: data ? `${plainText(data.model.name)} — Strutwise` : "Model — Strutwise" }];
@@ -277,7 +278,7 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
         {file?.design ? (
           <dl className="grid grid-cols-2 gap-x-6 gap-y-3 text-sm sm:grid-cols-4">
             <Stat label="objective" value={`minimum ${file.design.objective}`} />
-            <Stat label="formulation" value={file.design.formulation} />
+            <Stat label="formulation" value={formulationWords(file.design.formulation)} wrap />
             <Stat label="area groups" value={file.design.groups} />
             <Stat label="shape variables" value={file.design.shape.length} />
             <Stat label="limits" value={file.design.limits.join(", ") || "none"} wrap />

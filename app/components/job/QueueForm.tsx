@@ -4,6 +4,7 @@
 import { useState, type ReactNode } from "react";
 import { Form, useNavigation } from "react-router";
 import { parseQueueForm, type QueueField } from "./queue-form";
+import { FORMULATION_WORDS, formulationWords } from "./result-words";
 
 export interface QueueDefaults {
   formulation: string;
@@ -63,9 +64,9 @@ export function QueueForm({ defaults, serverErrors, answers }: { defaults: Queue
         <label className="block">
           <span className="field-label">Formulation</span>
           <select name="formulation" className="field-input" defaultValue="default" {...aria("formulation")}>
-            <option value="default">as in the model ({defaults.formulation})</option>
-            <option value="nested">nested — displacements from a stiffness solve</option>
-            <option value="simultaneous">simultaneous — equilibrium as constraints</option>
+            <option value="default">as in the model ({formulationWords(defaults.formulation)})</option>
+            <option value="nested">{FORMULATION_WORDS.nested}</option>
+            <option value="simultaneous">{FORMULATION_WORDS.simultaneous}</option>
           </select>
           {err("formulation")}
         </label>

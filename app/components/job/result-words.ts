@@ -42,3 +42,13 @@ export const OUTCOME_WORDS: Record<string, { title: string; tryThis: string }> =
     tryThis: "Check the model for nearly unstable parts and very different member sizes; re-run, or queue it with the other formulation.",
   },
 };
+
+/** The two formulations in a few plain words (the queue form and the job page say the same). */
+export const FORMULATION_WORDS: Record<string, string> = {
+  nested: "nested — displacements from a stiffness solve",
+  simultaneous: "simultaneous — equilibrium as constraints",
+};
+
+export function formulationWords(f: string): string {
+  return FORMULATION_WORDS[f] ?? f;
+}
