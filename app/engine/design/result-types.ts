@@ -134,7 +134,7 @@ export interface CriterionCost {
   subject: string;
   /** the criterion's value in model units: stress, length, volume, area, or the bucklingFactor (1 = the member length) */
   value: number;
-  /** unit of value, e.g. "N/mm²", "mm", "mm³", "mm²", "" */
+  /** unit of value, e.g. "MPa" (stress as app/engine/truss/units.ts spells it), "mm", "mm³", "mm²", "" */
   unit: string;
   /** a deflection criterion: the node ("*" every node) and axis as written */
   node?: string;
