@@ -90,6 +90,58 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
     }
   }
 
+  /**
+   * Where this evaluation's adjoint vectors come from. Each distinct right-hand side costs one
+   * solve; but a right-hand side touches a few dofs (a stress limit the 4 or 6 of its member's
+   * ends, a displacement limit one), so when the requested rows have more distinct right-hand
+   * sides than the dofs they touch together, the columns of K^-1 at those dofs are solved once
+   * and each adjoint is their combination (the first iterations of a large stress-limited layout
+   * ask for thousands of rows over a few hundred dofs). Same vectors either way, to rounding.
+   */
+  function adjointSource(st: NestedState, rows: Int32Array) {
+    const keys = new Set<string>();
+    const dofs = new Set<number>();
+    for (let k = 0; k < rows.length; k++) {
+      const lim = p.limits[rows[k]];
+      limitPartials(p, lim, st, part);
+      if (part.uIdx.length === 0) continue;
+      keys.add(`${lim.loadCase}|${lim.member}|${lim.dof}`);
+      for (const dof of part.uIdx) if (!s.fixed[dof]) dofs.add(dof);
+    }
+    const byColumns = dofs.size < keys.size;
+    const columns = new Map<number, Float64Array>();
+    const column = (dof: number, rhs: Float64Array): Float64Array => {
+      let c = columns.get(dof);
+      if (!c) {
+        rhs.fill(0);
+        rhs[dof] = 1;
+        c = st.analysis.solve(rhs);
+        counters.solves++;
+        columns.set(dof, c);
+      }
+      return c;
+    };
+    return {
+      /** K^-1 times the vector with entries val at dofs idx; rhs is scratch space */
+      lambda(idx: number[], val: number[], rhs: Float64Array): Float64Array {
+        if (!byColumns) {
+          rhs.fill(0);
+          for (let t = 0; t < idx.length; t++) rhs[idx[t]] += val[t];
+          counters.solves++;
+          return st.analysis.solve(rhs);
+        }
+        const lambda = new Float64Array(rhs.length);
+        for (let t = 0; t < idx.length; t++) {
+          if (s.fixed[idx[t]] || val[t] === 0) continue;
+          const c = column(idx[t], rhs);
+          const f = val[t];
+          for (let q = 0; q < lambda.length; q++) lambda[q] += f * c[q];
+        }
+        return lambda;
+      },
+    };
+  }
+
   const problem: SqpProblem = {
     n: p.nDesign,
     x0: p.x0,
@@ -126,6 +178,7 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
       };
       const lambdaCache = new Map<string, { lambda: Float64Array; ref: number }>();
       const rhs = new Float64Array(s.coords.length);
+      const adjoints = adjointSource(st, rows);
       for (let k = 0; k < rows.length; k++) {
         const lim = p.limits[rows[k]];
         const row = new Float64Array(p.nDesign);
@@ -135,10 +188,7 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
           const key = `${lim.loadCase}|${lim.member}|${lim.dof}`;
           let entry = lambdaCache.get(key);
           if (!entry) {
-            rhs.fill(0);
-            for (let t = 0; t < part.uIdx.length; t++) rhs[part.uIdx[t]] += part.uVal[t];
-            entry = { lambda: st.analysis.solve(rhs), ref: part.uVal[0] };
-            counters.solves++;
+            entry = { lambda: adjoints.lambda(part.uIdx, part.uVal, rhs), ref: part.uVal[0] };
             lambdaCache.set(key, entry);
           }
           const factor = part.uVal[0] / entry.ref;
