@@ -165,3 +165,4 @@ export * from "./tables/project-members";
 export * from "./tables/mail-outbox";
 export * from "./tables/sign-in-throttle";
 export * from "./tables/user-preferences";
+export * from "./tables/member-jobs";

@@ -2,9 +2,11 @@
 // membership filters use indexes"). SQLite's EXPLAIN QUERY PLAN of the SQL the app runs for
 // a non-admin's lists (jobs, projects, models) and for the "review waiting" recipients: each
 // look-up in project_members is a SEARCH on its primary key or its (user, project) index,
-// never a SCAN; apart from that look-up a member's list runs the very plan of the unfiltered
-// list (an admin's, which is the query as it was before membership): no new scan, no new
-// sort; and the newest-first job list walks its own index instead of sorting.
+// never a SCAN. A member's job list walks their own rows of member_jobs on an index (by user,
+// or by user and status), newest first without a sort, each row joined to its job by the
+// job's key: it reads the jobs it lists and no others. A member's list of one project, and
+// the project and model lists, run the very plan of the unfiltered list (an admin's, which is
+// the query as it was before membership) plus the membership look-up: no new scan or sort.
 // The timings before and after sit in the job-list benchmark (npm run bench -- job-list).
 // Plan words (SCAN, SEARCH, USING INDEX, USE TEMP B-TREE): the SQLite documentation's
 // "EXPLAIN QUERY PLAN" page (from memory).
@@ -28,6 +30,9 @@ beforeAll(async () => {
 afterAll(async () => ctx?.services.stop());
 
 const MEMBERSHIP_BY_INDEX = /^SEARCH project_members USING (COVERING INDEX|PRIMARY KEY|INDEX) /;
+// the member's own rows: on the primary key (user, created_at, job) or the (user, status, …) index
+const MEMBER_ROWS_BY_INDEX = /^SEARCH member_jobs USING (COVERING INDEX|PRIMARY KEY|INDEX) \S+ \(user_id=\?( AND status=\?)?\)$/;
+const JOB_BY_KEY = /^SEARCH jobs USING INDEX sqlite_autoindex_jobs_1 \(id=\?\)$/;
 
 /** Plan lines that read project_members other than by an index. */
 function membershipNotByIndex(plan: string[]): string[] {
@@ -44,22 +49,27 @@ describe("membership filters use indexes", () => {
     const { listJobs } = await import("~/lib/jobs/queue.server");
     const first = await listJobs({ limit: 1, visibleTo: member }, ctx.db, { fresh: true });
     expect(first.jobs.length).toBe(1);
-    const shapes = [
-      { limit: 50 },
-      { limit: 200 },
-      { status: "succeeded" as const },
-      { projectId, status: ["succeeded" as const, "failed" as const] },
-      { cursor: first.nextCursor },
-    ];
+    const shapes = [{ limit: 50 }, { limit: 200 }, { status: "succeeded" as const }, { cursor: first.nextCursor }, { submittedBy: member.id }, { review: "waiting" as const }];
     for (const shape of shapes) {
+      const plan = (await jobListPlan(ctx.db, { ...shape, visibleTo: member })).map((l) => l.trim());
+      const text = `${JSON.stringify(shape)}\n${plan.join("\n")}`;
+      // first the member's own rows on an index, then each one's job by its key
+      expect(plan[0], text).toMatch(MEMBER_ROWS_BY_INDEX);
+      expect(plan[1], text).toMatch(JOB_BY_KEY);
+      expect(plan.filter((l) => /^SCAN (jobs|member_jobs|project_members)\b/.test(l)), text).toEqual([]);
+      // project_members is not read at all: member_jobs already holds only the member's jobs
+      expect(plan.filter((l) => /\bproject_members\b/.test(l)), text).toEqual([]);
+      // newest first straight off the index: no sort of the member's jobs
+      expect(plan.join("\n"), text).not.toMatch(/USE TEMP B-TREE FOR ORDER BY/);
+    }
+    // a list of one project: jobs' own index for the project, one membership probe per row
+    for (const shape of [{ projectId, status: ["succeeded" as const, "failed" as const] }, { projectId }]) {
       const plan = await jobListPlan(ctx.db, { ...shape, visibleTo: member });
       const text = `${JSON.stringify(shape)}\n${plan.join("\n")}`;
       expect(plan.some((l) => MEMBERSHIP_BY_INDEX.test(l.trim())), text).toBe(true);
       expect(membershipNotByIndex(plan), text).toEqual([]);
       expect(withoutMembership(plan), text).toEqual(await jobListPlan(ctx.db, { ...shape, visibleTo: { id: "any", role: "admin" } }));
       expect(plan.filter((l) => /^SCAN jobs$/.test(l.trim())), text).toEqual([]);
-      // newest first straight off an index of jobs: no sort of the whole list
-      if (!("projectId" in shape)) expect(plan.join("\n"), text).not.toMatch(/USE TEMP B-TREE FOR ORDER BY/);
     }
   });
 

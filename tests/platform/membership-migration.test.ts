@@ -62,12 +62,16 @@ describe("membership migrations on a seeded database", () => {
     for (const [table, n] of [["user", 4], ["projects", 2], ["models", 2], ["jobs", 2]] as const) {
       expect((await client.execute(`select count(*) as n from ${table}`)).rows[0]!.n, table).toBe(n);
     }
+    // the members' own job rows (member_jobs) are filled for the jobs already there
+    const memberJobs = (await client.execute("select user_id, job_id, project_id, status from member_jobs order by job_id, user_id")).rows.map((r) => `${r.job_id}:${r.user_id}:${r.project_id}:${r.status}`);
+    expect(memberJobs).toEqual(["j1:u-creator:p1:succeeded", "j1:u-submitter:p1:succeeded", "j1:u-uploader:p1:succeeded", "j2:u-uploader:p2:queued"]);
     // the list filter's index is there
     const idx = (await client.execute("select name from sqlite_master where type = 'index' and tbl_name = 'project_members'")).rows.map((r) => r.name);
     expect(idx).toContain("project_members_user_idx");
     // applying again changes nothing
     await migrateDb(drizzle(client) as never);
     expect((await client.execute("select count(*) as n from project_members")).rows[0]!.n).toBe(4);
+    expect((await client.execute("select count(*) as n from member_jobs")).rows[0]!.n).toBe(4);
     client.close();
   });
 });
@@ -138,6 +142,10 @@ describe("the membership migrations on a copy of the demo desk", () => {
       expect(members).toContain(`${aModel!.projectId}:u-second-engineer`);
       expect((await client.execute("PRAGMA foreign_key_check")).rows).toEqual([]);
       expect((await client.execute("PRAGMA integrity_check")).rows[0]!.integrity_check).toBe("ok");
+      // the members' own job rows: exactly project_members × jobs, from the backfill
+      const backfilled = await memberJobsMismatch(client);
+      expect(backfilled).toMatchObject({ missing: 0, extra: 0 });
+      expect(backfilled.rows).toBeGreaterThan(0);
 
       // the app's own lists on the upgraded copy: the second engineer sees the project they ran
       // a job in, the demo viewer (a member of nothing yet) sees nothing
@@ -154,9 +162,19 @@ describe("the membership migrations on a copy of the demo desk", () => {
       expect(again.demo).toEqual({ uploaded: 0, queued: 0 });
       expect((await client.execute("select count(*) as n from jobs")).rows[0]!.n).toBe(counts.jobs);
       expect((await listJobs({ visibleTo: { id: viewerId, role: "viewer" }, limit: 200 }, upgraded, { fresh: true })).jobs.length).toBeGreaterThan(0);
+      // and the triggers kept them so through the seed's new memberships
+      expect(await memberJobsMismatch(client)).toMatchObject({ missing: 0, extra: 0 });
       client.close();
     } finally {
       await services.stop();
     }
   }, 300_000);
 });
+
+/** How far member_jobs is from the join it copies (project_members × jobs), and its size. */
+async function memberJobsMismatch(client: Client): Promise<{ missing: number; extra: number; rows: number }> {
+  const join = "select m.user_id, j.id, j.project_id, j.status, j.created_at from project_members m join jobs j on j.project_id = m.project_id";
+  const copy = "select user_id, job_id, project_id, status, created_at from member_jobs";
+  const n = async (q: string) => Number((await client.execute(`select count(*) as n from (${q})`)).rows[0]!.n);
+  return { missing: await n(`${join} except ${copy}`), extra: await n(`${copy} except ${join}`), rows: await n(copy) };
+}

@@ -5,14 +5,15 @@ import { reviewStateCondition } from "./review-state.server";
 import { randomUUID } from "node:crypto";
 import { and, asc, desc, eq, inArray, lt, or, type SQL } from "drizzle-orm";
 import { db as defaultDb, type Db } from "~/db/client.server";
-import { jobProgress, jobs, models, projects, type JobStatus } from "~/db/schema";
+import { jobProgress, jobs, memberJobs, models, projects, type JobStatus } from "~/db/schema";
 import { jobOptionsSchema, type JobOptions } from "~/engine/design/options";
 import type { HistoryEntry, JobSummary, TrussResult } from "~/engine/design/result-types";
 import { config } from "~/lib/config.server";
 import { jsonError } from "~/lib/http.server";
 import { getModelVersion } from "~/lib/models/versions.server";
-import { memberScope, seesEveryProject } from "~/lib/project-scope.server";
+import { seesEveryProject } from "~/lib/project-scope.server";
 import { getText, getObjectStream } from "~/lib/storage.server";
+import { jobListSource, type JobListSource } from "./list-source.server";
 import { fromStatuses, isTerminal } from "./transitions";
 
 export type JobRow = typeof jobs.$inferSelect;
@@ -165,14 +166,15 @@ export async function enqueueJob(
   return toJobView(row!, { modelName: version.name });
 }
 
-async function selectJobs(where: SQL | undefined, database: Db, limit?: number) {
-  const q = database
-    .select({ job: jobs, modelName: models.name, projectCode: projects.code })
-    .from(jobs)
+async function selectJobs(where: SQL | undefined, database: Db, limit?: number, source: JobListSource = jobListSource({})) {
+  const select = database.select({ job: jobs, modelName: models.name, projectCode: projects.code });
+  // a CROSS JOIN keeps its order in SQLite: the walk is the member's rows, each joined to its job
+  const from = source.memberRows ? select.from(memberJobs).crossJoin(jobs).$dynamic() : select.from(jobs).$dynamic();
+  const q = from
     .leftJoin(models, eq(models.id, jobs.modelId))
     .leftJoin(projects, eq(projects.id, jobs.projectId))
     .where(where)
-    .orderBy(desc(jobs.createdAt), desc(jobs.id));
+    .orderBy(desc(source.createdAt), desc(source.id));
   const rows = limit === undefined ? await q : await q.limit(limit);
   return rows.map((r) => toJobView(r.job, r));
 }
@@ -265,23 +267,23 @@ export function listJobsJson(filter: ListJobsFilter = {}, database: Db = default
 
 async function readJobPage(filter: ListJobsFilter, database: Db): Promise<JobPage> {
   const limit = Math.min(Math.max(1, Math.floor(filter.limit ?? LIST_LIMIT_DEFAULT)), LIST_LIMIT_MAX);
+  const source = jobListSource(filter);
   const where: SQL[] = [];
   if (filter.status) {
     const list = Array.isArray(filter.status) ? filter.status : [filter.status];
-    where.push(inArray(jobs.status, list));
+    where.push(inArray(source.status, list));
   }
   if (filter.projectId) where.push(eq(jobs.projectId, filter.projectId));
   if (filter.modelId) where.push(eq(jobs.modelId, filter.modelId));
   if (filter.submittedBy) where.push(eq(jobs.submittedBy, filter.submittedBy));
-  const scope = filter.visibleTo && memberScope(filter.visibleTo, jobs.projectId);
-  if (scope) where.push(scope);
+  if (source.scope) where.push(source.scope);
   if (filter.review) where.push(reviewStateCondition(filter.review));
   if (filter.cursor) {
     const c = decodeCursor(filter.cursor);
     if (!c) throw jsonError(400, "The cursor is not one this server handed out", [{ path: "cursor", message: "unreadable cursor" }]);
-    where.push(or(lt(jobs.createdAt, c.at), and(eq(jobs.createdAt, c.at), lt(jobs.id, c.id)))!);
+    where.push(or(lt(source.createdAt, c.at), and(eq(source.createdAt, c.at), lt(source.id, c.id)))!);
   }
-  const page = await selectJobs(where.length ? and(...where) : undefined, database, limit + 1);
+  const page = await selectJobs(where.length ? and(...where) : undefined, database, limit + 1, source);
   const more = page.length > limit;
   const list = more ? page.slice(0, limit) : page;
   return { jobs: list, nextCursor: more ? encodeCursor(list[list.length - 1]!) : null };

@@ -1,0 +1,30 @@
+// The job list of each project member, kept by the database itself: one row per (member, job of
+// a project they belong to), written by triggers on jobs and project_members (migration
+// "member_jobs_upkeep"), never by the app. A member's newest-first list walks their own rows
+// (user, created_at, job) and reads exactly the jobs it shows, instead of walking every job and
+// skipping those of other projects (docs/decisions: "a member's job list"). Admins, who see
+// every project, have no rows here and list from jobs itself.
+import { index, integer, primaryKey, sqliteTable, text } from "drizzle-orm/sqlite-core";
+import type { JobStatus } from "../schema";
+
+export const memberJobs = sqliteTable(
+  "member_jobs",
+  {
+    // no foreign keys: the triggers add and remove rows with the jobs and memberships they
+    // mirror (a removed membership, also one removed by a cascade, removes its rows)
+    userId: text("user_id").notNull(),
+    jobId: text("job_id").notNull(),
+    // copies of the job's columns that the list orders and filters by (kept equal by triggers)
+    projectId: text("project_id").notNull(),
+    status: text("status").$type<JobStatus>().notNull(),
+    createdAt: integer("created_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [
+    // a member's list newest first, and the cursor's (created_at, id) seek, without a sort
+    primaryKey({ columns: [t.userId, t.createdAt, t.jobId] }),
+    // the same with a status filter (the queue page's tabs)
+    index("member_jobs_status_idx").on(t.userId, t.status, t.createdAt, t.jobId),
+    // a job's rows, for the triggers that follow its status or remove it
+    index("member_jobs_job_idx").on(t.jobId),
+  ],
+);
