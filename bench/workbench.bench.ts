@@ -35,6 +35,7 @@ interface Phases {
   htmlParsed: number;
   modelFile: number;
   hydrated: number;
+  editorMounted: number;
   canvas: number;
   rendered: number;
   seen: number;
@@ -44,7 +45,8 @@ const PHASES: [keyof Phases, string][] = [
   ["serverAnswer", "server answer"],
   ["htmlParsed", "HTML parsed"],
   ["modelFile", "model file in"],
-  ["hydrated", "hydrated"],
+  ["hydrated", "page hydrated"],
+  ["editorMounted", "editor built"],
   ["canvas", "canvas created"],
   ["rendered", "first frame rendered"],
   ["seen", "first frame seen"],
@@ -84,7 +86,8 @@ async function firstFrame(page: Page, url: string): Promise<Phases> {
       serverAnswer: nav.responseStart,
       htmlParsed: nav.domInteractive,
       modelFile: file ? file.responseEnd : NaN,
-      hydrated: mark(${JSON.stringify(PAGE_MARKS.editorHydrated)}),
+      hydrated: mark(${JSON.stringify(PAGE_MARKS.pageHydrated)}),
+      editorMounted: mark(${JSON.stringify(PAGE_MARKS.editorMounted)}),
       canvas: mark(${JSON.stringify(PAGE_MARKS.canvasCreated)}),
       rendered: mark(${JSON.stringify(PAGE_MARKS.firstFrame)}),
       seen: mark(${JSON.stringify(INK_SEEN)}),

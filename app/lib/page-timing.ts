@@ -4,8 +4,10 @@
 
 /** The marks the editor page sets on its way to the preview's first frame, in order. */
 export const PAGE_MARKS = {
-  /** the editor's first effect ran: the page is hydrated */
-  editorHydrated: "editor-hydrated",
+  /** the page's first effect ran: it is hydrated (the model's file may still be on its way) */
+  pageHydrated: "page-hydrated",
+  /** the editor's first effect ran: the model is parsed, its tables and preview are built */
+  editorMounted: "editor-mounted",
   /** the preview's WebGL canvas and renderer exist */
   canvasCreated: "truss-canvas-created",
   /** the preview's first frame has been rendered (after the draw calls, not before) */

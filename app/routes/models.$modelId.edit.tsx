@@ -2,6 +2,7 @@
 // again" on a job page) in editable tables with a live preview; saving adds a new version.
 // The model itself is not in the page's data: the page fetches the version's file, preloaded
 // from its head (use-model-file.ts, docs/decisions/0021).
+import { useEffect } from "react";
 import { data, Link, redirect, useNavigation } from "react-router";
 import { ModelEditor } from "~/components/editor/ModelEditor";
 import { modelFileUrl, preloadModelFile, useModelFile } from "~/components/editor/use-model-file";
@@ -10,6 +11,7 @@ import { audit } from "~/lib/auth/audit.server";
 import { requireModel } from "~/lib/access.server";
 import { badRequest, notFound, withDependencies } from "~/lib/http.server";
 import { getModel } from "~/lib/models.server";
+import { markOnce, PAGE_MARKS } from "~/lib/page-timing";
 import { createModelVersion, getModelVersion } from "~/lib/models/versions.server";
 import type { Route } from "./+types/models.$modelId.edit";
 
@@ -64,6 +66,7 @@ export default function EditModelPage({ loaderData, actionData }: Route.Componen
   const fileUrl = modelFileUrl(loaderData.id, loaderData.version);
   preloadModelFile(fileUrl);
   const file = useModelFile(fileUrl);
+  useEffect(() => markOnce(PAGE_MARKS.pageHydrated), []);
   const units = file.status === "loaded" ? (file.model.units as Units | undefined) : undefined;
   return (
     <div className="space-y-4">

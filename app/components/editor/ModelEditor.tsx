@@ -37,7 +37,7 @@ export function ModelEditor({ initial, units, baseVersion, saving, saveError }: 
   const [tab, setTab] = useState<Tab>("nodes");
   const [selection, setSelection] = useState<Selection>(null);
   const [note, setNote] = useState("");
-  useEffect(() => markOnce(PAGE_MARKS.editorHydrated), []);
+  useEffect(() => markOnce(PAGE_MARKS.editorMounted), []);
   const deferred = useDeferredValue(tables);
   // the first check (building the model from the tables, starting the parser's worker and
   // handing it thousands of rows) waits until the preview has drawn its first frame: on a

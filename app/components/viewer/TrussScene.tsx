@@ -11,7 +11,7 @@ import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
 import { markOnce, PAGE_MARKS } from "~/lib/page-timing";
 import { cssColor, forceSense, SENSE_TOKENS } from "./palette";
 import { isOverLimit, OVER_LIMIT_OUTLINE, utilizationColor } from "~/lib/utilization-scale";
-import { placeCone, placeCylinder } from "./instancing";
+import { litInstances, placeCone, placeCylinder } from "./instancing";
 import { drawnBox, fitOrthographic, fitPerspective, jointRadius, loadArrows, reactionArrows, supportSize, type Box } from "./framing";
 import { deformedPositions, upAxis, visualRadii, type TrussView, type Vec3 } from "./truss-view";
 
@@ -166,11 +166,7 @@ function Members({
   const mesh = useMemo(() => {
     // few radial segments: at 2,500 members the triangle count stays modest and members still read as round
     // the joints' spheres cover the member ends, so the cylinders need no caps
-    const geometry = new THREE.CylinderGeometry(1, 1, 1, view.members.length > 1200 ? 6 : 10, 1, true);
-    const material = new THREE.MeshLambertMaterial({ color: 0xffffff });
-    const m = new THREE.InstancedMesh(geometry, material, Math.max(1, view.members.length));
-    m.count = view.members.length;
-    return m;
+    return litInstances(new THREE.CylinderGeometry(1, 1, 1, view.members.length > 1200 ? 6 : 10, 1, true), view.members.length);
   }, [view]);
 
   useEffect(
@@ -340,13 +336,11 @@ function NodeMark({ view, index }: { view: TrussView; index: number }) {
 function Joints({ view }: { view: TrussView }) {
   const invalidate = useThree((s) => s.invalidate);
   const mesh = useMemo(() => {
-    const m = new THREE.InstancedMesh(
+    return litInstances(
       view.nodes.length > 400 ? new THREE.SphereGeometry(1, 6, 4) : new THREE.SphereGeometry(1, 10, 8),
-      new THREE.MeshLambertMaterial({ color: new THREE.Color(cssColor("--color-ink", "#16202c")) }),
-      Math.max(1, view.nodes.length),
+      view.nodes.length,
+      new THREE.Color(cssColor("--color-ink", "#16202c")),
     );
-    m.count = view.nodes.length;
-    return m;
   }, [view]);
   useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
   useLayoutEffect(() => {
@@ -454,9 +448,7 @@ function Supports({ view }: { view: TrussView }) {
   const mesh = useMemo(() => {
     const geo = new THREE.ConeGeometry(0.5, 1, 12);
     geo.translate(0, -0.5, 0); // tip at the origin, body below it
-    const m = new THREE.InstancedMesh(geo, new THREE.MeshLambertMaterial({ color: new THREE.Color(cssColor("--color-ok", "#2f7d5b")) }), Math.max(1, items.length));
-    m.count = items.length;
-    return m;
+    return litInstances(geo, items.length, new THREE.Color(cssColor("--color-ok", "#2f7d5b")));
   }, [items]);
   useEffect(() => () => { mesh.geometry.dispose(); (mesh.material as THREE.Material).dispose(); mesh.dispose(); }, [mesh]);
   useLayoutEffect(() => {
@@ -474,8 +466,9 @@ function Supports({ view }: { view: TrussView }) {
 
 /**
  * Load arrows of one load case (or, with `reactions`, its support reactions, in the supports'
- * green), heads on the node, length by magnitude: all shafts in one line set and all heads in
- * one instanced cone mesh (two draw calls for any number of arrows).
+ * green), heads on the node, length by magnitude: all shafts in one instanced mesh of thin
+ * cylinders and all heads in one of cones, in the scene's one lit material (two draw calls for
+ * any number of arrows, no shader program of their own).
  */
 function Loads({ view, loadCase, reactions = false }: { view: TrussView; loadCase: number; reactions?: boolean }) {
   const invalidate = useThree((s) => s.invalidate);
@@ -486,21 +479,11 @@ function Loads({ view, loadCase, reactions = false }: { view: TrussView; loadCas
   const objects = useMemo(() => {
     // loads in ink, not blue (tension members are); reactions in the supports' colour
     const colour = new THREE.Color(reactions ? cssColor("--color-ok", "#2f7d5b") : cssColor("--color-ink", "#16202c"));
-    const shaft = new Float32Array(arrows.length * 6);
-    arrows.forEach((a, i) => {
-      const tip = new THREE.Vector3(...a.tip);
-      const start = tip.clone().addScaledVector(a.dir, -a.len);
-      const neck = tip.clone().addScaledVector(a.dir, -a.len * 0.28);
-      shaft.set([start.x, start.y, start.z, neck.x, neck.y, neck.z], i * 6);
-    });
-    const g = new THREE.BufferGeometry();
-    g.setAttribute("position", new THREE.BufferAttribute(shaft, 3));
-    const lines = new THREE.LineSegments(g, new THREE.LineBasicMaterial({ color: colour }));
+    const shafts = litInstances(new THREE.CylinderGeometry(1, 1, 1, 6, 1, true), arrows.length, colour);
     const cone = new THREE.ConeGeometry(0.5, 1, 10);
     cone.translate(0, -0.5, 0);
-    const heads = new THREE.InstancedMesh(cone, new THREE.MeshLambertMaterial({ color: colour }), Math.max(1, arrows.length));
-    heads.count = arrows.length;
-    return { lines, heads };
+    const heads = litInstances(cone, arrows.length, colour);
+    return { shafts, heads };
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [arrows]);
   useLayoutEffect(() => {
@@ -513,24 +496,31 @@ function Loads({ view, loadCase, reactions = false }: { view: TrussView; loadCas
       s.set(a.len * 0.14, a.len * 0.28, a.len * 0.14);
       mat.compose(new THREE.Vector3(...a.tip), q, s);
       objects.heads.setMatrixAt(i, mat);
+      // the shaft from the arrow's tail to the head's base, a fifth of the head's width
+      const tip: Vec3 = [a.tip[0], a.tip[1], a.tip[2]];
+      const tail: Vec3 = [tip[0] - a.dir.x * a.len, tip[1] - a.dir.y * a.len, tip[2] - a.dir.z * a.len];
+      const neck: Vec3 = [tip[0] - a.dir.x * a.len * 0.28, tip[1] - a.dir.y * a.len * 0.28, tip[2] - a.dir.z * a.len * 0.28];
+      objects.shafts.setMatrixAt(i, placeCylinder(mat, tail, neck, a.len * 0.028));
     });
-    objects.heads.instanceMatrix.needsUpdate = true;
-    objects.heads.computeBoundingSphere();
+    for (const m of [objects.heads, objects.shafts]) {
+      m.instanceMatrix.needsUpdate = true;
+      m.computeBoundingSphere();
+    }
     invalidate();
   }, [arrows, objects, invalidate]);
   useEffect(
     () => () => {
-      for (const o of [objects.lines, objects.heads]) {
+      for (const o of [objects.shafts, objects.heads]) {
         o.geometry.dispose();
         (o.material as THREE.Material).dispose();
+        o.dispose();
       }
-      objects.heads.dispose();
     },
     [objects],
   );
   return (
     <>
-      <primitive object={objects.lines} raycast={() => null} />
+      <primitive object={objects.shafts} raycast={() => null} />
       <primitive object={objects.heads} raycast={() => null} />
     </>
   );

@@ -6,6 +6,19 @@ import type { Vec3 } from "./truss-view";
 
 export const Y_AXIS = new THREE.Vector3(0, 1, 0);
 
+/**
+ * An instanced mesh in the scene's one lit material, each instance coloured through its own
+ * instance colour (`colour` for all of them, when given). Members, joints, supports and arrows
+ * then share one shader program: a browser drawing without a GPU (software GL) compiles each
+ * program on the first frame, which was most of that frame's cost there.
+ */
+export function litInstances(geometry: THREE.BufferGeometry, count: number, colour?: THREE.Color): THREE.InstancedMesh {
+  const mesh = new THREE.InstancedMesh(geometry, new THREE.MeshLambertMaterial({ color: 0xffffff }), Math.max(1, count));
+  mesh.count = count;
+  if (colour) for (let i = 0; i < Math.max(1, count); i++) mesh.setColorAt(i, colour);
+  return mesh;
+}
+
 const a = new THREE.Vector3();
 const b = new THREE.Vector3();
 const dir = new THREE.Vector3();
