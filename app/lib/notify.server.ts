@@ -13,7 +13,7 @@ import { config } from "~/lib/config.server";
 import { loadJobWithModel } from "~/lib/job-with-model.server";
 import type { Mail } from "~/lib/mail.server";
 import { enqueueMail, type OutboxMail } from "~/lib/mail/outbox.server";
-import { formatDateTime, formatNumber } from "~/lib/format";
+import { formatDateTime, formatNumber, quantityFormatter } from "~/lib/format";
 import { memberOfJobProject } from "~/lib/project-scope.server";
 import { OUTCOMES_WITHOUT_REVIEW } from "~/lib/review-request";
 import { jobState, TONE_COLORS, type JobState } from "~/lib/job-state";
@@ -38,6 +38,8 @@ interface JobFacts {
   projectName: string;
   submitter: { id: string; name: string; email: string } | null;
   summary: { objectiveKind?: string; objectiveInitial?: number; objectiveFinal?: number; iterations?: number } | null;
+  /** the model's declared units (its stored summary), for the objective's unit */
+  units: { length: string; force: string; mass: string } | null;
 }
 
 async function jobFacts(database: DbExecutor, jobId: string, end?: JobEnd): Promise<JobFacts | null> {
@@ -55,6 +57,7 @@ async function jobFacts(database: DbExecutor, jobId: string, end?: JobEnd): Prom
     projectName: r.project.name,
     submitter: r.submitter,
     summary: (job.summary as JobFacts["summary"]) ?? null,
+    units: (r.model.summary as { units?: JobFacts["units"] } | null)?.units ?? null,
   };
 }
 
@@ -174,7 +177,9 @@ export async function jobFinishedMails(database: DbExecutor, jobId: string, opts
     paragraphs = [`Your optimization run of "${j.modelName}" has finished: ${OUTCOME_WORDS[outcome] ?? outcome}.`];
     const s = j.summary;
     if (s) {
-      facts.push([`Objective (${s.objectiveKind ?? "mass"})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
+      const kind = s.objectiveKind === "compliance" ? "compliance" : "mass";
+      const unit = j.units ? `, ${quantityFormatter(j.units).unit(kind)}` : "";
+      facts.push([`Objective (${kind}${unit})`, `${formatNumber(s.objectiveInitial)} → ${formatNumber(s.objectiveFinal)}`]);
       if (s.iterations !== undefined) facts.push(["Iterations", String(s.iterations)]);
     }
     const asked = (opts.reviewRequested ?? true) && !OUTCOMES_WITHOUT_REVIEW.includes(outcome);

@@ -43,6 +43,7 @@ beforeAll(async () => {
     jobId: "job-ok-001",
     submittedBy: "u-eng",
     summary: { objectiveKind: "mass", objectiveInitial: 0.412, objectiveFinal: 0.287, iterations: 14, maxUtilization: 1, status: "optimal" },
+    modelSummary: { units: { length: "mm", force: "N", mass: "t" } },
   });
   await rows.insertJob({ jobId: "job-bad-002", submittedBy: "u-eng", status: "failed", error: "The structure is a mechanism: node D can move freely in y" });
   await rows.insertJob({ jobId: "job-self-003", submittedBy: "u-chk-self" });
@@ -64,7 +65,7 @@ describe("notifyJobFinished", () => {
     expect(mails[0]!.text).toContain("State: finished — optimal");
     expect(mails[0]!.html).toContain("background:#e2f1e8;color:#2f7d5b;font-weight:600\">✓ finished — optimal</span>");
     expect(mails[0]!.text).toContain("http://desk.example.test:4450/jobs/job-ok-001");
-    expect(mails[0]!.text).toContain("0.4120 → 0.2870");
+    expect(mails[0]!.text).toContain("Objective (mass, t): 0.4120 → 0.2870"); // units on every figure
     expect(mails[0]!.html).toContain('href="http://desk.example.test:4450/jobs/job-ok-001"');
   });
 

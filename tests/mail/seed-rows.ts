@@ -19,6 +19,8 @@ export async function insertJob(opts: {
   modelName?: string;
   sha256?: string;
   summary?: unknown;
+  /** the model's stored summary (its units name the objective's unit in the mail) */
+  modelSummary?: unknown;
   /** project members besides the submitter; default: every account inserted so far */
   members?: string[];
 }) {
@@ -39,7 +41,7 @@ export async function insertJob(opts: {
     nodeCount: 13,
     memberCount: 23,
     hasDesign: true,
-    summary: {},
+    summary: (opts.modelSummary ?? {}) as never,
     warnings: [],
     uploadedBy: opts.submittedBy,
   });
