@@ -31,7 +31,10 @@ export function reactionsSection(w: ReportWriter, data: ReportData) {
 
   const balance = r.reactionBalance ?? [];
   if (balance.length) {
-    w.paragraph("Equilibrium check: the sum of the reactions against the applied loads and the truss's own weight in each load case and combination. They balance when what is left over is near zero.", {
+    // keep the sentence on the page of the table it explains (title, header and a few rows)
+    const intro = "Equilibrium check: the sum of the reactions against the applied loads and the truss's own weight in each load case and combination. They balance when what is left over is near zero.";
+    w.ensure(w.paragraphHeight(intro, { size: 8.5 }) + 14 + 15 + 12 * Math.min(3, balance.length) + 4);
+    w.paragraph(intro, {
       size: 8.5,
       color: INK_MUTED,
     });
