@@ -37,7 +37,7 @@ export interface MemberHover {
   y: number;
 }
 
-interface Props {
+export interface SceneProps {
   view: TrussView;
   settings: SceneSettings;
   /** colours by member id that replace the colour mode (the compare view's change in area) */
@@ -55,7 +55,7 @@ interface Props {
   onFirstFrame?: () => void;
 }
 
-export default function TrussScene({ view, settings, paint, selected, onSelectMember, selectedNode, onSelectNode, onHoverMember, onContextLost, onFirstFrame }: Props) {
+export default function TrussScene({ view, settings, paint, selected, onSelectMember, selectedNode, onSelectNode, onHoverMember, onContextLost, onFirstFrame }: SceneProps) {
   const up = upAxis(view);
   const ortho = view.planar && settings.projection2d;
   const span = view.bounds.span;

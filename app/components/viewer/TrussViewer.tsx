@@ -1,16 +1,29 @@
-// The 3D view of a truss with its controls and legend. The canvas is created only after the
-// page has mounted in a browser that offers WebGL (three.js cannot render on the server);
-// until then, and without WebGL, the box says what is happening instead of staying blank.
-import { Component, lazy, Suspense, useCallback, useEffect, useMemo, useState, type ReactNode } from "react";
+// The 3D view of a truss with its controls and legend. The canvas is created only in a
+// browser that offers WebGL (three.js cannot render on the server), after hydration on a page
+// the server rendered; until then, and without WebGL, the box says what is happening instead
+// of staying blank.
+import { Component, lazy, Suspense, useCallback, useEffect, useMemo, useState, useSyncExternalStore, type ComponentType, type ReactNode } from "react";
 import { formatNumber, formatPercent, quantityFormatter, type DisplayUnitChoice, type QuantityFormatter } from "~/lib/format";
 import { Legend } from "./Legend";
-import type { ColourMode, MemberHover, SceneSettings } from "./TrussScene";
+import type { ColourMode, MemberHover, SceneProps, SceneSettings } from "./TrussScene";
 import { buildTrussView, defaultDeformationScale, type ModelLike, type ResultLike, type TrussView } from "./truss-view";
 
-const loadScene = () => import("./TrussScene");
+type SceneComponent = ComponentType<SceneProps>;
+/** The scene's module once loaded: a viewer mounted after that uses it directly, without suspending for a render. */
+let loadedScene: SceneComponent | null = null;
+const loadScene = () =>
+  import("./TrussScene").then((m) => {
+    loadedScene = m.default;
+    return m;
+  });
 // In the browser, fetch the three.js chunk while the page hydrates rather than after mount
 if (typeof window !== "undefined") void loadScene();
-const TrussScene = lazy(loadScene);
+const LazyScene = lazy(loadScene);
+
+let webglProbed: boolean | null = null;
+/** WebGL available, probed once per page (each probe costs a context). */
+const webglOnce = () => (webglProbed ??= webglAvailable());
+const noSubscription = () => () => {};
 
 export function webglAvailable(): boolean {
   try {
@@ -66,8 +79,12 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
   const byId = useMemo(() => new Map(view.members.map((m, i) => [m.id, i])), [view]);
   if (selectedMemberId !== undefined) selectedMember = selectedMemberId === null ? null : (byId.get(selectedMemberId) ?? null);
   const hasReactions = view.loadCases.some((c) => c.reactions.length > 0);
-  const [mounted, setMounted] = useState(false);
-  const [gl, setGl] = useState<boolean | null>(null);
+  // null on the server and while hydrating (the server's answer); a viewer first rendered in
+  // the browser (the editor's, once its model has arrived) knows at once, without an effect
+  // and a second render before its canvas can be made
+  const gl = useSyncExternalStore(noSubscription, webglOnce, () => null);
+  // chosen once: a component of another type on a later render would remount the canvas
+  const [Scene] = useState<SceneComponent>(() => loadedScene ?? LazyScene);
   const [lost, setLost] = useState(false);
   const [ownSelected, setOwnSelected] = useState<number | null>(null);
   const selected = selectedMember !== undefined ? selectedMember : ownSelected;
@@ -93,10 +110,6 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
     fitNonce: 0,
   });
 
-  useEffect(() => {
-    setMounted(true);
-    setGl(webglAvailable());
-  }, []);
   // nothing will be drawn without WebGL or after a lost context: whoever waits goes on now
   useEffect(() => {
     if (gl === false || lost) onFirstFrame?.();
@@ -192,7 +205,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
           if ((e.key === "f" || e.key === "F") && !e.ctrlKey && !e.metaKey && !e.altKey) set("fitNonce", settings.fitNonce + 1);
         }}
       >
-        {!mounted || gl === null ? (
+        {gl === null ? (
           <div className="flex h-full items-center justify-center text-sm text-ink-muted" role="status">
             Preparing the 3D view…
           </div>
@@ -207,7 +220,7 @@ export function TrussViewer({ model, result, title = "3D view", height = "h-[26r
                 </div>
               }
             >
-              <TrussScene
+              <Scene
                 view={view}
                 settings={{ ...settings, loadCase, deformationScale }}
                 paint={paint?.colours ?? null}
