@@ -13,6 +13,7 @@ import type { SqpResult } from "../sqp";
 import type { ActiveConstraint, ShadowPrice } from "./result-types";
 import type { DesignProblem, Limit } from "./problem";
 import { unitLabel } from "../truss/units";
+import { constraintWords } from "./constraint-words";
 import type { Units } from "../truss/schema";
 
 /** multipliers below this (scaled, dimensionless) count as zero */
@@ -29,27 +30,19 @@ export interface PricedConstraint {
   relaxUnit: string;
 }
 
-function limitWords(p: DesignProblem, lim: Limit): { what: string; relaxUnit: string } {
-  const s = p.structure;
-  const u = p.model.units;
-  const stress = unitLabel("stress", u as Units);
-  const lc = lim.loadCase >= 0 ? s.responseIds[lim.loadCase] : "";
+/** The unit a limit is relaxed in; its words come from the one rule (constraint-words.ts). */
+function relaxUnitOf(p: DesignProblem, lim: Limit): string {
+  const u = p.model.units as Units;
   switch (lim.kind) {
     case "stress-tension":
-      return { what: `tension stress allowance of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
     case "stress-compression":
-      return { what: `compression stress allowance of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
     case "buckling":
-      return { what: `Euler buckling stress of member ${s.memberIds[lim.member]} in load case ${lc}`, relaxUnit: stress };
+      return unitLabel("stress", u);
     case "displacement":
-      return {
-        what: `deflection limit at node ${s.nodeIds[Math.floor(lim.dof / 3)]} (${"xyz"[lim.dof % 3]}) in load case ${lc}`,
-        relaxUnit: u.length,
-      };
-    case "volume":
-      return { what: "material volume limit", relaxUnit: `${u.length}³` };
     case "length":
-      return { what: `shortest allowed length of member ${s.memberIds[lim.member]}`, relaxUnit: u.length };
+      return u.length;
+    case "volume":
+      return unitLabel("volume", u);
   }
 }
 
@@ -74,27 +67,26 @@ export function priceConstraints(p: DesignProblem, r: SqpResult, objectiveScale:
     const mu = Math.max(0, r.multipliers.ineq[k] ?? 0);
     const g = r.ineq[k];
     if (!(mu > MULTIPLIER_FLOOR) && !(Math.abs(g) < ACTIVE_GAP)) return;
-    const words = limitWords(p, lim);
     // buckling is the stress difference (-sigma - sigma_E) / sigma_ref (problem.ts): relaxing
     // the Euler stress by one unit moves g by 1 / sigma_ref, whatever g is
     const perUnit = lim.kind === "buckling" ? 1 / lim.limit : (1 + g) / lim.limit;
     const price = mu > MULTIPLIER_FLOOR ? objectiveScale * mu * perUnit : 0;
-    add(lim.id, mu > MULTIPLIER_FLOOR ? mu : 0, price, words.what, words.relaxUnit);
+    add(lim.id, mu > MULTIPLIER_FLOOR ? mu : 0, price, constraintWords(lim.id, p.model), relaxUnitOf(p, lim));
   });
   const areaUnit = `${p.model.units.length}²`;
   p.areaVars.forEach((v, k) => {
     const lo = Math.max(0, r.multipliers.lower[k] ?? 0);
     const hi = Math.max(0, r.multipliers.upper[k] ?? 0);
-    if (lo > MULTIPLIER_FLOOR) add(`area-min:${v.id}`, lo, (objectiveScale * lo) / v.scale, `minimum area of ${v.id}`, areaUnit);
-    if (hi > MULTIPLIER_FLOOR) add(`area-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, `maximum area of ${v.id}`, areaUnit);
+    if (lo > MULTIPLIER_FLOOR) add(`area-min:${v.id}`, lo, (objectiveScale * lo) / v.scale, constraintWords(`area-min:${v.id}`, p.model), areaUnit);
+    if (hi > MULTIPLIER_FLOOR) add(`area-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, constraintWords(`area-max:${v.id}`, p.model), areaUnit);
   });
   const nA = p.areaVars.length;
   p.shapeVars.forEach((v, k) => {
     const lo = Math.max(0, r.multipliers.lower[nA + k] ?? 0);
     const hi = Math.max(0, r.multipliers.upper[nA + k] ?? 0);
     const len = p.model.units.length;
-    if (lo > MULTIPLIER_FLOOR) add(`shape-min:${v.id}`, lo, (objectiveScale * lo) / v.scale, `lower end of shape variable ${v.id}`, len);
-    if (hi > MULTIPLIER_FLOOR) add(`shape-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, `upper end of shape variable ${v.id}`, len);
+    if (lo > MULTIPLIER_FLOOR) add(`shape-min:${v.id}`, lo, (objectiveScale * lo) / v.scale, constraintWords(`shape-min:${v.id}`, p.model), len);
+    if (hi > MULTIPLIER_FLOOR) add(`shape-max:${v.id}`, hi, (objectiveScale * hi) / v.scale, constraintWords(`shape-max:${v.id}`, p.model), len);
   });
   return [...out.values()].sort((a, b) => b.scaled - a.scaled || a.id.localeCompare(b.id));
 }

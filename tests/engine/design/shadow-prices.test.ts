@@ -60,7 +60,7 @@ describe("shadow prices match finite-difference re-solves", () => {
     const r = solve(fixture("ten-bar.truss.json"), {});
     const worded = r.shadowPrices!.filter((s) => s.sentence);
     expect(worded.length).toBe(3);
-    expect(worded[0].sentence).toMatch(/^The deflection limit at node 1 \(y\) in load case LC1 governs: relaxing it by 1 in would save about [0-9.]+ lb of material/);
+    expect(worded[0].sentence).toMatch(/^The displacement limit of node 1 along y under Tip loads \(LC1\) governs: relaxing it by 1 in would save about [0-9.]+ lb of material/);
     expect(r.shadowPrices![0].unit).toBe("lb per in");
   });
 });
