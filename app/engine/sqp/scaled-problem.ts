@@ -7,9 +7,11 @@
 //                 is below 1e-6, i.e. the start is already nearly stationary);
 //   constraints   cs_i = c_i * sc_i, sc_i = 1/||grad cs_i||inf (clamped to [1e-8, 1e8]; 1 for
 //                 a row with zero gradient) — a scaled value is then roughly the distance to
-//                 the constraint's boundary in scaled variables.
+//                 the constraint's boundary in scaled variables. Inequality rows are
+//                 amplified at most 10 times (sc_i <= MAX_INEQUALITY_SCALE, thresholds.ts).
 // Results are mapped back (x, f, constraint values, multipliers) before they leave the solver.
 import { type QpRow, scaleUserRow, userRowNormInf } from "./rows";
+import { MAX_INEQUALITY_SCALE } from "./thresholds";
 import type { Row, SqpProblem } from "./types";
 
 export interface ScaledPoint {
@@ -168,7 +170,10 @@ export class ScaledProblem {
     for (let i = 0; i < this.nIneq; i++) {
       const r = raw.value.ineq[i];
       const m = r ? userRowNormInf(r, this.d) : 0;
-      this.inScale[i] = m > 0 && Number.isFinite(m) ? clamp(1 / m, 1e-8, 1e8) : 1;
+      // amplified at most MAX_INEQUALITY_SCALE times: a row whose gradient is small at the start
+      // is far from binding there (a member's stress at 1 % of its allowable); scaled by
+      // 1/|gradient| its violations weighed 100 times in the merit and the line search crawled
+      this.inScale[i] = m > 0 && Number.isFinite(m) ? clamp(1 / m, 1e-8, MAX_INEQUALITY_SCALE) : 1;
     }
     return this.scaleDerivatives(xs, raw.value, all);
   }
