@@ -28,6 +28,13 @@ export function changeGradientCss(): string {
   return `linear-gradient(to right, ${steps.join(", ")})`;
 }
 
+/**
+ * Changes in area smaller than this share of the largest area shown are "the same": two runs
+ * that reach one design differ by the solver's tolerance (±2e-6 mm² on 500 mm²), which must not
+ * paint the view in both colours.
+ */
+export const SAME_AREA_SHARE = 1e-6;
+
 /** A round limit for the legend: the largest change, up to 1, 2 or 5 times a power of ten. */
 export function niceLimit(largest: number): number {
   if (!(largest > 0) || !Number.isFinite(largest)) return 1;

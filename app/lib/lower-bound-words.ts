@@ -40,7 +40,14 @@ export function gapSentence(lb: LowerBound, kind: "mass" | "compliance", unit: s
 
 /** The label beside the gap figure: which bound it is measured from. */
 export function gapLabel(lb: LowerBound): string {
-  return lb.leftOut?.length ? "above the stress-only bound" : "above the bound";
+  // only a design that breaks a limit lies below the bound: "−95 % above" would read as nonsense
+  const side = lb.gap < -GAP_NOISE ? "below" : "above";
+  return lb.leftOut?.length ? `${side} the stress-only bound` : `${side} the bound`;
+}
+
+/** The gauge's headline figure: the size of the gap, its side said by gapLabel. */
+export function gapMagnitude(gap: number): string {
+  return formatGap(Math.abs(gap));
 }
 
 /** "the buckling and displacement limits": the run's limits the bound leaves out, or null. */

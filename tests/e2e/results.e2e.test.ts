@@ -139,7 +139,7 @@ beforeAll(async () => {
   ids.roof = await upload(page, "kiln-roof.truss.json", roof);
   ids.bracket = await upload(page, "bracket.truss.json", JSON.parse(fs.readFileSync(BRACKET, "utf8")));
   ids.optimal = await queue(page, ids.roof);
-  ids.early = await queue(page, ids.roof, { maxIterations: 3 });
+  ids.early = await queue(page, ids.roof, { maxIterations: 3, starts: 1 }); // stopped early: a design of its own
   ids.infeasible = await queue(page, ids.bracket);
   expect((await finished(page, ids.optimal)).outcome, app.logs().slice(-2000)).toBe("optimal");
   expect((await finished(page, ids.early)).status).toBe("succeeded");

@@ -3,7 +3,15 @@
 import { changeGradientCss } from "~/lib/change-scale";
 import { formatNumber, MINUS } from "~/lib/format";
 
+/** `limit` 0: no member's area changed beyond the solver's tolerance. */
 export function ChangeKey({ limit, unit, shown, base }: { limit: number; unit: string; shown: string; base: string }) {
+  if (limit === 0)
+    return (
+      <p className="text-xs text-ink-soft" aria-label="Legend" data-testid="change-key">
+        <span className="font-medium text-ink">Every member has the same area in run {shown} as in run {base}</span> (within a millionth of the largest area), so
+        every member is drawn pale · thickness ∝ area in {shown}
+      </p>
+    );
   const end = formatNumber(limit, { sig: 3, trim: true });
   return (
     <div className="flex flex-col gap-1 text-xs text-ink-soft" aria-label="Legend" data-testid="change-key">

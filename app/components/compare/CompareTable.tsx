@@ -67,15 +67,15 @@ export function CompareTable({ comparison, q }: { comparison: Comparison; q: Qua
           <Row label="model version" runs={runs} cell={(r) => (r.modelVersion === null ? "–" : `version ${r.modelVersion}`)} />
           <Row label="queued" runs={runs} cell={(r) => <span className="whitespace-nowrap">{formatDateTime(r.createdAt)}</span>} />
           <Row label={withUnit("mass", massUnit)} runs={runs} testId="compare-mass" cell={(r) => <span className="num">{num(r.mass, "mass")}</span>} />
-          <Row label="mass against run A" runs={runs} cell={(r, i) => (i === 0 ? "—" : changeAgainst(base.mass, r.mass))} />
+          <Row label="mass against run A" runs={runs} cell={(r, i) => <span className="num">{i === 0 ? "—" : changeAgainst(base.mass, r.mass)}</span>} />
           {runs.some((r) => r.objective?.kind === "compliance") && (
             <Row label="objective" runs={runs} cell={(r) => (r.objective ? `${formatNumber(r.objective.final)} ${objUnit(r)} ${r.objective.kind}` : "–")} />
           )}
-          <Row label="iterations" runs={runs} testId="compare-iterations" cell={(r) => (r.iterations === null ? "–" : r.iterations.toLocaleString("en-US"))} />
-          <Row label="max utilization (%)" runs={runs} cell={(r) => formatPercent(r.maxUtilization)} />
+          <Row label="iterations" runs={runs} testId="compare-iterations" cell={(r) => <span className="num">{r.iterations === null ? "–" : r.iterations.toLocaleString("en-US")}</span>} />
+          <Row label="max utilization (%)" runs={runs} cell={(r) => <span className="num">{formatPercent(r.maxUtilization)}</span>} />
           <Row label="limits (independent check)" runs={runs} cell={(r) => (r.allLimitsMet === null ? "–" : r.allLimitsMet ? "all met" : "some exceeded")} />
-          <Row label={withUnit("least-mass bound", massUnit)} runs={runs} testId="compare-bound" cell={(r) => (r.lowerBound ? <span title={r.lowerBound.basis}>{num(r.lowerBound.value, "mass")}</span> : "–")} />
-          <Row label="gap to the bound (%)" runs={runs} cell={(r) => (r.lowerBound ? formatGap(r.lowerBound.gap) : "–")} />
+          <Row label={withUnit("least-mass bound", massUnit)} runs={runs} testId="compare-bound" cell={(r) => (r.lowerBound ? <span className="num" title={r.lowerBound.basis}>{num(r.lowerBound.value, "mass")}</span> : "–")} />
+          <Row label="gap to the bound (%)" runs={runs} cell={(r) => <span className="num">{r.lowerBound ? formatGap(r.lowerBound.gap) : "–"}</span>} />
           <Row
             label="governing limits (count)"
             runs={runs}

@@ -6,8 +6,8 @@ import { topologyOf } from "~/components/viewer/model-topology";
 import type { ModelLike, ResultLike } from "~/components/viewer/truss-view";
 import { ErrorNote, LoadingNote } from "~/components/ui/States";
 import type { Comparison } from "~/lib/jobs/compare.server";
-import { changeColor, niceLimit } from "~/lib/change-scale";
-import { formatNumber, MINUS, type QuantityFormatter } from "~/lib/format";
+import { changeColor, niceLimit, SAME_AREA_SHARE } from "~/lib/change-scale";
+import { formatNumber, MINUS, noiseFloor, type QuantityFormatter } from "~/lib/format";
 import { changeAgainst } from "./CompareTable";
 import { ChangeKey } from "./ChangeKey";
 
@@ -51,12 +51,15 @@ export function CompareView({ comparison, q }: { comparison: Comparison; q: Quan
     [topology, shown],
   );
   const paint = useMemo(() => {
+    const floor = noiseFloor([...Object.values(shown.memberAreas), ...Object.values(base.memberAreas)].map(conv), SAME_AREA_SHARE);
+    const change = (a: number, b: number) => (Math.abs(conv(a) - conv(b)) < floor ? 0 : conv(a) - conv(b));
     const deltas = new Map<string, number>();
     for (const [id, a] of Object.entries(shown.memberAreas)) {
       const b = base.memberAreas[id];
-      if (b !== undefined) deltas.set(id, conv(a) - conv(b));
+      if (b !== undefined) deltas.set(id, change(a, b));
     }
-    const limit = niceLimit(Math.max(0, ...[...deltas.values()].map(Math.abs)));
+    const largest = Math.max(0, ...[...deltas.values()].map(Math.abs));
+    const limit = largest > 0 ? niceLimit(largest) : 0;
     const colours: Record<string, string> = {};
     for (const [id, d] of deltas) colours[id] = changeColor(d, limit);
     const describe = (id: string) => {
@@ -65,7 +68,7 @@ export function CompareView({ comparison, q }: { comparison: Comparison; q: Quan
       if (a === undefined) return `not in run ${shown.letter}`;
       const inShown = `${formatNumber(conv(a))} ${areaUnit} in ${shown.letter}`;
       if (b === undefined) return `area ${inShown}; not in run ${base.letter}`;
-      const d = conv(a) - conv(b);
+      const d = change(a, b);
       const sign = d > 0 ? "+" : d < 0 ? MINUS : "";
       return `area ${inShown} against ${formatNumber(conv(b))} ${areaUnit} in ${base.letter}: ${sign}${formatNumber(Math.abs(d))} ${areaUnit} (${changeAgainst(b, a)})`;
     };

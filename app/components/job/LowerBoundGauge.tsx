@@ -2,7 +2,7 @@
 // proven lower bound (result field lowerBound) on a gauge, one line in words, and what the bound
 // assumes on request. A result without a bound says why.
 import type { TrussResult } from "~/engine/design/result-types";
-import { formatGap, gapLabel, gapSentence, GAUGE_TICKS, gaugePosition } from "~/lib/lower-bound-words";
+import { gapLabel, gapMagnitude, gapSentence, GAUGE_TICKS, gaugePosition } from "~/lib/lower-bound-words";
 import { formatPercent } from "~/lib/format";
 
 type WithBound = Pick<TrussResult, "lowerBound" | "lowerBoundWithheld" | "objective" | "units" | "verification" | "status">;
@@ -32,7 +32,7 @@ export function LowerBoundGauge({ result }: { result: WithBound }) {
       <div className="flex flex-wrap items-baseline justify-between gap-x-4">
         <h2 className="font-semibold">{title}</h2>
         <span className="font-mono text-lg" data-testid="lower-bound-gap">
-          {formatGap(lb.gap)} <span className="text-xs text-ink-muted">{gapLabel(lb)}</span>
+          {gapMagnitude(lb.gap)} <span className="text-xs text-ink-muted">{gapLabel(lb)}</span>
         </span>
       </div>
       <p className="mt-1 text-sm" data-testid="lower-bound-sentence">

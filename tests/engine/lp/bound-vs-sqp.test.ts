@@ -3,7 +3,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { optimizeModel } from "~/engine/design";
 import { attachLowerBound, loadHighsSolver, type LpSolver } from "~/engine/lp";
-import { gapLabel, gapSentence, leftOutWords } from "~/lib/lower-bound-words";
+import { gapLabel, gapMagnitude, gapSentence, leftOutWords } from "~/lib/lower-bound-words";
 import { fixture } from "../design/models";
 import { bracket } from "./models";
 
@@ -71,6 +71,9 @@ describe("limits the bound leaves out are named, and the gap is worded as expect
     expect(r.lowerBound!.leftOut).toBeUndefined();
     expect(gapSentence(r.lowerBound!, "mass", "lb", true)).not.toMatch(/leaves out/);
     expect(gapLabel(r.lowerBound!)).toBe("above the bound");
+    // a design breaking a limit can lie below the bound: said as such, not as a negative "above"
+    expect(gapLabel({ ...r.lowerBound!, gap: -0.9525 })).toBe("below the bound");
+    expect(gapMagnitude(-0.9525)).toBe("95.3 %");
   });
 
   it("buckling and displacement together are listed in words", () => {
