@@ -44,16 +44,17 @@ export function DeflectionSummaryPanel({ result, q }: { result: Head; q?: Quanti
               const over = g ? isOverLimit(g.ratio) : false;
               return (
                 <tr key={d.case} data-testid="deflection-row">
-                  <td>{caseWords(d.case, result)}</td>
+                  {/* on a phone the table scrolls in its box rather than squeezing a case name into five lines */}
+                  <td className="min-w-[11rem]">{caseWords(d.case, result)}</td>
                   {limited && (
                     <>
-                      <td>{g ? `node ${g.node}, ${g.axis}` : d.checked ? "–" : "not checked (strength)"}</td>
+                      <td className="whitespace-nowrap">{g ? `node ${g.node}, ${g.axis}` : d.checked ? "–" : "not checked (strength)"}</td>
                       <td className="num">{g ? fmt.number(g.value, "length") : "–"}</td>
                       <td className="num">{g ? fmt.number(g.limit, "length") : "–"}</td>
                       <td className={`num whitespace-nowrap ${over ? "font-semibold text-bad" : ""}`}>{g ? `${formatPercent(g.ratio)}${over ? " — over" : ""}` : "–"}</td>
                     </>
                   )}
-                  <td>{`node ${d.largest.node}, ${d.largest.axis}`}</td>
+                  <td className="whitespace-nowrap">{`node ${d.largest.node}, ${d.largest.axis}`}</td>
                   <td className="num">{fmt.number(d.largest.value, "length")}</td>
                 </tr>
               );
