@@ -71,6 +71,7 @@ describe("cases, CSV", () => {
     ]);
     expect(t.rows[0]!.slice(0, 8)).toEqual(["AC", "A", "C", "rafters", "CHS 88.9x4.0", 1067, 2500, 0.9]);
     expect(t.rows[0]!.at(-1)).toBe("ULS-1");
+    expect(t.rows[0]!.at(-2)).toBe("stress"); // the check's kind in words, its case in the last column (no "stress:ULS-1")
     expect(nodesCsv(result).header).toContain("uy_SLS-1_mm");
   });
 

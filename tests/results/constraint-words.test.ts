@@ -7,6 +7,7 @@ import {
   constraintKindWords,
   constraintQuantity,
   constraintWords,
+  governingCheckKind,
   governingCheckWords,
   parseConstraintId,
 } from "~/engine/design/constraint-words";
@@ -78,6 +79,7 @@ describe("constraint ids in plain words", () => {
     expect(governingCheckWords("stress:LC1")).toBe("stress under LC1");
     expect(governingCheckWords("buckling:G+S", roof)).toBe("buckling under Dead and snow (G+S)");
     expect(governingCheckWords(undefined)).toBe("");
+    expect(governingCheckKind("buckling:G+S")).toBe("buckling");
     expect(steppedByWords("stress:m5:LC1", roof)).toBe("stress limit of member m5 (nodes L3–U4) under Dead load (LC1)");
     expect(steppedByWords("lightest")).toBe("nothing: the lightest section within its bounds");
     expect(caseWords("LC1", roof)).toBe("Dead load (LC1)");

@@ -186,15 +186,20 @@ export function constraintQuantity(id: string): Quantity | null {
   }
 }
 
+/** The kind of a member's governing check ("stress:LC1" → "stress"), for the CSV beside its case column. */
+export function governingCheckKind(governing: string | undefined): string {
+  if (!governing) return "";
+  const colon = governing.indexOf(":");
+  return colon < 0 ? governing : governing.slice(0, colon);
+}
+
 /**
  * A member's governing check ("stress:LC1", "buckling:ULS-1", as ResultMember.governing holds
  * it) in words: "stress under Dead load (LC1)", "buckling under ULS-1".
  */
 export function governingCheckWords(governing: string | undefined, ctx?: ConstraintContext): string {
   if (!governing) return "";
-  const colon = governing.indexOf(":");
-  const kind = colon < 0 ? governing : governing.slice(0, colon);
-  const c = colon < 0 ? undefined : governing.slice(colon + 1);
-  const what = kind === "stress" ? "stress" : kind === "buckling" ? "buckling" : kind;
-  return `${what}${under(c, ctx)}`;
+  const kind = governingCheckKind(governing);
+  const c = kind.length < governing.length ? governing.slice(kind.length + 1) : undefined;
+  return `${kind}${under(c, ctx)}`;
 }

@@ -5,6 +5,7 @@ import type { TrussResult } from "~/engine/design/result-types";
 import { unitLabel } from "~/engine/truss/units";
 import type { Units } from "~/engine/truss/schema";
 import { governingCaseOf, resultCases } from "./cases";
+import { governingCheckKind } from "~/engine/design/constraint-words";
 
 export type CsvCell = string | number | boolean | null | undefined;
 export interface CsvTable {
@@ -64,7 +65,7 @@ export function membersCsv(result: TrussResult, topology?: TopologyLike): CsvTab
       ...(withK ? [m.bucklingFactor] : []),
       ...ids.flatMap((l) => [m.force[l], m.stress[l]]),
       m.utilization,
-      m.governing,
+      governingCheckKind(m.governing), // "stress" or "buckling"; the case is the next column
       governingCaseOf(m, ids),
     ];
   });
