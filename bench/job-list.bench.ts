@@ -1,6 +1,7 @@
 // Job-list benchmark (`npm run bench -- job-list`): what project membership costs the job list
 // (issue 14: no route more than 10% slower than before; the membership filter uses indexes).
-// A desk of 5,000 jobs in 50 projects, in its own temp database. In the same run:
+// A desk of 5,000 jobs in 50 projects, in its own temp database (most succeeded runs approved,
+// a tenth waiting for a checker). In the same run:
 // 1. the list query itself (listJobs, the shared 250 ms copy bypassed) as it was before
 //    membership (no filter; an admin's list is that same query) beside the same list for a
 //    member of all 50 projects (the same jobs: the whole difference is reading them through the
@@ -8,6 +9,7 @@
 //    9 jobs for each one it keeps; member_jobs holds only theirs), calls interleaved so the
 //    machine's load falls on every variant alike; the median call's CPU time is compared
 //    (wall time on a shared machine mostly measures the other processes), wall rate beside it;
+//    then the model and project lists (their filter is one membership probe per row);
 // 2. GET /api/jobs through its loader, one call at a time (API-key check, list, JSON text;
 //    the shared 250 ms copy cleared before each call): an admin (no filter, as before) beside
 //    the two members, compared the same way;
@@ -51,7 +53,7 @@ async function main() {
     const { db } = await import("~/db/client.server");
     const { migrateDb } = await import("~/db/migrate.server");
     await migrateDb(db());
-    const { projects, projectMembers, models, jobs, user } = await import("~/db/schema");
+    const { projects, projectMembers, models, jobs, reviews, user } = await import("~/db/schema");
     const { listJobs } = await import("~/lib/jobs/queue.server");
 
     // --- the desk: 50 projects with a model each, 5,000 jobs, newest spread over all projects
@@ -71,7 +73,10 @@ async function main() {
     const rows = [];
     for (let i = 0; i < JOBS; i++) {
       const p = (i * 7) % PROJECTS; // neighbours in time belong to different projects
-      rows.push({ id: randomUUID(), projectId: projectIds[p]!, modelId: modelIds[p]!, status: STATUSES[i % STATUSES.length]!, options: {}, createdAt: new Date(now - i * 1000) });
+      const status = STATUSES[i % STATUSES.length]!;
+      // a succeeded run is an optimum, or now and then infeasible (nothing for a checker to sign)
+      const outcome = status !== "succeeded" ? null : i % 5 === 0 ? ("infeasible" as const) : ("optimal" as const);
+      rows.push({ id: randomUUID(), projectId: projectIds[p]!, modelId: modelIds[p]!, status, outcome, options: {}, createdAt: new Date(now - i * 1000) });
     }
     for (let i = 0; i < rows.length; i += 250) await db().insert(jobs).values(rows.slice(i, i + 250));
 
@@ -84,6 +89,10 @@ async function main() {
     const memberOfAll = await account("Member of all", "viewer", projectIds);
     const memberOfFew = await account("Member of five", "viewer", projectIds.slice(0, 5));
     const admin = await account("Bench admin", "admin", []);
+    // checkers have approved nine optimal runs in ten: the rest wait for review
+    const signed = rows.filter((r, i) => r.outcome === "optimal" && i % 10 !== 3);
+    for (let i = 0; i < signed.length; i += 250)
+      await db().insert(reviews).values(signed.slice(i, i + 250).map((r) => ({ id: randomUUID(), jobId: r.id, reviewerId: admin.id, decision: "approved" as const, comment: "checked" })));
 
     // --- 1. the query, before and after ---------------------------------------------------
     const firstPage = await listJobs({ limit: 50 }, db(), { fresh: true });
@@ -93,6 +102,7 @@ async function main() {
       ["status=succeeded", { status: "succeeded" }],
       ["projectId=<one>&status=succeeded", { projectId: projectIds[0], status: "succeeded" }],
       ["second page (cursor)", { cursor: firstPage.nextCursor }],
+      ["review=waiting (the checkers' list)", { review: "waiting" }],
     ];
     const variants: [string, { id: string; role: string } | undefined][] = [
       ["before (no filter)", undefined],
@@ -110,6 +120,21 @@ async function main() {
         variants.map(([v, who]) => [v, () => listJobs({ ...shape, visibleTo: who }, db(), { fresh: true })]),
         (v) => `${String(rows.get(v)).padStart(3)} rows`,
       );
+    }
+
+    // --- 1b. the other lists a membership filters: models and projects (no paging: all of them)
+    const { listModels } = await import("~/lib/models.server");
+    const { listProjects } = await import("~/lib/auth/projects.server");
+    const lists: [string, (who: { id: string; role: string }) => Promise<unknown[]>][] = [
+      ["model list (all)", (who) => listModels({ visibleTo: who }, db())],
+      ["project list (all)", (who) => listProjects({ visibleTo: who }, db())],
+    ];
+    console.log(`the model and project lists (${PROJECTS} of each): an admin's list is the list as it was before membership; ${load()}`);
+    for (const [label, list] of lists) {
+      const counts = new Map<string, number>();
+      const who: [string, { id: string; role: string }][] = [["before (an admin: no filter)", admin], ["member of 50/50", memberOfAll], ["member of 5/50", memberOfFew]];
+      for (const [v, w] of who) counts.set(v, (await list(w)).length);
+      await compare(label, who.map(([v, w]) => [v, () => list(w)]), (v) => `${String(counts.get(v)).padStart(3)} rows`);
     }
 
     // --- 2. the route, in-process ---------------------------------------------------------

@@ -2,14 +2,14 @@
 // (app/db/tables/member-jobs.ts, kept by triggers). Two things must hold for that to change
 // nothing but the speed:
 // 1. the copy is exactly the join it stands for, after every kind of write: a job added,
-//    its status changed, it moved or deleted; a member added, moved or removed;
+//    its status or outcome changed, it moved or deleted; a member added, moved or removed;
 // 2. a member's list, in every shape the pages and the API ask for (status, several
 //    statuses, submitter, review state, cursor paging), is the unfiltered list with the
 //    other projects' jobs taken out, in the same order (newest first, ties by id).
 // The reference for 2 is computed here from the admin's list and the membership rows, not
 // from the list code under test.
 import { randomUUID } from "node:crypto";
-import { and, eq, sql } from "drizzle-orm";
+import { and, desc, eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeJob, makeUser, setup } from "./helpers";
 
@@ -22,9 +22,9 @@ const otherProjects: string[] = [];
 
 /** member_jobs as it is, and the join it must equal; both in one order. */
 async function copyAndJoin() {
-  const copy = await ctx.db.all<Record<string, unknown>>(sql`select user_id, job_id, project_id, status, created_at from member_jobs order by user_id, job_id`);
+  const copy = await ctx.db.all<Record<string, unknown>>(sql`select user_id, job_id, project_id, status, outcome, created_at from member_jobs order by user_id, job_id`);
   const join = await ctx.db.all<Record<string, unknown>>(
-    sql`select m.user_id, j.id as job_id, j.project_id, j.status, j.created_at from project_members m join jobs j on j.project_id = m.project_id order by m.user_id, j.id`,
+    sql`select m.user_id, j.id as job_id, j.project_id, j.status, j.outcome, j.created_at from project_members m join jobs j on j.project_id = m.project_id order by m.user_id, j.id`,
   );
   return { copy, join };
 }
@@ -51,6 +51,8 @@ beforeAll(async () => {
         modelId,
         submittedBy: i % 3 === 0 ? viewer.id : engineer.id,
         status: statuses[(i + p) % statuses.length]!,
+        // succeeded runs: optima a checker signs, and now and then an infeasible one (no review)
+        outcome: statuses[(i + p) % statuses.length] === "succeeded" ? (i % 4 === 3 ? "infeasible" : "optimal") : null,
         options: {},
         createdAt: new Date(at + Math.floor((p * 7 + i) / 4) * 1000),
       });
@@ -58,6 +60,19 @@ beforeAll(async () => {
   }
 });
 afterAll(async () => ctx?.services.stop());
+
+/** A checker's decision on the newest optimal run of each of the viewer's projects that has two
+ * or more (approved and changes requested in turn); the other runs keep waiting. */
+async function decideSome() {
+  const { jobs, reviews } = await import("~/db/schema");
+  let decided = 0;
+  for (const projectId of projectsOfViewer) {
+    const runs = await ctx.db.select().from(jobs).where(and(eq(jobs.projectId, projectId), eq(jobs.outcome, "optimal"))).orderBy(desc(jobs.createdAt));
+    if (runs.length < 2) continue;
+    await ctx.db.insert(reviews).values({ id: randomUUID(), jobId: runs[0]!.id, reviewerId: engineer.id, decision: decided++ % 2 === 0 ? "approved" : "changes-requested", comment: "checked" });
+  }
+  expect(decided).toBeGreaterThanOrEqual(2);
+}
 
 describe("member_jobs, the member's own job rows", () => {
   it("holds exactly project_members × jobs after every kind of write", async () => {
@@ -71,6 +86,10 @@ describe("member_jobs, the member's own job rows", () => {
     const [job] = await ctx.db.select().from(jobs).where(eq(jobs.projectId, projectsOfViewer[0]!)).limit(1);
     await ctx.db.update(jobs).set({ status: "running", startedAt: new Date() }).where(eq(jobs.id, job!.id));
     await check("a status change");
+    await ctx.db.update(jobs).set({ status: "succeeded", outcome: "not-converged", finishedAt: new Date() }).where(eq(jobs.id, job!.id));
+    await check("a run finished (status and outcome)");
+    await ctx.db.update(jobs).set({ outcome: "optimal" }).where(eq(jobs.id, job!.id));
+    await check("an outcome changed alone");
     await ctx.db.update(jobs).set({ progressIteration: 3 }).where(eq(jobs.id, job!.id));
     await check("a progress write (no listed column)");
     await ctx.db.update(jobs).set({ createdAt: new Date(job!.createdAt.getTime() + 1) }).where(eq(jobs.id, job!.id));
@@ -91,6 +110,7 @@ describe("member_jobs, the member's own job rows", () => {
   it("gives a member the unfiltered list without the other projects' jobs, in every shape", async () => {
     const { listJobs } = await import("~/lib/jobs/queue.server");
     const { projectMembers } = await import("~/db/schema");
+    await decideSome();
     const mine = new Set((await ctx.db.select().from(projectMembers).where(eq(projectMembers.userId, viewer.id))).map((m) => m.projectId));
     expect(mine.size).toBe(3);
     const shapes = [
@@ -100,12 +120,15 @@ describe("member_jobs, the member's own job rows", () => {
       { submittedBy: viewer.id },
       { review: "waiting" as const },
       { review: "no-review" as const },
+      { review: "approved" as const },
+      { review: "changes-requested" as const },
     ];
     for (const shape of shapes) {
       const all = (await listJobs({ ...shape, limit: 200, visibleTo: admin }, ctx.db, { fresh: true })).jobs;
       const expected = all.filter((j) => mine.has(j.projectId)).map((j) => j.id);
       const whole = (await listJobs({ ...shape, limit: 200, visibleTo: viewer }, ctx.db, { fresh: true })).jobs.map((j) => j.id);
       expect(whole, JSON.stringify(shape)).toEqual(expected);
+      expect(expected.length, `${JSON.stringify(shape)} has jobs of the member's to list`).toBeGreaterThan(0);
       // page by page, three at a time, through the cursor
       const paged: string[] = [];
       let cursor: string | null | undefined;

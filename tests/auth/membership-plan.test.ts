@@ -30,9 +30,10 @@ beforeAll(async () => {
 afterAll(async () => ctx?.services.stop());
 
 const MEMBERSHIP_BY_INDEX = /^SEARCH project_members USING (COVERING INDEX|PRIMARY KEY|INDEX) /;
-// the member's own rows: on the primary key (user, created_at, job) or the (user, status, …) index
+// the member's own rows: on the primary key (user, created_at, job) or the (user, status, …)
+// index, which also holds the outcome that "review waiting" judges a run by
 const MEMBER_ROWS_BY_INDEX = /^SEARCH member_jobs USING (COVERING INDEX|PRIMARY KEY|INDEX) \S+ \(user_id=\?( AND status=\?)?\)$/;
-const JOB_BY_KEY = /^SEARCH jobs USING INDEX sqlite_autoindex_jobs_1 \(id=\?\)$/;
+const JOB_BY_KEY = /^SEARCH jobs USING INDEX (sqlite_autoindex_jobs_1 \(id=\?\)|jobs_created_id_idx \(created_at=\? AND id=\?\))$/;
 
 /** Plan lines that read project_members other than by an index. */
 function membershipNotByIndex(plan: string[]): string[] {
@@ -53,9 +54,10 @@ describe("membership filters use indexes", () => {
     for (const shape of shapes) {
       const plan = (await jobListPlan(ctx.db, { ...shape, visibleTo: member })).map((l) => l.trim());
       const text = `${JSON.stringify(shape)}\n${plan.join("\n")}`;
-      // first the member's own rows on an index, then each one's job by its key
+      // first the member's own rows on an index, then each one's job by its key (a review
+      // state's subquery on reviews may come between: it is judged from the member's row)
       expect(plan[0], text).toMatch(MEMBER_ROWS_BY_INDEX);
-      expect(plan[1], text).toMatch(JOB_BY_KEY);
+      expect(plan.find((l) => /^(SEARCH|SCAN) jobs\b/.test(l)), text).toMatch(JOB_BY_KEY);
       expect(plan.filter((l) => /^SCAN (jobs|member_jobs|project_members)\b/.test(l)), text).toEqual([]);
       // project_members is not read at all: member_jobs already holds only the member's jobs
       expect(plan.filter((l) => /\bproject_members\b/.test(l)), text).toEqual([]);

@@ -173,8 +173,8 @@ describe("the membership migrations on a copy of the demo desk", () => {
 
 /** How far member_jobs is from the join it copies (project_members × jobs), and its size. */
 async function memberJobsMismatch(client: Client): Promise<{ missing: number; extra: number; rows: number }> {
-  const join = "select m.user_id, j.id, j.project_id, j.status, j.created_at from project_members m join jobs j on j.project_id = m.project_id";
-  const copy = "select user_id, job_id, project_id, status, created_at from member_jobs";
+  const join = "select m.user_id, j.id, j.project_id, j.status, j.outcome, j.created_at from project_members m join jobs j on j.project_id = m.project_id";
+  const copy = "select user_id, job_id, project_id, status, outcome, created_at from member_jobs";
   const n = async (q: string) => Number((await client.execute(`select count(*) as n from (${q})`)).rows[0]!.n);
   return { missing: await n(`${join} except ${copy}`), extra: await n(`${copy} except ${join}`), rows: await n(copy) };
 }

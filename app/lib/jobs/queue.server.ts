@@ -277,7 +277,7 @@ async function readJobPage(filter: ListJobsFilter, database: Db): Promise<JobPag
   if (filter.modelId) where.push(eq(jobs.modelId, filter.modelId));
   if (filter.submittedBy) where.push(eq(jobs.submittedBy, filter.submittedBy));
   if (source.scope) where.push(source.scope);
-  if (filter.review) where.push(reviewStateCondition(filter.review));
+  if (filter.review) where.push(reviewStateCondition(filter.review, source));
   if (filter.cursor) {
     const c = decodeCursor(filter.cursor);
     if (!c) throw jsonError(400, "The cursor is not one this server handed out", [{ path: "cursor", message: "unreadable cursor" }]);
