@@ -73,6 +73,8 @@ describe("result panels (server render)", () => {
   it("falls back to plain words built from the constraint id without shadow prices", () => {
     const html = renderToString(createElement(GoverningConstraints, { result: { ...result, shadowPrices: undefined } }));
     expect(html).toContain("stress limit of member AC (nodes A–C) under Hoist at apex (LC1)");
+    // the unit is spelled from the id and the model's units, stress in MPa for N and mm
+    expect(html.replace(/<!-- -->/g, "")).toContain("9.80e-6 t per MPa");
   });
 
   it("says what happened and what to try for a run that found no feasible design", () => {

@@ -4,8 +4,9 @@ import type { TrussResult } from "~/engine/design/result-types";
 import { formatResidual } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
 import { constraintWords } from "~/engine/design/constraint-words";
+import { shadowPriceUnit } from "~/lib/results/criterion-words";
 
-type WithLimits = Pick<TrussResult, "shadowPrices" | "activeConstraints" | "objective"> & Partial<Pick<TrussResult, "loadCases" | "combinations" | "members">>;
+type WithLimits = Pick<TrussResult, "shadowPrices" | "activeConstraints" | "objective"> & Partial<Pick<TrussResult, "units">> & Partial<Pick<TrussResult, "loadCases" | "combinations" | "members">>;
 
 /** `total`: how many active limits the whole result has, when `result` carries only the first ones. */
 export function GoverningConstraints({ result, limit = 12, total }: { result: WithLimits; limit?: number; total?: number }) {
@@ -14,14 +15,14 @@ export function GoverningConstraints({ result, limit = 12, total }: { result: Wi
       ? result.shadowPrices.map((p) => ({
           id: p.constraint,
           multiplier: p.multiplier,
-          unit: p.unit,
+          unit: result.units ? shadowPriceUnit(p.constraint, { objective: result.objective, units: result.units }) : p.unit,
           sentence: p.sentence || `Relaxing the ${constraintWords(p.constraint, result)} by one unit would change the ${result.objective.kind} by about ${formatResidual(p.multiplier)} ${p.unit}.`,
         }))
       : result.activeConstraints.map((a) => ({
           id: a.id,
           multiplier: a.multiplier,
-          unit: "",
-          sentence: `Relaxing the ${constraintWords(a.id, result)} by one unit would change the ${result.objective.kind} by about ${formatResidual(a.multiplier)}.`,
+          unit: result.units ? shadowPriceUnit(a.id, { objective: result.objective, units: result.units }) : "",
+          sentence: `Relaxing the ${constraintWords(a.id, result)} by one unit would change the ${result.objective.kind} by about ${formatResidual(a.multiplier)}${result.units ? ` ${shadowPriceUnit(a.id, { objective: result.objective, units: result.units })}` : ""}.`,
         }));
   // shadow prices come ranked by the engine on a unit-free scale; raw multipliers of different
   // units cannot be compared, so only the fallback list is ordered here

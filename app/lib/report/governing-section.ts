@@ -6,8 +6,8 @@ import type { ShadowPrice, TrussResult } from "~/engine/design/result-types";
 import { areaBoundsRule } from "~/engine/design/problem";
 import { formatNumber, formatPercent, quantityFormatter } from "~/lib/format";
 import { caseWords } from "~/lib/results/cases";
-import { constraintQuantity, constraintWords } from "~/engine/design/constraint-words";
-import { bindingCriteria, idleCriteria, idleCriteriaSentence, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
+import { constraintWords } from "~/engine/design/constraint-words";
+import { shadowPriceUnit, bindingCriteria, idleCriteria, idleCriteriaSentence, criterionName, criterionSentence, criterionValue, placesWords, savingText, shareText } from "~/lib/results/criterion-words";
 import { isOverLimit } from "~/lib/utilization-scale";
 import type { ReportWriter } from "./layout";
 import { BAD, INK_MUTED } from "./palette";
@@ -15,19 +15,12 @@ import type { ReportData } from "./report-data";
 import { table } from "./tables";
 import { objectiveUnit } from "./units";
 
-/** The unit of a shadow price: the objective's per the limit's quantity ("t per MPa"). */
-function priceUnit(id: string, r: TrussResult): string {
-  const q = quantityFormatter(r.units);
-  const quantity = constraintQuantity(id);
-  return `${objectiveUnit(r.objective.kind, r.units)} per ${quantity ? q.unit(quantity) : "unit"}`;
-}
-
 /** The result's own shadow prices, or ones worded here from the active constraints. */
 export function shadowPrices(r: TrussResult): ShadowPrice[] {
   if (r.shadowPrices?.length) return r.shadowPrices;
   const obj = objectiveUnit(r.objective.kind, r.units);
   return r.activeConstraints.map((a) => {
-    const unit = priceUnit(a.id, r);
+    const unit = shadowPriceUnit(a.id, r);
     const what = `the ${constraintWords(a.id, r)}`;
     return {
       constraint: a.id,
@@ -70,7 +63,7 @@ export function governingLimits(w: ReportWriter, r: TrussResult) {
       { header: "Unit", weight: 2.2 },
     ],
     // the unit is spelled here, not taken from the stored price, so older results read as new ones
-    limits.map((p) => [constraintWords(p.constraint, r), formatNumber(p.multiplier, { sig: 3 }), priceUnit(p.constraint, r)]),
+    limits.map((p) => [constraintWords(p.constraint, r), formatNumber(p.multiplier, { sig: 3 }), shadowPriceUnit(p.constraint, r)]),
   );
 }
 

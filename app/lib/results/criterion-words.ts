@@ -5,6 +5,7 @@ import type { CriterionCost, CriterionPlace, DeflectionSummary, TrussResult } fr
 import { formatNumber, formatPercent, quantityFormatter, type QuantityFormatter } from "~/lib/format";
 import type { Quantity } from "~/engine/truss/units";
 import { caseWords } from "./cases";
+import { constraintQuantity } from "~/engine/design/constraint-words";
 
 type Facts = Pick<TrussResult, "objective" | "units" | "loadCases" | "combinations"> & { members?: TrussResult["members"] };
 
@@ -189,4 +190,14 @@ export function deflectionSentence(d: DeflectionSummary, r: Facts, q?: QuantityF
     return `${name}: ${displacementWords(g, r, q)}, ${formatPercent(g.ratio)} of its ${fmtOf(r, q).text(g.limit, "length")} limit${over ? " — over the limit" : ""}.`;
   }
   return `${name}: largest ${displacementWords(d.largest, r, q)}${d.checked ? "" : " (no deflection limit applies to it)"}.`;
+}
+
+/**
+ * The unit of a limit's shadow price in the model's units, "t per MPa": spelled here rather than
+ * read from the stored price, so a result stored before the unit spelling settled reads as a new one.
+ */
+export function shadowPriceUnit(id: string, r: Pick<TrussResult, "objective" | "units">): string {
+  const q = quantityFormatter(r.units);
+  const quantity = constraintQuantity(id);
+  return `${q.unit(r.objective.kind === "mass" ? "mass" : "compliance")} per ${quantity ? q.unit(quantity) : "unit"}`;
 }
