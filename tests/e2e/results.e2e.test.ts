@@ -186,7 +186,7 @@ describe("results read at a glance (issue 16)", () => {
     await page.close();
   });
 
-  it("(c) every table header over numbers carries its unit, or is a count or a ratio", async () => {
+  it("(c) every table header over numbers carries its unit, or is a count or a ratio (job, model, list, project, desk)", async () => {
     const page = await pageAs("engineer");
     const found: { where: string; table: string; header: string; sample: string }[] = [];
     await openJob(page, ids.optimal);
@@ -198,6 +198,11 @@ describe("results read at a glance (issue 16)", () => {
     await page.goto(`${app.baseUrl}/jobs?projectId=${ids.project}`);
     await page.getByTestId("job-row").first().waitFor({ timeout: 20_000 });
     found.push(...(await numericHeaders(page)).map((h) => ({ where: "job list", ...h })));
+    for (const [where, url] of [["project page", `/projects/${ids.project}`], ["desk", "/"]]) {
+      await page.goto(`${app.baseUrl}${url}`);
+      await page.waitForTimeout(1500);
+      found.push(...(await numericHeaders(page)).map((h) => ({ where: where!, ...h })));
+    }
     // the pages must have shown numbers at all, or the rule below checks nothing
     expect(found.filter((f) => f.where === "job page").length).toBeGreaterThan(8);
     expect(found.filter((f) => f.where === "model page").length).toBeGreaterThan(3);
