@@ -13,7 +13,7 @@ import { analyze, type Analysis } from "../truss";
 import type { SqpProblem } from "../sqp";
 import { adjointProduct, memberLengths } from "./element";
 import { Partials, limitPartials, limitValue, massPartials, objectiveValue, toDesign, type LimitState } from "./limits";
-import { designState, type DesignProblem } from "./problem";
+import { designState, type DesignProblem, type Limit } from "./problem";
 import { addOwnWeightGradient } from "./own-weight";
 import { responseSelfWeight } from "../truss";
 
@@ -90,6 +90,10 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
     }
   }
 
+  /** Limits with one key share one adjoint right-hand side up to a factor (the tension and compression limits of a member, +-u of a dof). */
+  const nDof = s.coords.length;
+  const adjointKey = (lim: Limit) => ((lim.loadCase + 1) * (m + 1) + lim.member + 1) * (nDof + 1) + lim.dof + 1;
+
   /**
    * Where this evaluation's adjoint vectors come from. Each distinct right-hand side costs one
    * solve; but a right-hand side touches a few dofs (a stress limit the 4 or 6 of its member's
@@ -99,13 +103,13 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
    * ask for thousands of rows over a few hundred dofs). Same vectors either way, to rounding.
    */
   function adjointSource(st: NestedState, rows: Int32Array) {
-    const keys = new Set<string>();
+    const keys = new Set<number>();
     const dofs = new Set<number>();
     for (let k = 0; k < rows.length; k++) {
       const lim = p.limits[rows[k]];
       limitPartials(p, lim, st, part);
       if (part.uIdx.length === 0) continue;
-      keys.add(`${lim.loadCase}|${lim.member}|${lim.dof}`);
+      keys.add(adjointKey(lim));
       for (const dof of part.uIdx) if (!s.fixed[dof]) dofs.add(dof);
     }
     const byColumns = dofs.size < keys.size;
@@ -176,7 +180,7 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
         if (!c) coefficientsByCase.set(loadCase, (c = areaAdjointCoefficients(p, state, state.displacements[loadCase])));
         return c;
       };
-      const lambdaCache = new Map<string, { lambda: Float64Array; ref: number }>();
+      const lambdaCache = new Map<number, { lambda: Float64Array; ref: number }>();
       const rhs = new Float64Array(s.coords.length);
       const adjoints = adjointSource(st, rows);
       for (let k = 0; k < rows.length; k++) {
@@ -185,7 +189,7 @@ export function nestedFormulation(p: DesignProblem): NestedFormulation {
         limitPartials(p, lim, st, part);
         toDesign(p, part, row);
         if (part.uIdx.length > 0) {
-          const key = `${lim.loadCase}|${lim.member}|${lim.dof}`;
+          const key = adjointKey(lim);
           let entry = lambdaCache.get(key);
           if (!entry) {
             entry = { lambda: adjoints.lambda(part.uIdx, part.uVal, rhs), ref: part.uVal[0] };
