@@ -13,7 +13,9 @@ import {
   logAxis,
   MINUS,
   noiseFloor,
+  plottedViolation,
   quantityFormatter,
+  VIOLATION_MET,
   withUnit,
 } from "~/lib/format";
 
@@ -138,6 +140,14 @@ describe("axis ticks (d3-scale)", () => {
     expect(s(1e-15)).toBeCloseTo(100, 9);
     expect(s.label(1e-6)).toBe(`1e${MINUS}6`);
     expect(s.label(1)).toBe("1");
+  });
+  it("draws a converged run's violations on the met level, so its line never climbs at the end", () => {
+    // the last steps of a run that met every limit: rounding wanders between 1e-12 and 3e-8
+    const tail = [2.4e-2, 3.1e-4, 8.0e-7, 1e-12, 4.1e-9, 3.2e-8].map(plottedViolation);
+    expect(tail.slice(3)).toEqual([VIOLATION_MET, VIOLATION_MET, VIOLATION_MET]);
+    for (let k = 1; k < tail.length; k++) expect(tail[k]!).toBeLessThanOrEqual(tail[k - 1]!);
+    // a broken limit is drawn where it is
+    expect(plottedViolation(0.013)).toBe(0.013);
   });
 });
 

@@ -3,7 +3,7 @@
 // fall by decades as the solver converges). The numbers are also in a table for screen
 // readers and for copying.
 import { useEffect, useRef, useState } from "react";
-import { formatNumber, formatResidual, linearAxis, logAxis, VIOLATION_FLOOR } from "~/lib/format";
+import { formatNumber, formatResidual, linearAxis, logAxis, plottedViolation, VIOLATION_FLOOR, VIOLATION_MET } from "~/lib/format";
 import { EmptyState } from "~/components/ui/States";
 import { maxOf, minOf } from "~/engine/util/extent";
 
@@ -51,13 +51,22 @@ export function ConvergencePlot({
   const top: [number, number] = [M.top + PANEL_H, M.top];
   const bottom: [number, number] = [M.top + 2 * PANEL_H + GAP, M.top + PANEL_H + GAP];
   const yObj = linearAxis(history.map((h) => h.objective ?? NaN), top, { count: 4 });
-  // a violation below the floor is a limit met within rounding: drawn on the floor line, so a
-  // converged run's line does not seem to climb from 1e-15 to 1e-12 at the end
-  const yLog = logAxis(history.flatMap((h) => [h.maxViolation ?? NaN, h.kktResidual ?? NaN]), bottom, { floor: VIOLATION_FLOOR });
+  // the log axis reaches down to the KKT residual (floored against rounding noise); violations
+  // are drawn no lower than the "met" level (plottedViolation), so a converged run's line stays
+  // flat there instead of seeming to climb in its last steps
+  const yLog = logAxis(history.flatMap((h) => [plottedViolation(h.maxViolation ?? NaN), h.kktResidual ?? NaN]), bottom, { floor: VIOLATION_FLOOR });
   const height = bottom[0] + M.bottom;
   const series = [
     { key: "objective", label: objectiveLabel, cls: "stroke-ink", dot: "fill-ink", y: yObj, pick: (h: ConvergencePoint) => h.objective, dash: undefined },
-    { key: "maxViolation", label: "max violation", cls: "stroke-compression", dot: "fill-compression", y: yLog, pick: (h: ConvergencePoint) => h.maxViolation, dash: undefined },
+    {
+      key: "maxViolation",
+      label: `largest violation (at ${formatResidual(VIOLATION_MET)} or below: every limit met)`,
+      cls: "stroke-compression",
+      dot: "fill-compression",
+      y: yLog,
+      pick: (h: ConvergencePoint) => (h.maxViolation == null || !Number.isFinite(h.maxViolation) ? h.maxViolation : plottedViolation(h.maxViolation)),
+      dash: undefined,
+    },
     { key: "kktResidual", label: "KKT residual", cls: "stroke-info", dot: "fill-info", y: yLog, pick: (h: ConvergencePoint) => h.kktResidual, dash: "5 3" },
   ];
   const last = history[history.length - 1]!;

@@ -1,7 +1,7 @@
 // The convergence plot as vector graphics: the objective on a linear axis (left), the KKT
 // residual and the largest constraint violation on a log axis (right), against iteration.
 import type { HistoryEntry } from "~/engine/design/result-types";
-import { linearAxis, logAxis, VIOLATION_FLOOR } from "~/lib/format";
+import { formatResidual, linearAxis, logAxis, plottedViolation, VIOLATION_FLOOR, VIOLATION_MET } from "~/lib/format";
 import type { ReportWriter } from "./layout";
 import { BAD, BRASS_STRONG, INK, INK_MUTED, RULE } from "./palette";
 import { maxOf, minOf } from "~/engine/util/extent";
@@ -23,8 +23,8 @@ export function convergencePlot(w: ReportWriter, history: HistoryEntry[], object
   const xMax = Math.max(xMin + 1, maxOf(iters));
   const X = linearAxis([xMin, xMax], [box.x, box.x + box.w], { count: 8, integer: true });
   const Y = linearAxis(pts.map((p) => p.objective), [box.y + box.h, box.y]);
-  // violations below the floor are limits met within tolerance: drawn on the floor, not at 1e-15
-  const L = logAxis(pts.flatMap((p) => [p.kktResidual, p.maxViolation]), [box.y + box.h, box.y], { floor: VIOLATION_FLOOR, maxTicks: 8 });
+  // the axis is floored against rounding noise; violations no lower than the "met" level
+  const L = logAxis(pts.flatMap((p) => [p.kktResidual, plottedViolation(p.maxViolation)]), [box.y + box.h, box.y], { floor: VIOLATION_FLOOR, maxTicks: 8 });
   const yT = Y.ticks;
 
   // grid and axes
@@ -63,7 +63,7 @@ export function convergencePlot(w: ReportWriter, history: HistoryEntry[], object
   const logY = (v: number) => (!Number.isFinite(v) ? null : L(Math.max(v, L.domain[0])));
   series(pts.map((p) => (Number.isFinite(p.objective) ? Y(p.objective) : null)), INK, null, 1.4);
   series(pts.map((p) => logY(p.kktResidual)), BRASS_STRONG, [3, 2], 1);
-  series(pts.map((p) => logY(p.maxViolation)), BAD, [1, 1.5], 1);
+  series(pts.map((p) => logY(plottedViolation(p.maxViolation))), BAD, [1, 1.5], 1);
 
   // legend
   const ly = box.y + box.h + 27;
@@ -77,6 +77,6 @@ export function convergencePlot(w: ReportWriter, history: HistoryEntry[], object
   };
   item(INK, null, `${objectiveLabel} (left axis)`);
   item(BRASS_STRONG, [3, 2], "KKT residual (right axis)");
-  item(BAD, [1, 1.5], `largest violation (right axis; at most ${L.label(VIOLATION_FLOOR)} means every limit met)`);
+  item(BAD, [1, 1.5], `largest violation (right axis; at ${formatResidual(VIOLATION_MET)} or below: every limit met)`);
   w.y = top + height + 8;
 }
