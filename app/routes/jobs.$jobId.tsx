@@ -334,9 +334,9 @@ export default function JobPage({ loaderData }: Route.ComponentProps) {
               <Stat label={`volume (${q?.unit("volume")})`} value={q?.number(head.volume, "volume")} />
               {head.mass !== undefined && <Stat label={`mass (${q?.unit("mass")})`} value={q?.number(head.mass, "mass")} />}
               <Stat label="max utilization" value={formatPercent(head.maxUtilization)} />
-              {head.formulation && <Stat label="formulation" value={formulationWords(head.formulation)} wrap />}
+              {head.formulation && <Stat label="formulation" value={formulationWords(head.formulation)} wrap words />}
               {head.verification && (
-                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : countOf(head.verification.failures.length, "limit exceeded", "limits exceeded")} hint={`equilibrium residual ${formatResidual(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
+                <Stat label="independent check" value={head.verification.allLimitsMet ? "all limits met" : countOf(head.verification.failures.length, "limit exceeded", "limits exceeded")} words hint={`equilibrium residual ${formatResidual(head.verification.equilibriumResidual)}, ${head.verification.checked} checks`} />
               )}
               {head.solver && <Stat label="solver" value={`${head.solver.name} ${head.solver.version}`} wrap />}
             </dl>

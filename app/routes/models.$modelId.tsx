@@ -277,8 +277,8 @@ export default function ModelPage({ loaderData, actionData }: Route.ComponentPro
         <h2 className="mb-3 font-semibold">Design problem</h2>
         {file?.design ? (
           <dl className="grid grid-cols-2 gap-x-6 gap-y-3 text-sm sm:grid-cols-4">
-            <Stat label="objective" value={`minimum ${file.design.objective}`} />
-            <Stat label="formulation" value={formulationWords(file.design.formulation)} wrap />
+            <Stat label="objective" value={`minimum ${file.design.objective}`} words />
+            <Stat label="formulation" value={formulationWords(file.design.formulation)} wrap words />
             <Stat label="area groups" value={file.design.groups} />
             <Stat label="shape variables" value={file.design.shape.length} />
             <Stat label="limits" value={file.design.limits.join(", ") || "none"} wrap />

@@ -56,12 +56,13 @@ export function IssueList({ title, issues, tone = "bad" }: { title: string; issu
   );
 }
 
-export function Stat({ label, value, hint, wrap = false }: { label: string; value: ReactNode; hint?: string; wrap?: boolean }) {
+/** One summary figure. `words`: the value is a phrase ("all limits met"), set as text, not as a figure. */
+export function Stat({ label, value, hint, wrap = false, words = false }: { label: string; value: ReactNode; hint?: string; wrap?: boolean; words?: boolean }) {
   return (
     <div className={wrap ? "col-span-2 min-w-0" : "min-w-0"}>
       <dt className="text-xs font-semibold text-ink-muted">{label}</dt>
       {/* a figure wraps rather than being cut off: "1 limit exceeded" must read whole */}
-      <dd className="num mt-0.5 break-words text-left text-lg text-ink" title={hint}>
+      <dd className={`${words ? "text-base" : "num text-lg"} mt-0.5 break-words text-left text-ink`} title={hint}>
         {value}
       </dd>
     </div>
