@@ -52,7 +52,8 @@ console.log(
   "Whole process, spawn to exit, on both sides.\n" +
     "  ours:  node scripts/run-tool.mjs optimize model.truss.json (what `npm run optimize` runs): reads and checks the\n" +
     "         model, solves the least-mass LP (HiGHS) for a start and the lower bound, runs the starts (default 6 up to\n" +
-    "         300 design variables, in solver threads from 150 members, else 1), re-analyses, writes the result JSON.\n" +
+    "         300 design variables, in solver threads from 150 members, else 1; 1 for least compliance under a volume\n" +
+    "         limit alone, which is convex), re-analyses, writes the result JSON.\n" +
     "  scipy: python3 tests/python/slsqp_truss.py: imports numpy and scipy, one SLSQP run from the model's own areas\n" +
     "         with analytic gradients; no LP, no re-analysis.\n" +
     "  ratio = ours/scipy process time (below 1: ours is faster); the verdict is on it. 'cpu' is each process's CPU time\n" +

@@ -41,9 +41,20 @@ export interface StartDesign {
   z: Float64Array;
 }
 
-/** How many starts a run makes: the option when given, else the default by model size. */
+/**
+ * Least compliance over the member areas alone, under a volume limit and area bounds, with loads
+ * that do not depend on the areas (no own weight): f' K(A)^-1 f is convex in A when K is linear in
+ * A, and the limits are linear, so every local optimum is the global one (from memory: Svanberg
+ * 1984; Ben-Tal and Bendsoe 1993). More starts could only reach the same design again.
+ */
+export function convexInAreas(p: DesignProblem): boolean {
+  return p.objective === "compliance" && p.shapeVars.length === 0 && !p.structure.hasSelfWeight && p.limits.every((l) => l.kind === "volume");
+}
+
+/** How many starts a run makes: the option when given, else the default by model size and kind. */
 export function startCount(design: DesignProblem, options: OptimizeOptions): number {
   if (options.starts !== undefined) return Math.max(1, Math.min(MAX_STARTS, Math.floor(options.starts)));
+  if (convexInAreas(design)) return 1;
   return design.nDesign <= MULTI_START_MAX_VARIABLES ? DEFAULT_STARTS : 1;
 }
 
