@@ -182,6 +182,9 @@ describe("the outbox", () => {
     try {
       await rows.insertJob({ jobId: "job-down-008", submittedBy: "u-chk-self" });
       await send((tx) => notify.queueReviewWaitingMails(tx, "job-down-008"));
+      // the retry is due 1 ms after each failure: a second pass in the same millisecond as the
+      // last failure would find that mail not yet due
+      await new Promise((r) => setTimeout(r, 5));
       await sender.deliverDue();
     } finally {
       (t as { sendMail: unknown }).sendMail = orig;
