@@ -24,44 +24,33 @@ export function isBusyFailure(error: unknown): boolean {
   return (typeof code === "string" && busyCodes.test(code)) || (typeof extendedCode === "string" && busyCodes.test(extendedCode));
 }
 
+/** Calls that reach the database, on a client and on its transactions. */
+const DATABASE_CALLS = new Set<PropertyKey>(["execute", "batch", "executeMultiple", "migrate"]);
+
+type AnyCall = (...args: unknown[]) => unknown;
+
 /** Wraps `client` so that a busy failure in any call, or in any of its transactions, drops the pool. */
 export function recoverFromBusy(client: Client): Client {
-  const dropConnections = () => {
-    // reconnect() closes every pooled connection synchronously and reopens the pool
-    void client.reconnect();
-  };
   const guard = async <T>(work: () => Promise<T>): Promise<T> => {
     try {
       return await work();
     } catch (error) {
-      if (isBusyFailure(error)) dropConnections();
+      // reconnect() closes every pooled connection synchronously and reopens the pool
+      if (isBusyFailure(error)) void client.reconnect();
       throw error;
     }
   };
-  const guardTransaction = (tx: Transaction): Transaction =>
-    new Proxy(tx, {
-      get(target, key) {
-        const value = Reflect.get(target, key, target);
+  // one proxy shape for the client and its transactions (a transaction has no `transaction`)
+  const guarded = <T extends Client | Transaction>(target: T): T =>
+    new Proxy(target, {
+      get(t, key) {
+        const value = Reflect.get(t, key, t);
         if (typeof value !== "function") return value;
-        if (key === "execute" || key === "batch" || key === "executeMultiple") {
-          return (...args: unknown[]) => guard(() => (value as (...a: unknown[]) => Promise<unknown>).apply(target, args));
-        }
-        return (value as (...a: unknown[]) => unknown).bind(target);
+        const call = (...args: unknown[]) => (value as AnyCall).apply(t, args);
+        if (key === "transaction") return async (...args: unknown[]) => guarded(await guard(() => call(...args) as Promise<Transaction>));
+        if (DATABASE_CALLS.has(key)) return (...args: unknown[]) => guard(() => call(...args) as Promise<unknown>);
+        return call;
       },
     });
-
-  return new Proxy(client, {
-    get(target, key) {
-      const value = Reflect.get(target, key, target);
-      if (typeof value !== "function") return value;
-      if (key === "execute" || key === "batch" || key === "executeMultiple" || key === "migrate") {
-        return (...args: unknown[]) => guard(() => (value as (...a: unknown[]) => Promise<unknown>).apply(target, args));
-      }
-      if (key === "transaction") {
-        return async (...args: unknown[]) =>
-          guardTransaction(await guard(() => (value as (...a: unknown[]) => Promise<Transaction>).apply(target, args)));
-      }
-      return (value as (...a: unknown[]) => unknown).bind(target);
-    },
-  });
+  return guarded(client);
 }
