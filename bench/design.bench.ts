@@ -17,7 +17,10 @@
 // (not-converged) and a scipy run stopped by its cap prints "> cap" (the ratio is then a bound).
 //   DESIGN_BENCH_LIMIT_S        cap per Strutwise run, default 90
 //   DESIGN_BENCH_STRESS_LIMIT_S cap per Strutwise run on the stress-limited layouts, default 600
-//   DESIGN_BENCH_SCIPY_LIMIT_S  cap per scipy run, default 120
+//   DESIGN_BENCH_SCIPY_LIMIT_S  cap per scipy run, default 120; raised on a model where a capped
+//                               run would leave the verdict open: scipy then runs until its time
+//                               proves ours/scipy below the target (ours / target, plus 10 %)
+//   DESIGN_BENCH_SCIPY_MAX_S    the most that raise may give one scipy run, default 900
 //   DESIGN_BENCH_MAX_MEMBERS    largest ground structure to run, default 3000
 //   DESIGN_BENCH_SIMULTANEOUS_MAX  largest member count for the simultaneous runs, default 3000
 //   DESIGN_BENCH_REPEAT         runs per side on models under 200 members, default 3
@@ -34,6 +37,7 @@ import { faster, hasScipy, oursWholeProcess, scipyWholeProcess, type OursSetup, 
 const here = path.dirname(fileURLToPath(import.meta.url));
 const limitS = Number(process.env.DESIGN_BENCH_LIMIT_S ?? 90);
 const scipyLimitS = Number(process.env.DESIGN_BENCH_SCIPY_LIMIT_S ?? 120);
+const scipyMaxS = Number(process.env.DESIGN_BENCH_SCIPY_MAX_S ?? 900);
 const stressLimitS = Number(process.env.DESIGN_BENCH_STRESS_LIMIT_S ?? 600);
 const maxMembers = Number(process.env.DESIGN_BENCH_MAX_MEMBERS ?? 3000);
 const simMax = Number(process.env.DESIGN_BENCH_SIMULTANEOUS_MAX ?? 3000);
@@ -97,6 +101,16 @@ function printRow(members: number, r: Run, ref: Run | null, target: number) {
   );
 }
 
+/**
+ * scipy's cap on a model: the default, or as long as it takes to decide the verdict when our
+ * slowest run would need scipy to take longer than the default for its ratio to be proved
+ * within the target (a capped scipy run gives only a bound on the ratio).
+ */
+function scipyCap(ours: Run[], target: number): number {
+  const slowest = Math.max(...ours.map((r) => r.processS));
+  return Math.min(scipyMaxS, Math.max(scipyLimitS, Math.ceil((1.1 * slowest) / target)));
+}
+
 /** Runs ours (each setup) and scipy, interleaved, prints the rows and the model's verdict. */
 function compare(title: string, model: TrussModel, setups: OursSetup[]): Run[] {
   const members = model.members.length;
@@ -107,7 +121,7 @@ function compare(title: string, model: TrussModel, setups: OursSetup[]): Run[] {
   let ref: Run | null = null;
   for (let round = 0; round < rounds; round++) {
     setups.forEach((s, i) => (ours[i] = faster(ours[i], oursWholeProcess(model, s))));
-    ref = faster(ref, scipyWholeProcess(model, scipyLimitS));
+    ref = faster(ref, scipyWholeProcess(model, scipyCap(ours as Run[], target)));
   }
   const runs = ours as Run[];
   for (const r of runs) printRow(members, r, ref, target);
