@@ -14,6 +14,8 @@ import { fileURLToPath } from "node:url";
 import { buildStructure, type TrussModel } from "../app/engine/truss";
 import { buildDesignProblem } from "../app/engine/design/problem";
 import { nestedFormulation } from "../app/engine/design/nested";
+import { startingDesigns } from "../app/engine/design/multi-start";
+import { plasticDesignBeforeRun, type LpSolver } from "../app/engine/lp";
 import { runSlsqp, scipyPython } from "../tests/engine/design/slsqp-reference";
 
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -24,6 +26,8 @@ process.on("exit", () => fs.rmSync(work, { recursive: true, force: true }));
 export interface Run {
   /** what ran, e.g. "nested, 6 starts" or "scipy SLSQP, 1 start" */
   label: string;
+  /** starting designs run */
+  starts: number;
   status: string;
   /** the whole process, spawn to exit */
   processS: number;
@@ -68,6 +72,7 @@ export function oursWholeProcess(model: TrussModel, setup: OursSetup): Run {
   const usage = JSON.parse(fs.readFileSync(usageFile, "utf8")) as { peakKiB: number; cpuSeconds: number };
   return {
     label: `${setup.formulation}, ${starts} start${starts === 1 ? "" : "s"}`,
+    starts,
     status: res.status,
     processS,
     cpuS: usage.cpuSeconds,
@@ -81,21 +86,36 @@ export function oursWholeProcess(model: TrussModel, setup: OursSetup): Run {
 
 export const hasScipy = scipyPython() !== null;
 
-/** One scipy SLSQP process on the same scaled sizing problem, from the model's own start. */
-export function scipyWholeProcess(model: TrussModel, capS: number): Run | null {
+/**
+ * The starting designs our several-starts run makes on this model (multi-start.ts, the
+ * least-mass LP's among them when the run solves it), for scipy to run from the same ones.
+ */
+export function ourStartingDesigns(model: TrussModel, count: number, lp: LpSolver): Float64Array[] {
+  const p = buildDesignProblem(model, buildStructure(model), {});
+  const plastic = plasticDesignBeforeRun(model, {}, lp);
+  return startingDesigns(p, count, plastic?.status === "optimal" ? plastic.memberAreas : undefined).map((s) => s.z);
+}
+
+/**
+ * One scipy SLSQP process on the same scaled sizing problem: from the model's own start, or
+ * from each of `starts` one after the other, keeping the best (like against like for our
+ * several-starts runs).
+ */
+export function scipyWholeProcess(model: TrussModel, capS: number, starts?: Float64Array[]): Run | null {
   if (!hasScipy) return null;
   const p = buildDesignProblem(model, buildStructure(model), {});
   const f0 = nestedFormulation(p).objectiveScale;
-  const label = "scipy SLSQP, 1 start";
+  const count = starts?.length ?? 1;
+  const label = `scipy SLSQP, ${count} start${count === 1 ? "" : "s"}`;
   try {
     // SLSQP stops itself at the cap and reports the iterations it did; the kill is a backstop
-    const r = runSlsqp(p, f0, { maxiter: 3000, maxSeconds: capS, timeoutMs: (capS + 120) * 1000 })!;
+    const r = runSlsqp(p, f0, { maxiter: 3000, maxSeconds: capS, timeoutMs: (capS + 120) * 1000, starts })!;
     return {
-      label, status: r.success ? "optimal" : r.message, processS: r.processSeconds, cpuS: r.cpuSeconds ?? NaN, solveS: r.seconds, iterations: r.nit,
+      label, starts: count, status: r.success ? "optimal" : r.message, processS: r.processSeconds, cpuS: r.cpuSeconds ?? NaN, solveS: r.seconds, iterations: r.nit,
       analyses: r.capped ? NaN : r.nfev, objective: r.capped ? NaN : r.f, peakMiB: (r.peakKiB ?? NaN) / 1024, capped: r.capped,
     };
   } catch {
-    return { label, status: `killed after the ${capS} s cap`, processS: NaN, cpuS: NaN, solveS: NaN, iterations: NaN, analyses: NaN, objective: NaN, peakMiB: NaN, capped: true };
+    return { label, starts: count, status: `killed after the ${capS} s cap`, processS: NaN, cpuS: NaN, solveS: NaN, iterations: NaN, analyses: NaN, objective: NaN, peakMiB: NaN, capped: true };
   }
 }
 

@@ -5,7 +5,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { findScipy } from "../../support/scipy";
+import { findScipy, scipyEnv } from "../../support/scipy";
 import type { DesignProblem } from "~/engine/design/problem";
 
 const script = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../python/slsqp_design.py");
@@ -50,7 +50,7 @@ export function runSlsqpDesigns(problems: { p: DesignProblem; f0: number }[], op
   const py = findScipy()?.python;
   if (!py) return null;
   const input = JSON.stringify({ problems: problems.map(({ p, f0 }) => slsqpDesignData(p, f0, opts.maxiter ?? 1000)) });
-  const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs });
+  const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs, env: scipyEnv });
   if (r.status !== 0) throw new Error(`slsqp_design.py failed (${r.status ?? r.signal}): ${r.stderr}`);
   const lines = r.stdout.trim().split("\n");
   if (lines.length !== problems.length) throw new Error(`slsqp_design.py answered ${lines.length} of ${problems.length} problems`);

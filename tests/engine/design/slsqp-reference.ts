@@ -3,7 +3,7 @@
 import { spawnSync } from "node:child_process";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { findScipy } from "../../support/scipy";
+import { findScipy, scipyEnv } from "../../support/scipy";
 import type { DesignProblem } from "~/engine/design/problem";
 
 const script = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../python/slsqp_truss.py");
@@ -30,6 +30,10 @@ export interface SlsqpOutcome {
   peakKiB?: number;
   /** the python process's CPU time (user and system, imports included) */
   cpuSeconds?: number;
+  /** runs made, one per starting design (1 without opts.starts) */
+  starts?: number;
+  /** runs that ended within 1e-4 of the best */
+  reachedBest?: number;
 }
 
 export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
@@ -59,14 +63,23 @@ export function slsqpProblemData(p: DesignProblem, f0: number, maxiter = 500) {
 
 /**
  * maxSeconds: SLSQP stops itself after that much time and reports the iterations done
- * (capped: true); timeoutMs: a hard kill of the process, which then throws.
+ * (capped: true); timeoutMs: a hard kill of the process, which then throws. starts: scaled
+ * starting designs, run one after the other, the best kept (default: the problem's x0 alone).
  */
-export function runSlsqp(p: DesignProblem, f0: number, opts: { maxiter?: number; timeoutMs?: number; maxSeconds?: number } = {}): SlsqpOutcome | null {
+export function runSlsqp(
+  p: DesignProblem,
+  f0: number,
+  opts: { maxiter?: number; timeoutMs?: number; maxSeconds?: number; starts?: ArrayLike<number>[] } = {},
+): SlsqpOutcome | null {
   const py = scipyPython();
   if (!py) return null;
-  const input = JSON.stringify({ ...slsqpProblemData(p, f0, opts.maxiter), ...(opts.maxSeconds ? { maxSeconds: opts.maxSeconds } : {}) });
+  const input = JSON.stringify({
+    ...slsqpProblemData(p, f0, opts.maxiter),
+    ...(opts.maxSeconds ? { maxSeconds: opts.maxSeconds } : {}),
+    ...(opts.starts ? { starts: opts.starts.map((z) => Array.from(z)) } : {}),
+  });
   const t0 = performance.now();
-  const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs });
+  const r = spawnSync(py, [script], { input, encoding: "utf8", maxBuffer: 1 << 28, timeout: opts.timeoutMs, env: scipyEnv });
   const processSeconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`slsqp_truss.py failed (${r.status ?? r.signal}): ${r.stderr}`);
   return { ...(JSON.parse(r.stdout.trim().split("\n").pop()!) as Omit<SlsqpOutcome, "processSeconds">), processSeconds };

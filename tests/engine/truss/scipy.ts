@@ -1,7 +1,7 @@
 // Runs tests/python/lattice_scipy.py with a python3 that has scipy (Debian's python3-scipy).
 import { spawnSync } from "node:child_process";
 import path from "node:path";
-import { findScipy, loudSkip } from "../../support/scipy";
+import { findScipy, loudSkip, scipyEnv } from "../../support/scipy";
 
 export function scipyAvailable(): boolean {
   return findScipy() !== null;
@@ -15,7 +15,7 @@ export function scipySolve(model: unknown): { displacements: Record<string, numb
   const py = findScipy();
   if (!py) throw new Error("python3 with scipy not found");
   const script = path.join(import.meta.dirname, "../../python/lattice_scipy.py");
-  const r = spawnSync(py.python, [script], { input: JSON.stringify(model), encoding: "utf8", maxBuffer: 1 << 30 });
+  const r = spawnSync(py.python, [script], { input: JSON.stringify(model), encoding: "utf8", maxBuffer: 1 << 30, env: scipyEnv });
   if (r.status !== 0) throw new Error(`lattice_scipy.py failed: ${r.stderr}`);
   return JSON.parse(r.stdout);
 }
