@@ -111,11 +111,38 @@ export async function bundleTools(dir = root) {
     fs.writeFileSync(tmp, file.contents);
     fs.renameSync(tmp, file.path);
   }
+  removeStaleChunks(out, result.outputFiles.map((f) => f.path));
   const inputs = Object.keys(result.metafile.inputs).filter((f) => !f.includes("node_modules"));
   // written last, so a bundle cut short is seen as missing
   const list = path.join(out, `inputs.json.${process.pid}.tmp`);
   fs.writeFileSync(list, JSON.stringify({ entries: Object.keys(TOOL_ENTRIES), inputs }, null, 1));
   fs.renameSync(list, path.join(out, "inputs.json"));
+}
+
+/** A chunk no bundle has written for this long is no longer imported by any running tool. */
+export const STALE_CHUNK_MS = 24 * 3600 * 1000;
+
+/**
+ * Deletes chunks (and their maps) that the bundle just written does not contain and that are
+ * older than STALE_CHUNK_MS. Younger ones stay: a tool started before the bundle was remade
+ * may still load one of its chunks lazily (the LP runtime's, after a long solve).
+ * @param {string} out
+ * @param {string[]} written
+ */
+export function removeStaleChunks(out, written) {
+  const keep = new Set(written.map((f) => path.resolve(f)));
+  const chunks = path.join(out, "chunks");
+  if (!fs.existsSync(chunks)) return;
+  const now = Date.now();
+  for (const name of fs.readdirSync(chunks)) {
+    const file = path.resolve(chunks, name);
+    if (keep.has(file)) continue;
+    try {
+      if (now - fs.statSync(file).mtimeMs > STALE_CHUNK_MS) fs.rmSync(file, { force: true });
+    } catch {
+      // another bundler removed it first
+    }
+  }
 }
 
 /**

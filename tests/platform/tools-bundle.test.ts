@@ -5,7 +5,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterEach, describe, expect, it } from "vitest";
-import { TOOL_ENTRIES, bundleNeeded, root } from "../../scripts/tools-bundle.mjs";
+import { STALE_CHUNK_MS, TOOL_ENTRIES, bundleNeeded, removeStaleChunks, root } from "../../scripts/tools-bundle.mjs";
 
 let dir: string;
 afterEach(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -51,6 +51,21 @@ describe("bundleNeeded", () => {
     expect(bundleNeeded(dir)).toBe("package-lock.json changed since the last bundle");
     write("build/tools/inputs.json", 4000, JSON.stringify({ entries: ["optimize"], inputs: [] }));
     expect(bundleNeeded(dir)).toBe("the list of tools changed");
+  });
+});
+
+describe("removeStaleChunks", () => {
+  it("deletes chunks the new bundle lacks once they are a day old, and keeps younger ones for tools still running", () => {
+    dir = fs.mkdtempSync(path.join(os.tmpdir(), "strutwise-tools-"));
+    const now = Date.now() / 1000;
+    const old = now - (STALE_CHUNK_MS / 1000 + 60);
+    write("build/tools/chunks/chunk-OLD.mjs", old);
+    write("build/tools/chunks/chunk-OLD.mjs.map", old);
+    write("build/tools/chunks/chunk-YOUNG.mjs", now - 60);
+    write("build/tools/chunks/chunk-WRITTEN.mjs", old);
+    const out = path.join(dir, "build/tools");
+    removeStaleChunks(out, [path.join(out, "chunks/chunk-WRITTEN.mjs"), path.join(out, "optimize.mjs")]);
+    expect(fs.readdirSync(path.join(out, "chunks")).sort()).toEqual(["chunk-WRITTEN.mjs", "chunk-YOUNG.mjs"]);
   });
 });
 
