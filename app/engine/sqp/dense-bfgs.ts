@@ -1,15 +1,39 @@
 // Dense damped BFGS: keeps B and H = B^-1 explicitly (n^2 each, O(n^2) per update), so the QP
 // never factorizes B. First matrix scaled by Shanno and Phua's factor y'y/s'y at the first update.
 import { type HessianApprox, type ReducedInverse, dot, powellDamped } from "./hessian";
+import { B_COLUMN_PRODUCT_SHARE, SPARSE_PRODUCT_SHARE } from "./thresholds";
+
+/** Writes the positions of v's nonzero entries among the first n to into, in order; their count. */
+function nonzerosOf(v: Float64Array, n: number, into: Int32Array): number {
+  let nnz = 0;
+  for (let j = 0; j < n; j++) if (v[j] !== 0) into[nnz++] = j;
+  return nnz;
+}
+
+/** Row M[offset + j] times v over the listed nonzero positions j of v (ascending). */
+function sparseRowDot(M: Float64Array, offset: number, v: Float64Array, nonzeros: Int32Array, nnz: number): number {
+  let s = 0;
+  for (let k = 0; k < nnz; k++) {
+    const j = nonzeros[k];
+    s += M[offset + j] * v[j];
+  }
+  return s;
+}
 
 export class DenseBfgs implements HessianApprox {
   private B: Float64Array;
   private H: Float64Array;
   private fresh = true;
+  /** Scratch: positions of the nonzero entries of the vector being multiplied. */
+  private readonly nonzeros: Int32Array;
+  /** Scratch of every reduced inverse made from this matrix (one is used at a time per call). */
+  private readonly blockScratch: BlockScratch;
 
   constructor(readonly n: number) {
     this.B = new Float64Array(n * n);
     this.H = new Float64Array(n * n);
+    this.nonzeros = new Int32Array(n);
+    this.blockScratch = { vF: new Float64Array(n), nonzeros: new Int32Array(n), column: new Float64Array(n), product: new Float64Array(n), factor: new Float64Array(n * n) };
     this.reset();
   }
 
@@ -34,23 +58,51 @@ export class DenseBfgs implements HessianApprox {
   }
 
   reduced(): ReducedInverse {
-    return new DenseReducedInverse(this.B, this.H, this.n);
+    return new DenseReducedInverse(this.B, this.H, this.n, this.blockScratch);
   }
 
   applyB(v: Float64Array, out: Float64Array): void {
     // the QP multiplies by vectors that are zero on the variables at a bound (most of them on
-    // a ground structure): then only the columns of the nonzero entries are read (B symmetric)
+    // a ground structure): then only the nonzero entries are summed, in the dense product's
+    // order (a skipped term is an exact zero, so the bits are the same)
     const n = this.n;
-    let nnz = 0;
-    for (let j = 0; j < n; j++) if (v[j] !== 0) nnz++;
-    if (nnz > n / 4) return DenseBfgs.mul(this.B, n, v, out);
-    out.fill(0, 0, n);
-    const B = this.B;
-    for (let j = 0; j < n; j++) {
+    const nnz = nonzerosOf(v, n, this.nonzeros);
+    if (nnz <= B_COLUMN_PRODUCT_SHARE * n) {
+      out.fill(0, 0, n);
+      this.addColumns(v, nnz, null, n, out);
+    } else if (nnz <= SPARSE_PRODUCT_SHARE * n) {
+      for (let i = 0; i < n; i++) out[i] = sparseRowDot(this.B, i * n, v, this.nonzeros, nnz);
+    } else DenseBfgs.mul(this.B, n, v, out);
+  }
+
+  /**
+   * (B v)_i for the rows listed in rows[0..count) (ascending) only; out's other entries are
+   * left as they are. The dual QP needs B v on the variables fixed at a bound alone, for a v
+   * that is zero on them: (fixed x free) products instead of n^2. Each entry has the bits
+   * applyB gives it.
+   */
+  applyBRows(v: Float64Array, rows: Int32Array, count: number, out: Float64Array): void {
+    const n = this.n;
+    const nnz = nonzerosOf(v, n, this.nonzeros);
+    if (nnz <= B_COLUMN_PRODUCT_SHARE * n) {
+      for (let a = 0; a < count; a++) out[rows[a]] = 0;
+      this.addColumns(v, nnz, rows, count, out);
+    } else for (let a = 0; a < count; a++) out[rows[a]] = sparseRowDot(this.B, rows[a] * n, v, this.nonzeros, nnz);
+  }
+
+  /** out_i += sum over the nonzero v_j of B_ji v_j, j ascending, for the listed rows i (all when rows is null). */
+  private addColumns(v: Float64Array, nnz: number, rows: Int32Array | null, count: number, out: Float64Array): void {
+    const { B, n, nonzeros } = this;
+    for (let k = 0; k < nnz; k++) {
+      const j = nonzeros[k];
       const vj = v[j];
-      if (vj === 0) continue;
       const o = j * n;
-      for (let i = 0; i < n; i++) out[i] += B[o + i] * vj;
+      if (rows === null) for (let i = 0; i < n; i++) out[i] += B[o + i] * vj;
+      else
+        for (let a = 0; a < count; a++) {
+          const i = rows[a];
+          out[i] += B[o + i] * vj;
+        }
     }
   }
 
@@ -105,6 +157,19 @@ export class DenseBfgs implements HessianApprox {
 }
 
 /**
+ * Work vectors of length n for DenseReducedInverse, owned by the DenseBfgs: the QP's inner loop
+ * then allocates nothing, and a QP's setup only the block itself.
+ */
+interface BlockScratch {
+  vF: Float64Array;
+  nonzeros: Int32Array;
+  column: Float64Array;
+  product: Float64Array;
+  /** The Cholesky factor of B_FF while the block is rebuilt (m x m, stride m). */
+  factor: Float64Array;
+}
+
+/**
  * (B_FF)^-1 kept explicitly over the free variables only (an m x m block, m = free count, in
  * a buffer of stride n), so that applying it, fixing a variable (the rank-one downdate
  * H_F - h h'/h_jj, then the last free variable moved into its slot) and freeing one (the
@@ -120,8 +185,8 @@ class DenseReducedInverse implements ReducedInverse {
   private readonly pos: Int32Array; // block position of variable j, -1 when fixed
   private m: number;
 
-  constructor(private readonly B: Float64Array, H: Float64Array, private readonly n: number) {
-    this.HF = Float64Array.from(H);
+  constructor(private readonly B: Float64Array, H: Float64Array, private readonly n: number, private readonly scratch: BlockScratch) {
+    this.HF = H.slice();
     this.fixed = new Uint8Array(n);
     this.idx = new Int32Array(n);
     this.pos = new Int32Array(n);
@@ -131,15 +196,24 @@ class DenseReducedInverse implements ReducedInverse {
 
   apply(v: Float64Array, out: Float64Array): void {
     const { n, HF, idx, m } = this;
-    const vF = new Float64Array(m);
-    for (let b = 0; b < m; b++) vF[b] = v[idx[b]];
-    out.fill(0, 0, n);
-    for (let a = 0; a < m; a++) {
-      const o = a * n;
-      let s = 0;
-      for (let b = 0; b < m; b++) s += HF[o + b] * vF[b];
-      out[idx[a]] = s;
+    const { vF, nonzeros } = this.scratch;
+    // the QP applies the block to bound normals (one nonzero) as often as to dense vectors:
+    // summing over the nonzero entries only gives the dense product's bits at their cost
+    let nnz = 0;
+    for (let b = 0; b < m; b++) {
+      const vb = v[idx[b]];
+      vF[b] = vb;
+      if (vb !== 0) nonzeros[nnz++] = b;
     }
+    out.fill(0, 0, n);
+    if (nnz > SPARSE_PRODUCT_SHARE * m) {
+      for (let a = 0; a < m; a++) {
+        const o = a * n;
+        let s = 0;
+        for (let b = 0; b < m; b++) s += HF[o + b] * vF[b];
+        out[idx[a]] = s;
+      }
+    } else for (let a = 0; a < m; a++) out[idx[a]] = sparseRowDot(HF, a * n, vF, nonzeros, nnz);
   }
 
   fix(j: number): void {
@@ -147,7 +221,8 @@ class DenseReducedInverse implements ReducedInverse {
     const { n, HF } = this;
     const a = this.pos[j];
     const m = this.m;
-    const h = HF.slice(a * n, a * n + m);
+    const h = this.scratch.column;
+    for (let c = 0; c < m; c++) h[c] = HF[a * n + c];
     const hjj = h[a];
     this.fixed[j] = 1;
     if (!(hjj > 0)) return this.rebuild();
@@ -182,9 +257,9 @@ class DenseReducedInverse implements ReducedInverse {
     const { n, HF, B, fixed, idx } = this;
     if (!fixed[j]) return;
     const m = this.m;
-    const b = new Float64Array(m);
+    const b = this.scratch.column;
     for (let a = 0; a < m; a++) b[a] = B[idx[a] * n + j];
-    const x = new Float64Array(m);
+    const x = this.scratch.product;
     for (let a = 0; a < m; a++) {
       const o = a * n;
       let s = 0;
@@ -207,7 +282,11 @@ class DenseReducedInverse implements ReducedInverse {
     this.m = m + 1;
   }
 
-  /** The block from scratch: Cholesky of B_FF, then its inverse column by column. */
+  /**
+   * The block from scratch: Cholesky of B_FF, then its inverse column by column. Both triangles
+   * are solved, not one mirrored (a third less work): the block's last bits steer chaotic runs
+   * as B's do (thresholds.ts, B_COLUMN_PRODUCT_SHARE).
+   */
   private rebuild(): void {
     const { n, B, HF, fixed, idx, pos } = this;
     let m = 0;
@@ -216,7 +295,7 @@ class DenseReducedInverse implements ReducedInverse {
       else { idx[m] = j; pos[j] = m; m++; }
     }
     this.m = m;
-    const L = new Float64Array(m * m);
+    const L = this.scratch.factor;
     for (let a = 0; a < m; a++) {
       const ba = idx[a] * n;
       for (let c = 0; c <= a; c++) {
@@ -226,9 +305,9 @@ class DenseReducedInverse implements ReducedInverse {
         else L[a * m + c] = s / L[c * m + c];
       }
     }
-    const col = new Float64Array(m);
+    const col = this.scratch.column;
     for (let c = 0; c < m; c++) {
-      col.fill(0);
+      col.fill(0, 0, m);
       col[c] = 1;
       for (let a = c; a < m; a++) {
         let s = col[a];

@@ -24,6 +24,8 @@ import { appendAll } from "../util/extent";
 
 export interface QpHessian {
   applyB(v: Float64Array, out: Float64Array): void;
+  /** (B v)_i for i in rows[0..count) only, other entries of out untouched (where cheaper than applyB). */
+  applyBRows?(v: Float64Array, rows: Int32Array, count: number, out: Float64Array): void;
   reduced(): ReducedInverse;
 }
 
@@ -133,6 +135,7 @@ export function solveQp(q: QpInput): QpOutput {
   const z = new Float64Array(dim);
   const bz = new Float64Array(dim);
   const unit = new Float64Array(dim);
+  const fixedList = new Int32Array(dim); // the variables at a bound, for the dual direction
 
   /** w = N' H_F e_j for the active general rows, and (H_F)_jj. */
   const boundColumn = (j: number): { w: Float64Array; hjj: number } => {
@@ -329,20 +332,38 @@ export function solveQp(q: QpInput): QpOutput {
     }
   }
 
+  // the constraint to add next (consider), and the dual step's data (dualStep, dropBlocking)
+  let p = -1;
+  let pClass = 3;
+  let pViol = 0;
+  let up = 0;
+  const w = new Float64Array(nE + nI); // N'H_F n+ over the active general rows, first k entries
+  const tmp = new Float64Array(dim); // n+ - N r
+  function consider(key: number, cls: number): void {
+    const v = violation(key);
+    if (!(v > tolOf(key)) || skipped[key]) return;
+    if (cls < pClass || (cls === pClass && v > pViol)) {
+      p = key;
+      pClass = cls;
+      pViol = v;
+    }
+  }
+  /** Moves the multipliers by t along the dual direction: r for the active rows, side_j (tmp - Bz)_j for the bounds. */
+  function dualStep(t: number, r: Float64Array): void {
+    for (let a = 0; a < r.length; a++) u[a] -= t * r[a];
+    for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) uB[j] = Math.max(0, uB[j] - t * fixedSide[j] * (tmp[j] - bz[j]));
+    up += t;
+  }
+  function dropBlocking(lBound: number, lGen: number): void {
+    if (lBound >= 0) freeBound(lBound);
+    else dropGeneral(lGen);
+  }
+
   for (;;) {
     // choose the next violated constraint: equalities, then the warm set, then the rest
-    let p = -1;
-    let pClass = 3;
-    let pViol = 0;
-    const consider = (key: number, cls: number): void => {
-      const v = violation(key);
-      if (!(v > tolOf(key)) || skipped[key]) return;
-      if (cls < pClass || (cls === pClass && v > pViol)) {
-        p = key;
-        pClass = cls;
-        pViol = v;
-      }
-    };
+    p = -1;
+    pClass = 3;
+    pViol = 0;
     for (let i = 0; i < nE; i++) if (!isActive[i]) consider(i, 0);
     if (p < 0) {
       for (let key = nE; key < offL; key++) if (!isActive[key]) consider(key, warm[key] ? 1 : 2);
@@ -356,25 +377,28 @@ export function solveQp(q: QpInput): QpOutput {
     if (p < nE) eqSign[p] = vEq[p] - eqRhs[p] >= 0 ? 1 : -1;
     const pBound = p >= offL ? (p < offU ? p - offL : p - offU) : -1;
 
-    let up = 0;
+    up = 0;
     for (;;) {
       if (++iterations > maxIt) return finish("iteration-limit", iterations);
       np.fill(0);
       normalAxpy(p, 1, np);
       HF.apply(np, hn);
       const k = active.length;
-      const w = new Float64Array(k);
       for (let a = 0; a < k; a++) w[a] = normalDot(active[a], hn);
       const y = chol.forward(w);
       const r = chol.backward(y);
-      const tmp = Float64Array.from(np);
+      tmp.set(np);
       for (let a = 0; a < k; a++) normalAxpy(active[a], -r[a], tmp);
       HF.apply(tmp, z);
       const nz = normalDot(p, z);
       const nHn = normalDot(p, hn);
       const viol = normalDot(p, s) - rhsOf(p);
-      // dual direction of the fixed bounds: r_j = side_j * (tmp - B z)_j
-      q.hessian.applyB(z, bz);
+      // dual direction of the fixed bounds: r_j = side_j * (tmp - B z)_j, read on them alone
+      if (q.hessian.applyBRows) {
+        let nFixed = 0;
+        for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) fixedList[nFixed++] = j;
+        q.hessian.applyBRows(z, fixedList, nFixed, bz);
+      } else q.hessian.applyB(z, bz);
 
       let t1 = Infinity;
       let lGen = -1;
@@ -389,10 +413,9 @@ export function solveQp(q: QpInput): QpOutput {
           }
         }
       }
-      const rB = (j: number) => fixedSide[j] * (tmp[j] - bz[j]);
       for (let j = 0; j < dim; j++) {
         if (fixedSide[j] === 0) continue;
-        const rj = rB(j);
+        const rj = fixedSide[j] * (tmp[j] - bz[j]);
         if (rj > 1e-14 * (1 + uB[j])) {
           const t = uB[j] / rj;
           if (t < t1) {
@@ -402,15 +425,6 @@ export function solveQp(q: QpInput): QpOutput {
           }
         }
       }
-      const dropBlocking = () => {
-        if (lBound >= 0) freeBound(lBound);
-        else dropGeneral(lGen);
-      };
-      const dualStep = (t: number) => {
-        for (let a = 0; a < k; a++) u[a] -= t * r[a];
-        for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) uB[j] = Math.max(0, uB[j] - t * rB(j));
-        up += t;
-      };
 
       const dependent = !(nz > 1e-12 * nHn) || !(nz > 0);
       if (dependent) {
@@ -422,9 +436,9 @@ export function solveQp(q: QpInput): QpOutput {
           }
           return finish("infeasible", iterations);
         }
-        dualStep(t1);
+        dualStep(t1, r);
         if (lGen >= 0) u[lGen] = 0;
-        dropBlocking();
+        dropBlocking(lBound, lGen);
         continue;
       }
 
@@ -436,10 +450,10 @@ export function solveQp(q: QpInput): QpOutput {
         for (let i = 0; i < nE; i++) vEq[i] -= t * rowDot(eq[i], z, base);
         for (let i = 0; i < nI; i++) vIn[i] -= t * rowDot(ineq[i], z, base);
       }
-      dualStep(t);
+      dualStep(t, r);
       if (t2 <= t1) {
         if (pBound >= 0) {
-          fixBound(pBound, p < offU ? -1 : 1, w, nHn);
+          fixBound(pBound, p < offU ? -1 : 1, w.subarray(0, k), nHn);
           uB[pBound] = up;
         } else {
           chol.append(y, Math.sqrt(nz));
@@ -450,7 +464,7 @@ export function solveQp(q: QpInput): QpOutput {
         break;
       }
       if (lGen >= 0) u[lGen] = 0;
-      dropBlocking();
+      dropBlocking(lBound, lGen);
     }
   }
 }

@@ -20,6 +20,17 @@ export function elasticHessian(B: HessianApprox, n: number): QpHessian {
       out.set(o);
       out[n] = weight * v[n];
     },
+    applyBRows: B.applyBRows
+      ? (v, rows, count, out) => {
+          // the relaxation variable's row is its own: the inner matrix gets the others
+          let inner = count;
+          if (count > 0 && rows[count - 1] === n) {
+            inner = count - 1;
+            out[n] = weight * v[n];
+          }
+          B.applyBRows!(v, rows, inner, out);
+        }
+      : undefined,
     reduced(): ReducedInverse {
       const inner = B.reduced();
       let fixedXi = false;

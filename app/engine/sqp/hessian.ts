@@ -5,6 +5,8 @@ export interface HessianApprox {
   /** The inverse of B restricted to the free variables, for the QP's bound handling. */
   reduced(): ReducedInverse;
   applyB(v: Float64Array, out: Float64Array): void;
+  /** (B v)_i for i in rows[0..count) only, other entries of out untouched (where cheaper than applyB). */
+  applyBRows?(v: Float64Array, rows: Int32Array, count: number, out: Float64Array): void;
   applyH(v: Float64Array, out: Float64Array): void;
   /** Damped BFGS update with step s and Lagrangian-gradient change y. */
   update(s: Float64Array, y: Float64Array): "updated" | "damped" | "skipped";
