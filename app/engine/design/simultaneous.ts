@@ -209,6 +209,29 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     }
   }
 
+  /** The equilibrium rows r = (K u - f) / fRef of every load case at the state st. */
+  function equilibriumResidual(st: LimitState): Float64Array {
+    const eq = new Float64Array(nLc * nFree);
+    for (let l = 0; l < nLc; l++) {
+      const u = st.displacements[l] as Float64Array;
+      const f = st.loads[l];
+      const off = l * nFree;
+      for (let k = 0; k < nFree; k++) eq[off + k] = -f[freeDofs[k]];
+      for (let e = 0; e < m; e++) {
+        const c = memberForce(st, e, u);
+        const i = 3 * s.start[e], j = 3 * s.end[e];
+        for (let a = 0; a < 3; a++) {
+          const pj = c * dv[a];
+          const rj = freeIndex[j + a], ri = freeIndex[i + a];
+          if (rj >= 0) eq[off + rj] += pj;
+          if (ri >= 0) eq[off + ri] -= pj;
+        }
+      }
+      for (let k = 0; k < nFree; k++) eq[off + k] /= fRef[l];
+    }
+    return eq;
+  }
+
   const problem: SqpProblem = {
     n,
     x0,
@@ -218,24 +241,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     nIneq: p.limits.length,
     evaluate(z) {
       const st = stateAt(z);
-      const eq = new Float64Array(nLc * nFree);
-      for (let l = 0; l < nLc; l++) {
-        const u = st.displacements[l] as Float64Array;
-        const f = st.loads[l];
-        const off = l * nFree;
-        for (let k = 0; k < nFree; k++) eq[off + k] = -f[freeDofs[k]];
-        for (let e = 0; e < m; e++) {
-          const c = memberForce(st, e, u);
-          const i = 3 * s.start[e], j = 3 * s.end[e];
-          for (let a = 0; a < 3; a++) {
-            const pj = c * dv[a];
-            const rj = freeIndex[j + a], ri = freeIndex[i + a];
-            if (rj >= 0) eq[off + rj] += pj;
-            if (ri >= 0) eq[off + ri] -= pj;
-          }
-        }
-        for (let k = 0; k < nFree; k++) eq[off + k] /= fRef[l];
-      }
+      const eq = equilibriumResidual(st);
       const ineq = new Float64Array(p.limits.length);
       for (let r = 0; r < p.limits.length; r++) ineq[r] = limitValue(p, p.limits[r], st);
       return { f: objectiveValue(p, st) / objectiveScale, eq, ineq };
@@ -341,6 +347,8 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
       // K(A, x) u = f(A, x) is linear in u: the solver restores each trial design's equilibrium
       // with one solve, so the merit reads the limits at true displacements (sqp/restoration.ts)
       linearInStates: true,
+      // the restoration reads the equilibrium rows alone before re-solving (no limit values)
+      residual: (z) => equilibriumResidual(stateAt(z)),
       factor(z) {
         const { areas, coords } = designState(p, z);
         const K = factorStiffness(s, areas, coords);

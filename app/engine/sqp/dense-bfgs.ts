@@ -33,7 +33,7 @@ export class DenseBfgs implements HessianApprox {
     this.B = new Float64Array(n * n);
     this.H = new Float64Array(n * n);
     this.nonzeros = new Int32Array(n);
-    this.blockScratch = { vF: new Float64Array(n), nonzeros: new Int32Array(n), column: new Float64Array(n), product: new Float64Array(n), factor: new Float64Array(n * n) };
+    this.blockScratch = { vF: new Float64Array(n), nonzeros: new Int32Array(n), column: new Float64Array(n), product: new Float64Array(n), factor: new Float64Array(n * n), factorTransposed: new Float64Array(n * n) };
     this.reset();
   }
 
@@ -167,6 +167,7 @@ interface BlockScratch {
   product: Float64Array;
   /** The Cholesky factor of B_FF while the block is rebuilt (m x m, stride m). */
   factor: Float64Array;
+  factorTransposed: Float64Array;
 }
 
 /**
@@ -305,6 +306,10 @@ class DenseReducedInverse implements ReducedInverse {
         else L[a * m + c] = s / L[c * m + c];
       }
     }
+    // the back substitutions read L by columns: from a transposed copy they read contiguous
+    // memory (same operations in the same order, so the same bits)
+    const LT = this.scratch.factorTransposed;
+    for (let a = 0; a < m; a++) for (let c = 0; c <= a; c++) LT[c * m + a] = L[a * m + c];
     const col = this.scratch.column;
     for (let c = 0; c < m; c++) {
       col.fill(0, 0, m);
@@ -316,7 +321,7 @@ class DenseReducedInverse implements ReducedInverse {
       }
       for (let a = m - 1; a >= 0; a--) {
         let s = col[a];
-        for (let k = a + 1; k < m; k++) s -= L[k * m + a] * col[k];
+        for (let k = a + 1; k < m; k++) s -= LT[a * m + k] * col[k];
         col[a] = s / L[a * m + a];
       }
       for (let a = 0; a < m; a++) HF[a * n + c] = col[a];

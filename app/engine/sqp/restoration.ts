@@ -20,17 +20,25 @@ import type { SqpContext } from "./state";
 
 /** The functions at the trial point xt (scaled), its states re-solved in place first when the run restores states. */
 export function evaluateTrial(ctx: SqpContext, xt: Float64Array): Checked<ScaledPoint> {
-  const ev = ctx.sp.evaluate(xt);
-  if (!ev.ok || !ctx.restoreStates) return ev;
-  const { ce } = ev.value;
+  if (!ctx.restoreStates) return ctx.sp.evaluate(xt);
+  // the residual alone where the problem gives it (the limits are read once, after the
+  // re-solve); else from a full evaluation, which is then returned when nothing is re-solved
+  let ev: Checked<ScaledPoint> | null = null;
+  let ce = ctx.sp.stateResidual(xt);
+  if (!ce) {
+    ev = ctx.sp.evaluate(xt);
+    if (!ev.ok) return ev;
+    ce = ev.value.ce;
+  }
+  const asIs = () => ev ?? ctx.sp.evaluate(xt);
   let residual = 0;
   for (let i = 0; i < ce.length; i++) residual = Math.max(residual, Math.abs(ce[i]));
   // not skipped below the feasibility tolerance: a residual of 1e-8 of the largest load can
   // still move a thin member's stress by 1e-4 of its limit, which the re-analysis then rejects
-  if (residual === 0) return ev;
+  if (residual === 0) return asIs();
   const factor = ctx.stateFactorAt(xt, true);
   // no factor at this design (a singular stiffness): the merit reads the point as it is
-  if (typeof factor === "string") return ev;
+  if (typeof factor === "string") return asIs();
   const dy = factor.solve(Float64Array.from(ce, (v) => -v));
   const nD = ctx.n - ctx.nEq;
   for (let k = 0; k < dy.length; k++) xt[nD + k] += dy[k];

@@ -133,6 +133,30 @@ export class ScaledProblem {
     return { ok: true, value: { f: out.f * this.fScale, ce, ci, fRaw: out.f, eqRaw: Float64Array.from(eqRaw), ineqRaw: Float64Array.from(ineqRaw) } };
   }
 
+  /**
+   * The scaled state-equation residual ce at xs from the problem's stateEquations.residual;
+   * null when the problem has none or returned a value evaluate() would reject (evaluate then
+   * reads the point and names the fault).
+   */
+  stateResidual(xs: Float64Array): Float64Array | null {
+    const residual = this.problem.stateEquations?.residual;
+    if (!residual) return null;
+    let raw: Float64Array;
+    try {
+      raw = residual(this.toUser(xs));
+    } catch (e) {
+      ScaledProblem.rethrowAbort(e);
+      return null;
+    }
+    if (!raw || raw.length !== this.nEq) return null;
+    const ce = new Float64Array(this.nEq);
+    for (let i = 0; i < this.nEq; i++) {
+      if (!Number.isFinite(raw[i])) return null;
+      ce[i] = raw[i] * this.eqScale[i];
+    }
+    return ce;
+  }
+
   private rawDerivatives(xs: Float64Array, rows: Int32Array): Checked<{ grad: Float64Array; eq: Row[]; ineq: Row[] }> {
     const x = this.toUser(xs);
     this.derivativeEvaluations++;

@@ -36,6 +36,12 @@ export interface StateEquations {
    * that way before reading it (restoration.ts). Default false.
    */
   linearInStates?: boolean;
+  /**
+   * Optional: c at x alone (user units, the values evaluate returns as eq), for the restoration
+   * of a trial point, which needs c before its states are re-solved and everything after; a
+   * problem whose inequality rows cost more than its equalities saves their evaluation there.
+   */
+  residual?(x: Float64Array): Float64Array;
   /** Factors dc/dy at x (user units): solves with it and with its transpose (length nEq). */
   factor(x: Float64Array): { solve(rhs: Float64Array): Float64Array; solveTransposed(rhs: Float64Array): Float64Array };
 }
