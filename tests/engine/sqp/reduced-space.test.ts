@@ -95,6 +95,26 @@ describe("null-space steps on Hock-Schittkowski problems with equalities", () =>
   });
 });
 
+describe("restored trial points with the state-equation residual alone", () => {
+  // HS048 and HS051 have linear equalities, so their states may be declared linearInStates and
+  // every trial point is restored (sqp/restoration.ts). Given stateEquations.residual, the
+  // restoration reads c from it and evaluates each restored point once instead of twice: the
+  // same run to the last bit, with fewer evaluations. Published optima as above.
+  it.each([["HS048", [0, 2]], ["HS051", [0, 2, 4]]] as const)("%s: same iterates, fewer evaluations", (id, states) => {
+    const p = hockSchittkowski.find((q) => q.id === id)!;
+    const problem = withStates(p, [...states]);
+    const restoring = { ...problem, stateEquations: { ...problem.stateEquations!, linearInStates: true } };
+    const withResidual = { ...restoring, stateEquations: { ...restoring.stateEquations, residual: (x: Float64Array) => restoring.evaluate(x).eq! } };
+    const twice = minimize(restoring, {});
+    const once = minimize(withResidual, {});
+    expect(once.status, once.message).toBe("optimal");
+    expect(Math.abs(once.f - p.fStar) / Math.max(1, Math.abs(p.fStar))).toBeLessThan(1e-6);
+    expect(once.iterations).toBe(twice.iterations);
+    expect(Array.from(once.x)).toEqual(Array.from(twice.x));
+    expect(once.evaluations).toBeLessThan(twice.evaluations);
+  });
+});
+
 describe("null-space steps on the bar chain (simultaneous formulation of a determinate truss)", () => {
   // Closed form (common practice): a statically determinate chain's minimum-volume design is
   // fully stressed, a_j = P (N - j) / s_max, volume P / s_max * N (N + 1) / 2 (bench/sqp-bar-chain.ts).
