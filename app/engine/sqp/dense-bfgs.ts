@@ -22,7 +22,17 @@ function sparseRowDot(M: Float64Array, offset: number, v: Float64Array, nonzeros
 
 export class DenseBfgs implements HessianApprox {
   private B: Float64Array;
+  /**
+   * H = B^-1 as of the last pending update. Most QPs never read H (a warm start with any bound
+   * fixed rebuilds its block from B), so its updates wait in pendingH until something does and
+   * are then applied in the order they came, with the same operations: H has the same bits as
+   * if each had been applied at once, and a run that never reads it skips two n^2 passes per
+   * iteration.
+   */
   private H: Float64Array;
+  /** When not null, H is diag(hDiagonal) before the pending updates (a reset or the first scaling). */
+  private hDiagonal: number | null = null;
+  private pendingH: { s: Float64Array; r: Float64Array; sr: number }[] = [];
   private fresh = true;
   /** Scratch: positions of the nonzero entries of the vector being multiplied. */
   private readonly nonzeros: Int32Array;
@@ -40,12 +50,23 @@ export class DenseBfgs implements HessianApprox {
   reset(): void {
     const n = this.n;
     this.B.fill(0);
-    this.H.fill(0);
-    for (let i = 0; i < n; i++) {
-      this.B[i * n + i] = 1;
-      this.H[i * n + i] = 1;
-    }
+    for (let i = 0; i < n; i++) this.B[i * n + i] = 1;
+    this.hDiagonal = 1;
+    this.pendingH.length = 0;
     this.fresh = true;
+  }
+
+  /** H with every pending update applied. */
+  private currentH(): Float64Array {
+    const { n, H } = this;
+    if (this.hDiagonal !== null) {
+      H.fill(0);
+      for (let i = 0; i < n; i++) H[i * n + i] = this.hDiagonal;
+      this.hDiagonal = null;
+    }
+    for (const { s, r, sr } of this.pendingH) this.updateInverse(s, r, sr);
+    this.pendingH.length = 0;
+    return H;
   }
 
   static mul(M: Float64Array, n: number, v: Float64Array, out: Float64Array): void {
@@ -58,7 +79,7 @@ export class DenseBfgs implements HessianApprox {
   }
 
   reduced(): ReducedInverse {
-    return new DenseReducedInverse(this.B, this.H, this.n, this.blockScratch);
+    return new DenseReducedInverse(this.B, () => this.currentH(), this.n, this.blockScratch);
   }
 
   applyB(v: Float64Array, out: Float64Array): void {
@@ -107,7 +128,7 @@ export class DenseBfgs implements HessianApprox {
   }
 
   applyH(v: Float64Array, out: Float64Array): void {
-    DenseBfgs.mul(this.H, this.n, v, out);
+    DenseBfgs.mul(this.currentH(), this.n, v, out);
   }
 
   update(s: Float64Array, y: Float64Array): "updated" | "damped" | "skipped" {
@@ -118,11 +139,9 @@ export class DenseBfgs implements HessianApprox {
       if (sy > 0 && yy > 0) {
         const gamma = yy / sy; // Shanno-Phua initial scaling
         this.B.fill(0);
-        this.H.fill(0);
-        for (let i = 0; i < n; i++) {
-          this.B[i * n + i] = gamma;
-          this.H[i * n + i] = 1 / gamma;
-        }
+        for (let i = 0; i < n; i++) this.B[i * n + i] = gamma;
+        this.hDiagonal = 1 / gamma;
+        this.pendingH.length = 0;
       }
     }
     const bs = new Float64Array(n);
@@ -132,17 +151,25 @@ export class DenseBfgs implements HessianApprox {
     const sBs = dot(s, bs);
     const { r, sr } = d;
     const B = this.B;
-    const H = this.H;
     for (let i = 0; i < n; i++) {
       const o = i * n;
       const bi = bs[i] / sBs;
       const ri = r[i] / sr;
       for (let j = 0; j < n; j++) B[o + j] += ri * r[j] - bi * bs[j];
     }
-    // H+ = (I - rho s r') H (I - rho r s') + rho s s'
+    this.pendingH.push({ s: s.slice(0, n), r, sr });
+    // at most n waiting: their memory stays within that of B
+    if (this.pendingH.length >= n) this.currentH();
+    this.fresh = false;
+    return d.damped ? "damped" : "updated";
+  }
+
+  /** H+ = (I - rho s r') H (I - rho r s') + rho s s', rho = 1 / s'r. */
+  private updateInverse(s: Float64Array, r: Float64Array, sr: number): void {
+    const { n, H } = this;
     const rho = 1 / sr;
     const hr = new Float64Array(n);
-    this.applyH(r, hr);
+    DenseBfgs.mul(H, n, r, hr);
     const rHr = dot(r, hr);
     const c = rho * rho * rHr + rho;
     for (let i = 0; i < n; i++) {
@@ -151,8 +178,6 @@ export class DenseBfgs implements HessianApprox {
       const hi = hr[i];
       for (let j = 0; j < n; j++) H[o + j] += c * si * s[j] - rho * (si * hr[j] + hi * s[j]);
     }
-    this.fresh = false;
-    return d.damped ? "damped" : "updated";
   }
 }
 
@@ -186,8 +211,11 @@ class DenseReducedInverse implements ReducedInverse {
   private readonly pos: Int32Array; // block position of variable j, -1 when fixed
   private m: number;
 
-  constructor(private readonly B: Float64Array, H: Float64Array, private readonly n: number, private readonly scratch: BlockScratch) {
-    this.HF = H.slice();
+  /** False until the block holds something: a QP that fixes bounds first never copies H. */
+  private ready = false;
+
+  constructor(private readonly B: Float64Array, private readonly inverse: () => Float64Array, private readonly n: number, private readonly scratch: BlockScratch) {
+    this.HF = new Float64Array(n * n);
     this.fixed = new Uint8Array(n);
     this.idx = new Int32Array(n);
     this.pos = new Int32Array(n);
@@ -195,7 +223,14 @@ class DenseReducedInverse implements ReducedInverse {
     this.m = n;
   }
 
+  /** Nothing fixed yet: the block is all of H. */
+  private start(): void {
+    this.HF.set(this.inverse());
+    this.ready = true;
+  }
+
   apply(v: Float64Array, out: Float64Array): void {
+    if (!this.ready) this.start();
     const { n, HF, idx, m } = this;
     const { vF, nonzeros } = this.scratch;
     // the QP applies the block to bound normals (one nonzero) as often as to dense vectors:
@@ -219,6 +254,7 @@ class DenseReducedInverse implements ReducedInverse {
 
   fix(j: number): void {
     if (this.fixed[j]) return;
+    if (!this.ready) this.start();
     const { n, HF } = this;
     const a = this.pos[j];
     const m = this.m;
@@ -257,6 +293,7 @@ class DenseReducedInverse implements ReducedInverse {
   free(j: number): void {
     const { n, HF, B, fixed, idx } = this;
     if (!fixed[j]) return;
+    if (!this.ready) this.start();
     const m = this.m;
     const b = this.scratch.column;
     for (let a = 0; a < m; a++) b[a] = B[idx[a] * n + j];
@@ -296,6 +333,7 @@ class DenseReducedInverse implements ReducedInverse {
       else { idx[m] = j; pos[j] = m; m++; }
     }
     this.m = m;
+    this.ready = true;
     const L = this.scratch.factor;
     for (let a = 0; a < m; a++) {
       const ba = idx[a] * n;
