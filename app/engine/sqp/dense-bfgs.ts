@@ -36,14 +36,20 @@ export class DenseBfgs implements HessianApprox {
   private fresh = true;
   /** Scratch: positions of the nonzero entries of the vector being multiplied. */
   private readonly nonzeros: Int32Array;
-  /** Scratch of every reduced inverse made from this matrix (one is used at a time per call). */
+  /**
+   * The block and work vectors of the reduced inverse: one QP uses one at a time, so the newest
+   * gets them (allocating an n^2 block per QP cost more than the QP on small problems).
+   */
   private readonly blockScratch: BlockScratch;
 
   constructor(readonly n: number) {
     this.B = new Float64Array(n * n);
     this.H = new Float64Array(n * n);
     this.nonzeros = new Int32Array(n);
-    this.blockScratch = { vF: new Float64Array(n), nonzeros: new Int32Array(n), column: new Float64Array(n), product: new Float64Array(n), factor: new Float64Array(n * n), factorTransposed: new Float64Array(n * n) };
+    this.blockScratch = {
+      HF: new Float64Array(n * n), fixed: new Uint8Array(n), idx: new Int32Array(n), pos: new Int32Array(n), owner: null,
+      vF: new Float64Array(n), nonzeros: new Int32Array(n), column: new Float64Array(n), product: new Float64Array(n), factor: new Float64Array(n * n), factorTransposed: new Float64Array(n * n),
+    };
     this.reset();
   }
 
@@ -186,6 +192,13 @@ export class DenseBfgs implements HessianApprox {
  * then allocates nothing, and a QP's setup only the block itself.
  */
 interface BlockScratch {
+  /** The block (stride n) and its index maps, lent to the newest reduced inverse. */
+  HF: Float64Array;
+  fixed: Uint8Array;
+  idx: Int32Array;
+  pos: Int32Array;
+  /** The reduced inverse the block belongs to now; an older one refuses to work (no silent sharing). */
+  owner: DenseReducedInverse | null;
   vF: Float64Array;
   nonzeros: Int32Array;
   column: Float64Array;
@@ -215,22 +228,26 @@ class DenseReducedInverse implements ReducedInverse {
   private ready = false;
 
   constructor(private readonly B: Float64Array, private readonly inverse: () => Float64Array, private readonly n: number, private readonly scratch: BlockScratch) {
-    this.HF = new Float64Array(n * n);
-    this.fixed = new Uint8Array(n);
-    this.idx = new Int32Array(n);
-    this.pos = new Int32Array(n);
+    scratch.owner = this;
+    this.HF = scratch.HF;
+    this.fixed = scratch.fixed;
+    this.idx = scratch.idx;
+    this.pos = scratch.pos;
+    this.fixed.fill(0);
     for (let j = 0; j < n; j++) this.idx[j] = this.pos[j] = j;
     this.m = n;
   }
 
-  /** Nothing fixed yet: the block is all of H. */
-  private start(): void {
+  /** Before every operation: the block must still be this one's; at first use, with nothing fixed, it is all of H. */
+  private ensureBlock(): void {
+    if (this.scratch.owner !== this) throw new Error("A reduced inverse was used after a newer one of the same matrix took its block.");
+    if (this.ready) return;
     this.HF.set(this.inverse());
     this.ready = true;
   }
 
   apply(v: Float64Array, out: Float64Array): void {
-    if (!this.ready) this.start();
+    this.ensureBlock();
     const { n, HF, idx, m } = this;
     const { vF, nonzeros } = this.scratch;
     // the QP applies the block to bound normals (one nonzero) as often as to dense vectors:
@@ -253,8 +270,8 @@ class DenseReducedInverse implements ReducedInverse {
   }
 
   fix(j: number): void {
+    this.ensureBlock();
     if (this.fixed[j]) return;
-    if (!this.ready) this.start();
     const { n, HF } = this;
     const a = this.pos[j];
     const m = this.m;
@@ -285,15 +302,16 @@ class DenseReducedInverse implements ReducedInverse {
 
   /** Many fixes at once: one Cholesky of B_FF, O(m^3) for m free variables, instead of O(k m^2). */
   fixMany(js: number[]): void {
+    if (this.scratch.owner !== this) throw new Error("A reduced inverse was used after a newer one of the same matrix took its block.");
     let added = 0;
     for (const j of js) if (!this.fixed[j]) { this.fixed[j] = 1; added++; }
     if (added > 0) this.rebuild();
   }
 
   free(j: number): void {
+    this.ensureBlock();
     const { n, HF, B, fixed, idx } = this;
     if (!fixed[j]) return;
-    if (!this.ready) this.start();
     const m = this.m;
     const b = this.scratch.column;
     for (let a = 0; a < m; a++) b[a] = B[idx[a] * n + j];

@@ -135,6 +135,37 @@ describe.each([
   });
 });
 
+describe("dense BFGS: the reduced inverse's shared block", () => {
+  // The dense matrix lends one n^2 block to its newest reduced inverse (dense-bfgs.ts); a warm
+  // start that fixes many variables at once rebuilds it from B_FF. Reference: inv(B_FF) by
+  // Gauss-Jordan elimination above (textbook, common practice).
+  it("fixMany gives inv(B_FF), and an older reduced inverse refuses to work once a newer one exists", () => {
+    const n = 6;
+    const h = new DenseBfgs(n);
+    const rand = lcg(5);
+    for (let k = 0; k < 4; k++) {
+      const s = Float64Array.from({ length: n }, rand);
+      h.update(s, Float64Array.from(s, (v, i) => (1 + i) * v));
+    }
+    const B = denseOf(h, n, "B");
+    const older = h.reduced();
+    older.fixMany!([0, 3]);
+    const red = h.reduced();
+    red.fixMany!([1, 4, 5]);
+    const free = [0, 2, 3];
+    const inv = invert(free.map((i) => free.map((j) => B[i][j])));
+    for (let a = 0; a < free.length; a++) {
+      const e = new Float64Array(n);
+      e[free[a]] = 1;
+      const o = new Float64Array(n);
+      red.apply(e, o);
+      for (let b = 0; b < free.length; b++) expect(o[free[b]]).toBeCloseTo(inv[b][a], 9);
+    }
+    expect(() => older.apply(new Float64Array(n), new Float64Array(n))).toThrow(/newer one/);
+    expect(() => older.fix(2)).toThrow(/newer one/);
+  });
+});
+
 describe("solveQp (dual active set) on closed-form problems", () => {
   const identity = (n: number) => {
     const h = new DenseBfgs(n);
