@@ -111,6 +111,10 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     patternIndex.push(Int32Array.from(cols));
     rowPos.push(new Map(cols.map((c, k) => [c, k])));
   }
+  // The pattern of each load case's rows: its displacement columns shifted by l * nFree.
+  const casePattern = Array.from({ length: nLc }, (_, l) =>
+    l === 0 ? patternIndex : patternIndex.map((ix) => ix.map((c) => (c >= nD ? c + l * nFree : c))),
+  );
   // Per member and local row (6), the value positions of its area column and u columns (6x6).
   const posA = new Int32Array(m * 6).fill(-1);
   const posU = new Int32Array(m * 36).fill(-1);
@@ -163,23 +167,17 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     return (st.areas[e] * s.E[e] * (dv[0] * dU[0] + dv[1] * dU[1] + dv[2] * dU[2])) / (L * L * L);
   }
 
-  function sparseFrom(map: Map<number, number>): SparseRow {
-    const cols = [...map.keys()].sort((a, b) => a - b);
-    const index = Int32Array.from(cols);
-    const value = new Float64Array(cols.length);
-    cols.forEach((c, k) => (value[k] = map.get(c)!));
-    return { index, value };
-  }
+  const sums = new ColumnSums(n);
 
-  function designColumns(part: Partials, map: Map<number, number>) {
+  function designColumns(part: Partials, sums: ColumnSums) {
     for (let k = 0; k < part.aIdx.length; k++) {
       const v = p.memberVar[part.aIdx[k]];
-      map.set(v, (map.get(v) ?? 0) + part.aVal[k] * p.areaVars[v].scale);
+      sums.add(v, part.aVal[k] * p.areaVars[v].scale);
     }
     for (let k = 0; k < part.xIdx.length; k++) {
       const list = p.dofShape.get(part.xIdx[k]);
       if (!list) continue;
-      for (const { v, c } of list) map.set(v, (map.get(v) ?? 0) + part.xVal[k] * c);
+      for (const { v, c } of list) sums.add(v, part.xVal[k] * c);
     }
   }
 
@@ -251,9 +249,9 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
       const grad = new Float64Array(n);
       if (p.objective === "mass") {
         massPartials(p, st, part);
-        const map = new Map<number, number>();
-        designColumns(part, map);
-        for (const [c, v] of map) grad[c] = v / objectiveScale;
+        designColumns(part, sums);
+        const { index, value } = sums.take();
+        for (let k = 0; k < index.length; k++) grad[index[k]] = value[k] / objectiveScale;
       } else {
         const gDesign = new Float64Array(nD);
         for (let l = 0; l < nLc; l++) {
@@ -310,12 +308,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
             }
           }
         }
-        const shift = l * nFree;
-        for (let r = 0; r < nFree; r++) {
-          const ix = patternIndex[r];
-          const index = shift === 0 ? ix : ix.map((c) => (c >= nD ? c + shift : c));
-          eq.push({ index, value: vals[r] });
-        }
+        for (let r = 0; r < nFree; r++) eq.push({ index: casePattern[l][r], value: vals[r] });
       }
 
       // Requested limits.
@@ -323,8 +316,7 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
       for (let k = 0; k < rows.length; k++) {
         const lim = p.limits[rows[k]];
         limitPartials(p, lim, st, part);
-        const map = new Map<number, number>();
-        designColumns(part, map);
+        designColumns(part, sums);
         if (part.uIdx.length) {
           // a combination's u is the factored sum of its cases' displacement variables
           const factors = responseFactors(nLc, s.combinations, lim.loadCase);
@@ -334,11 +326,11 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
             const sc = uRef[l] * factors[l];
             for (let t = 0; t < part.uIdx.length; t++) {
               const c = off + freeIndex[part.uIdx[t]];
-              map.set(c, (map.get(c) ?? 0) + part.uVal[t] * sc);
+              sums.add(c, part.uVal[t] * sc);
             }
           }
         }
-        ineq.push(sparseFrom(map));
+        ineq.push(sums.take());
       }
       return { grad, eq, ineq };
     },
@@ -384,4 +376,43 @@ export function simultaneousFormulation(p: DesignProblem): SimultaneousFormulati
     },
   };
   return { problem, counters, objectiveScale, nFree, stateAt };
+}
+
+/**
+ * Sums of terms by column, taken as a sparse row (columns ascending): what a Map from column to
+ * sum did here, without a Map per row. Each column's terms are added in the order they come,
+ * starting from 0 as the Map's did, so the sums have the same bits.
+ */
+class ColumnSums {
+  private readonly sum: Float64Array;
+  private readonly touched: Uint8Array;
+  private readonly columns: number[] = [];
+
+  constructor(n: number) {
+    this.sum = new Float64Array(n);
+    this.touched = new Uint8Array(n);
+  }
+
+  add(column: number, term: number): void {
+    if (this.touched[column]) this.sum[column] += term;
+    else {
+      this.touched[column] = 1;
+      this.sum[column] = 0 + term;
+      this.columns.push(column);
+    }
+  }
+
+  /** The row so far, and the sums emptied for the next one. */
+  take(): SparseRow {
+    const { sum, touched, columns } = this;
+    columns.sort((a, b) => a - b);
+    const index = Int32Array.from(columns);
+    const value = new Float64Array(columns.length);
+    for (let k = 0; k < columns.length; k++) {
+      value[k] = sum[columns[k]];
+      touched[columns[k]] = 0;
+    }
+    columns.length = 0;
+    return { index, value };
+  }
 }
