@@ -79,164 +79,241 @@ export function qpKey(kind: "eq" | "ineq" | "lower" | "upper", i: number, nEq: n
 }
 
 export function solveQp(q: QpInput): QpOutput {
-  const { dim, base, eq, ineq, eqRhs, ineqRhs, lower, upper } = q;
-  const nE = eq.length;
-  const nI = ineq.length;
-  const offL = nE + nI;
-  const offU = offL + dim;
-  const total = offU + dim;
-  const maxIt = q.maxIterations ?? 10 * (total + 10);
-  const HF = q.hessian.reduced();
+  return new DualActiveSet(q).solve();
+}
 
-  // general active rows (keys < offL), in factor order
-  const active: number[] = [];
-  const u: number[] = [];
-  const isActive = new Uint8Array(total);
-  const skipped = new Uint8Array(total);
-  const warm = new Uint8Array(total);
-  if (q.warm) for (let k = 0; k < q.warm.length; k++) if (q.warm[k] >= 0 && q.warm[k] < total) warm[q.warm[k]] = 1;
-  const eqSign = new Float64Array(nE).fill(1);
-  const chol = new GrowingCholesky();
+/**
+ * One solve's state. A class rather than closures over locals: the test and bench runner
+ * (tsx) names every closure at its creation, and on small problems naming the dozen helpers
+ * of each solve cost a fifth of the Hock–Schittkowski table.
+ */
+class DualActiveSet {
+  private readonly dim: number;
+  private readonly base: number;
+  private readonly eq: QpRow[];
+  private readonly ineq: QpRow[];
+  private readonly eqRhs: Float64Array;
+  private readonly ineqRhs: Float64Array;
+  private readonly lower: Float64Array;
+  private readonly upper: Float64Array;
+  private readonly nE: number;
+  private readonly nI: number;
+  private readonly offL: number;
+  private readonly offU: number;
+  private readonly maxIt: number;
+  private readonly HF: ReducedInverse;
+
+  // general active rows (keys < offL), in factor order, and their multipliers
+  private readonly active: number[] = [];
+  private readonly u: number[] = [];
+  private readonly isActive: Uint8Array;
+  private readonly skipped: Uint8Array;
+  private readonly warm: Uint8Array;
+  private readonly eqSign: Float64Array;
+  private readonly chol = new GrowingCholesky();
   // bounds: fixedSide[j] = -1 at lower, +1 at upper, 0 free; uB their multipliers
-  const fixedSide = new Int8Array(dim);
-  const uB = new Float64Array(dim);
+  private readonly fixedSide: Int8Array;
+  private readonly uB: Float64Array;
 
-  const s = new Float64Array(dim);
-  const vEq = new Float64Array(nE);
-  const vIn = new Float64Array(nI);
+  private readonly s: Float64Array;
+  private readonly vEq: Float64Array;
+  private readonly vIn: Float64Array;
 
-  const rhsOf = (key: number, eRhs = eqRhs, iRhs = ineqRhs): number => {
-    if (key < nE) return eqSign[key] * eRhs[key];
+  private readonly hn: Float64Array;
+  private readonly z: Float64Array;
+  private readonly bz: Float64Array;
+  private readonly unit: Float64Array;
+  private readonly fixedList: Int32Array; // the variables at a bound, for the dual direction
+  private readonly np: Float64Array; // the normal of the constraint being added
+  private readonly w: Float64Array; // N'H_F n+ over the active general rows, first k entries
+  private readonly tmp: Float64Array; // n+ - N r
+  private iterations = 0;
+  // the constraint to add next (consider) and the multiplier it has gathered so far
+  private p = -1;
+  private pClass = 3;
+  private pViol = 0;
+  private up = 0;
+
+  constructor(private readonly q: QpInput) {
+    const { dim, base, eq, ineq, eqRhs, ineqRhs, lower, upper } = q;
+    this.dim = dim;
+    this.base = base;
+    this.eq = eq;
+    this.ineq = ineq;
+    this.eqRhs = eqRhs;
+    this.ineqRhs = ineqRhs;
+    this.lower = lower;
+    this.upper = upper;
+    const nE = (this.nE = eq.length);
+    const nI = (this.nI = ineq.length);
+    this.offL = nE + nI;
+    this.offU = this.offL + dim;
+    const total = this.offU + dim;
+    this.maxIt = q.maxIterations ?? 10 * (total + 10);
+    this.HF = q.hessian.reduced();
+    this.isActive = new Uint8Array(total);
+    this.skipped = new Uint8Array(total);
+    this.warm = new Uint8Array(total);
+    if (q.warm) for (let k = 0; k < q.warm.length; k++) if (q.warm[k] >= 0 && q.warm[k] < total) this.warm[q.warm[k]] = 1;
+    this.eqSign = new Float64Array(nE).fill(1);
+    this.fixedSide = new Int8Array(dim);
+    this.uB = new Float64Array(dim);
+    this.s = new Float64Array(dim);
+    this.vEq = new Float64Array(nE);
+    this.vIn = new Float64Array(nI);
+    this.hn = new Float64Array(dim);
+    this.z = new Float64Array(dim);
+    this.bz = new Float64Array(dim);
+    this.unit = new Float64Array(dim);
+    this.fixedList = new Int32Array(dim);
+    this.np = new Float64Array(dim);
+    this.w = new Float64Array(nE + nI);
+    this.tmp = new Float64Array(dim);
+  }
+
+  private rhsOf(key: number, eRhs = this.eqRhs, iRhs = this.ineqRhs): number {
+    const { nE, offL, offU } = this;
+    if (key < nE) return this.eqSign[key] * eRhs[key];
     if (key < offL) return iRhs[key - nE];
-    if (key < offU) return -lower[key - offL];
-    return upper[key - offU];
-  };
-  const normalDot = (key: number, v: Float64Array): number => {
-    if (key < nE) return eqSign[key] * rowDot(eq[key], v, base);
-    if (key < offL) return rowDot(ineq[key - nE], v, base);
+    if (key < offU) return -this.lower[key - offL];
+    return this.upper[key - offU];
+  }
+
+  private normalDot(key: number, v: Float64Array): number {
+    const { nE, offL, offU } = this;
+    if (key < nE) return this.eqSign[key] * rowDot(this.eq[key], v, this.base);
+    if (key < offL) return rowDot(this.ineq[key - nE], v, this.base);
     if (key < offU) return -v[key - offL];
     return v[key - offU];
-  };
-  const normalAxpy = (key: number, alpha: number, out: Float64Array): void => {
-    if (key < nE) rowAxpy(eq[key], alpha * eqSign[key], out, base);
-    else if (key < offL) rowAxpy(ineq[key - nE], alpha, out, base);
+  }
+
+  private normalAxpy(key: number, alpha: number, out: Float64Array): void {
+    const { nE, offL, offU } = this;
+    if (key < nE) rowAxpy(this.eq[key], alpha * this.eqSign[key], out, this.base);
+    else if (key < offL) rowAxpy(this.ineq[key - nE], alpha, out, this.base);
     else if (key < offU) out[key - offL] -= alpha;
     else out[key - offU] += alpha;
-  };
-  const violation = (key: number): number => {
-    if (key < nE) return Math.abs(vEq[key] - eqRhs[key]);
-    if (key < offL) return vIn[key - nE] - ineqRhs[key - nE];
-    if (key < offU) return lower[key - offL] - s[key - offL];
-    return s[key - offU] - upper[key - offU];
-  };
-  const tolOf = (key: number): number => 1e-11 * (1 + Math.abs(rhsOf(key)));
+  }
 
-  const hn = new Float64Array(dim);
-  const z = new Float64Array(dim);
-  const bz = new Float64Array(dim);
-  const unit = new Float64Array(dim);
-  const fixedList = new Int32Array(dim); // the variables at a bound, for the dual direction
+  private violation(key: number): number {
+    const { nE, offL, offU, s } = this;
+    if (key < nE) return Math.abs(this.vEq[key] - this.eqRhs[key]);
+    if (key < offL) return this.vIn[key - nE] - this.ineqRhs[key - nE];
+    if (key < offU) return this.lower[key - offL] - s[key - offL];
+    return s[key - offU] - this.upper[key - offU];
+  }
+
+  private tolOf(key: number): number {
+    return 1e-11 * (1 + Math.abs(this.rhsOf(key)));
+  }
 
   /** w = N' H_F e_j for the active general rows, and (H_F)_jj. */
-  const boundColumn = (j: number): { w: Float64Array; hjj: number } => {
+  private boundColumn(j: number): { w: Float64Array; hjj: number } {
+    const { unit, hn, active } = this;
     unit.fill(0);
     unit[j] = 1;
-    HF.apply(unit, hn);
+    this.HF.apply(unit, hn);
     const w = new Float64Array(active.length);
-    for (let a = 0; a < active.length; a++) w[a] = normalDot(active[a], hn);
+    for (let a = 0; a < active.length; a++) w[a] = this.normalDot(active[a], hn);
     return { w, hjj: hn[j] };
-  };
+  }
 
   /** S = N'H_F N from scratch (after a failed downdate); rows that became dependent are released. */
-  const refactor = (): void => {
+  private refactor(): void {
+    const { chol, active, u, hn } = this;
     chol.clear();
     const keep: number[] = [];
     const keepU: number[] = [];
-    const np = new Float64Array(dim);
+    const np = new Float64Array(this.dim);
     for (let a = 0; a < active.length; a++) {
       np.fill(0);
-      normalAxpy(active[a], 1, np);
-      HF.apply(np, hn);
+      this.normalAxpy(active[a], 1, np);
+      this.HF.apply(np, hn);
       const w = new Float64Array(keep.length);
-      for (let b = 0; b < keep.length; b++) w[b] = normalDot(keep[b], hn);
+      for (let b = 0; b < keep.length; b++) w[b] = this.normalDot(keep[b], hn);
       const y = chol.forward(w);
-      let d2 = normalDot(active[a], hn);
+      let d2 = this.normalDot(active[a], hn);
       for (let b = 0; b < y.length; b++) d2 -= y[b] * y[b];
-      if (d2 > 1e-12 * Math.abs(normalDot(active[a], hn))) {
+      if (d2 > 1e-12 * Math.abs(this.normalDot(active[a], hn))) {
         chol.append(y, Math.sqrt(d2));
         keep.push(active[a]);
         keepU.push(u[a]);
-      } else isActive[active[a]] = 0;
+      } else this.isActive[active[a]] = 0;
     }
     active.length = 0;
     appendAll(active, keep);
     u.length = 0;
     appendAll(u, keepU);
-  };
+  }
 
   /** Fix bound j; w = N'H_F e_j (up to sign) and hjj = (H_F)_jj come from the caller's step. */
-  const fixBound = (j: number, side: number, w: Float64Array, hjj: number): void => {
-    HF.fix(j);
-    fixedSide[j] = side;
-    s[j] = side < 0 ? lower[j] : upper[j];
-    if (active.length > 0) {
-      if (!(hjj > 0)) refactor();
+  private fixBound(j: number, side: number, w: Float64Array, hjj: number): void {
+    this.HF.fix(j);
+    this.fixedSide[j] = side;
+    this.s[j] = side < 0 ? this.lower[j] : this.upper[j];
+    if (this.active.length > 0) {
+      if (!(hjj > 0)) this.refactor();
       else {
         const v = Float64Array.from(w);
         for (let a = 0; a < v.length; a++) v[a] /= Math.sqrt(hjj);
-        if (!chol.rankOneDowndate(v)) refactor();
+        if (!this.chol.rankOneDowndate(v)) this.refactor();
       }
     }
-  };
+  }
 
-  const freeBound = (j: number): void => {
-    HF.free(j);
-    fixedSide[j] = 0;
-    uB[j] = 0;
-    if (active.length > 0) {
-      const { w, hjj } = boundColumn(j);
+  private freeBound(j: number): void {
+    this.HF.free(j);
+    this.fixedSide[j] = 0;
+    this.uB[j] = 0;
+    if (this.active.length > 0) {
+      const { w, hjj } = this.boundColumn(j);
       if (hjj > 0) {
         for (let a = 0; a < w.length; a++) w[a] /= Math.sqrt(hjj);
-        chol.rankOneUpdate(w);
-      } else refactor();
+        this.chol.rankOneUpdate(w);
+      } else this.refactor();
     }
-  };
+  }
 
-  const dropGeneral = (pos: number): void => {
-    isActive[active[pos]] = 0;
-    active.splice(pos, 1);
-    u.splice(pos, 1);
-    chol.remove(pos);
-  };
+  private dropGeneral(pos: number): void {
+    this.isActive[this.active[pos]] = 0;
+    this.active.splice(pos, 1);
+    this.u.splice(pos, 1);
+    this.chol.remove(pos);
+  }
 
-  const finish = (status: QpOutput["status"], iterations: number): QpOutput => {
+  /** The equality-constrained solution for new right-hand sides with the final active set (QpOutput.resolve). */
+  private resolve(eRhs: Float64Array, iRhs: Float64Array): Float64Array {
+    const { dim, fixedSide, lower, upper, q, HF, active } = this;
+    const sB = new Float64Array(dim);
+    for (let j = 0; j < dim; j++) sB[j] = fixedSide[j] < 0 ? lower[j] : fixedSide[j] > 0 ? upper[j] : 0;
+    const r = new Float64Array(dim);
+    const h = new Float64Array(dim);
+    const out = new Float64Array(dim);
+    q.hessian.applyB(sB, r);
+    for (let j = 0; j < dim; j++) r[j] += q.g[j];
+    HF.apply(r, h);
+    const k = active.length;
+    const rhs = new Float64Array(k);
+    for (let a = 0; a < k; a++) rhs[a] = -this.normalDot(active[a], h) - this.rhsOf(active[a], eRhs, iRhs) + this.normalDot(active[a], sB);
+    const sol = k > 0 ? this.chol.solve(rhs) : rhs;
+    for (let a = 0; a < k; a++) this.normalAxpy(active[a], sol[a], r);
+    HF.apply(r, out);
+    for (let j = 0; j < dim; j++) out[j] = fixedSide[j] !== 0 ? sB[j] : -out[j];
+    return out;
+  }
+
+  private finish(status: QpOutput["status"]): QpOutput {
+    const { dim, nE, nI, active, u, eqSign, fixedSide, q, offL, offU } = this;
     const out: QpOutput = {
       status,
-      s,
+      s: this.s,
       eq: new Float64Array(nE),
       ineq: new Float64Array(nI),
       lower: new Float64Array(dim),
       upper: new Float64Array(dim),
       active: active.slice(),
-      iterations,
-      resolve: (eRhs, iRhs) => {
-        const sB = new Float64Array(dim);
-        for (let j = 0; j < dim; j++) sB[j] = fixedSide[j] < 0 ? lower[j] : fixedSide[j] > 0 ? upper[j] : 0;
-        const r = new Float64Array(dim);
-        const h = new Float64Array(dim);
-        const out = new Float64Array(dim);
-        q.hessian.applyB(sB, r);
-        for (let j = 0; j < dim; j++) r[j] += q.g[j];
-        HF.apply(r, h);
-        const k = active.length;
-        const rhs = new Float64Array(k);
-        for (let a = 0; a < k; a++) rhs[a] = -normalDot(active[a], h) - rhsOf(active[a], eRhs, iRhs) + normalDot(active[a], sB);
-        const sol = k > 0 ? chol.solve(rhs) : rhs;
-        for (let a = 0; a < k; a++) normalAxpy(active[a], sol[a], r);
-        HF.apply(r, out);
-        for (let j = 0; j < dim; j++) out[j] = fixedSide[j] !== 0 ? sB[j] : -out[j];
-        return out;
-      },
+      iterations: this.iterations,
+      resolve: (eRhs, iRhs) => this.resolve(eRhs, iRhs),
     };
     for (let a = 0; a < active.length; a++) {
       const key = active[a];
@@ -245,9 +322,9 @@ export function solveQp(q: QpInput): QpOutput {
     }
     // bound multipliers from stationarity (more accurate than the running values)
     const r = new Float64Array(dim);
-    q.hessian.applyB(s, r);
+    q.hessian.applyB(this.s, r);
     for (let i = 0; i < dim; i++) r[i] += q.g[i];
-    for (let a = 0; a < active.length; a++) normalAxpy(active[a], u[a], r);
+    for (let a = 0; a < active.length; a++) this.normalAxpy(active[a], u[a], r);
     for (let j = 0; j < dim; j++) {
       if (fixedSide[j] < 0) {
         out.lower[j] = Math.max(0, r[j]);
@@ -258,13 +335,7 @@ export function solveQp(q: QpInput): QpOutput {
       }
     }
     return out;
-  };
-
-  const np = new Float64Array(dim);
-  let iterations = 0;
-  startFromWarmSet();
-  for (let i = 0; i < nE; i++) vEq[i] = rowDot(eq[i], s, base);
-  for (let i = 0; i < nI; i++) vIn[i] = rowDot(ineq[i], s, base);
+  }
 
   /**
    * Warm start in bulk: every equality row and warm inequality row active and every warm bound
@@ -273,7 +344,8 @@ export function solveQp(q: QpInput): QpOutput {
    * repeated until none is. The result is a valid dual-feasible start for Goldfarb-Idnani at
    * about a third of the cost of adding the same constraints one by one.
    */
-  function startFromWarmSet(): void {
+  private startFromWarmSet(): void {
+    const { dim, nE, offL, offU, warm, lower, upper, fixedSide, HF, active, u, isActive, q, s, uB } = this;
     const toFix: number[] = [];
     for (let j = 0; j < dim; j++) {
       if (warm[offL + j] && lower[j] > -Infinity) fixedSide[j] = -1;
@@ -287,7 +359,7 @@ export function solveQp(q: QpInput): QpOutput {
     for (const key of active) isActive[key] = 1;
     u.length = active.length;
     u.fill(0);
-    refactor();
+    this.refactor();
     const sB = new Float64Array(dim);
     const r = new Float64Array(dim);
     const h = new Float64Array(dim);
@@ -299,23 +371,23 @@ export function solveQp(q: QpInput): QpOutput {
       HF.apply(r, h);
       const k = active.length;
       const rhs = new Float64Array(k);
-      for (let a = 0; a < k; a++) rhs[a] = -normalDot(active[a], h) - rhsOf(active[a]) + normalDot(active[a], sB);
-      const sol = k > 0 ? chol.solve(rhs) : rhs;
+      for (let a = 0; a < k; a++) rhs[a] = -this.normalDot(active[a], h) - this.rhsOf(active[a]) + this.normalDot(active[a], sB);
+      const sol = k > 0 ? this.chol.solve(rhs) : rhs;
       for (let a = 0; a < k; a++) {
         u[a] = sol[a];
-        normalAxpy(active[a], sol[a], r);
+        this.normalAxpy(active[a], sol[a], r);
       }
       HF.apply(r, s);
       for (let j = 0; j < dim; j++) s[j] = fixedSide[j] !== 0 ? sB[j] : -s[j];
       // multipliers of the bounds from stationarity: r = B s + g + N u
       q.hessian.applyB(s, r);
       for (let j = 0; j < dim; j++) r[j] += q.g[j];
-      for (let a = 0; a < k; a++) normalAxpy(active[a], u[a], r);
+      for (let a = 0; a < k; a++) this.normalAxpy(active[a], u[a], r);
       const giveUp = round >= 30;
       let released = 0;
       for (let a = k - 1; a >= 0; a--) {
         if (active[a] >= nE && (u[a] < 0 || giveUp)) {
-          dropGeneral(a);
+          this.dropGeneral(a);
           released++;
         }
       }
@@ -323,7 +395,7 @@ export function solveQp(q: QpInput): QpOutput {
         if (fixedSide[j] === 0) continue;
         const mult = fixedSide[j] < 0 ? r[j] : -r[j];
         if (mult < 0 || giveUp) {
-          freeBound(j);
+          this.freeBound(j);
           released++;
         } else uB[j] = mult;
       }
@@ -332,139 +404,144 @@ export function solveQp(q: QpInput): QpOutput {
     }
   }
 
-  // the constraint to add next (consider), and the dual step's data (dualStep, dropBlocking)
-  let p = -1;
-  let pClass = 3;
-  let pViol = 0;
-  let up = 0;
-  const w = new Float64Array(nE + nI); // N'H_F n+ over the active general rows, first k entries
-  const tmp = new Float64Array(dim); // n+ - N r
-  function consider(key: number, cls: number): void {
-    const v = violation(key);
-    if (!(v > tolOf(key)) || skipped[key]) return;
-    if (cls < pClass || (cls === pClass && v > pViol)) {
-      p = key;
-      pClass = cls;
-      pViol = v;
+  private consider(key: number, cls: number): void {
+    const v = this.violation(key);
+    if (!(v > this.tolOf(key)) || this.skipped[key]) return;
+    if (cls < this.pClass || (cls === this.pClass && v > this.pViol)) {
+      this.p = key;
+      this.pClass = cls;
+      this.pViol = v;
     }
   }
+
   /** Moves the multipliers by t along the dual direction: r for the active rows, side_j (tmp - Bz)_j for the bounds. */
-  function dualStep(t: number, r: Float64Array): void {
+  private dualStep(t: number, r: Float64Array): void {
+    const { u, uB, fixedSide, tmp, bz, dim } = this;
     for (let a = 0; a < r.length; a++) u[a] -= t * r[a];
     for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) uB[j] = Math.max(0, uB[j] - t * fixedSide[j] * (tmp[j] - bz[j]));
-    up += t;
-  }
-  function dropBlocking(lBound: number, lGen: number): void {
-    if (lBound >= 0) freeBound(lBound);
-    else dropGeneral(lGen);
+    this.up += t;
   }
 
-  for (;;) {
-    // choose the next violated constraint: equalities, then the warm set, then the rest
-    p = -1;
-    pClass = 3;
-    pViol = 0;
-    for (let i = 0; i < nE; i++) if (!isActive[i]) consider(i, 0);
-    if (p < 0) {
-      for (let key = nE; key < offL; key++) if (!isActive[key]) consider(key, warm[key] ? 1 : 2);
-      for (let j = 0; j < dim; j++) {
-        if (fixedSide[j] !== 0) continue;
-        if (lower[j] > -Infinity) consider(offL + j, warm[offL + j] ? 1 : 2);
-        if (upper[j] < Infinity) consider(offU + j, warm[offU + j] ? 1 : 2);
-      }
-    }
-    if (p < 0) return finish("optimal", iterations);
-    if (p < nE) eqSign[p] = vEq[p] - eqRhs[p] >= 0 ? 1 : -1;
-    const pBound = p >= offL ? (p < offU ? p - offL : p - offU) : -1;
+  private dropBlocking(lBound: number, lGen: number): void {
+    if (lBound >= 0) this.freeBound(lBound);
+    else this.dropGeneral(lGen);
+  }
 
-    up = 0;
+  solve(): QpOutput {
+    const { dim, base, eq, ineq, nE, nI, offL, offU, eqRhs, lower, upper, warm, isActive, fixedSide, eqSign, vEq, vIn, s } = this;
+    const { HF, active, u, chol, np, hn, z, bz, w, tmp, uB, q } = this;
+    this.startFromWarmSet();
+    for (let i = 0; i < nE; i++) vEq[i] = rowDot(eq[i], s, base);
+    for (let i = 0; i < nI; i++) vIn[i] = rowDot(ineq[i], s, base);
+
     for (;;) {
-      if (++iterations > maxIt) return finish("iteration-limit", iterations);
-      np.fill(0);
-      normalAxpy(p, 1, np);
-      HF.apply(np, hn);
-      const k = active.length;
-      for (let a = 0; a < k; a++) w[a] = normalDot(active[a], hn);
-      const y = chol.forward(w);
-      const r = chol.backward(y);
-      tmp.set(np);
-      for (let a = 0; a < k; a++) normalAxpy(active[a], -r[a], tmp);
-      HF.apply(tmp, z);
-      const nz = normalDot(p, z);
-      const nHn = normalDot(p, hn);
-      const viol = normalDot(p, s) - rhsOf(p);
-      // dual direction of the fixed bounds: r_j = side_j * (tmp - B z)_j, read on them alone
-      if (q.hessian.applyBRows) {
-        let nFixed = 0;
-        for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) fixedList[nFixed++] = j;
-        q.hessian.applyBRows(z, fixedList, nFixed, bz);
-      } else q.hessian.applyB(z, bz);
-
-      let t1 = Infinity;
-      let lGen = -1;
-      let lBound = -1;
-      for (let a = 0; a < k; a++) {
-        if (active[a] < nE) continue;
-        if (r[a] > 1e-14 * (1 + Math.abs(u[a]))) {
-          const t = u[a] / r[a];
-          if (t < t1) {
-            t1 = t;
-            lGen = a;
-          }
+      // choose the next violated constraint: equalities, then the warm set, then the rest
+      this.p = -1;
+      this.pClass = 3;
+      this.pViol = 0;
+      for (let i = 0; i < nE; i++) if (!isActive[i]) this.consider(i, 0);
+      if (this.p < 0) {
+        for (let key = nE; key < offL; key++) if (!isActive[key]) this.consider(key, warm[key] ? 1 : 2);
+        for (let j = 0; j < dim; j++) {
+          if (fixedSide[j] !== 0) continue;
+          if (lower[j] > -Infinity) this.consider(offL + j, warm[offL + j] ? 1 : 2);
+          if (upper[j] < Infinity) this.consider(offU + j, warm[offU + j] ? 1 : 2);
         }
       }
-      for (let j = 0; j < dim; j++) {
-        if (fixedSide[j] === 0) continue;
-        const rj = fixedSide[j] * (tmp[j] - bz[j]);
-        if (rj > 1e-14 * (1 + uB[j])) {
-          const t = uB[j] / rj;
-          if (t < t1) {
-            t1 = t;
-            lGen = -1;
-            lBound = j;
-          }
-        }
-      }
+      const p = this.p;
+      if (p < 0) return this.finish("optimal");
+      if (p < nE) eqSign[p] = vEq[p] - eqRhs[p] >= 0 ? 1 : -1;
+      const pBound = p >= offL ? (p < offU ? p - offL : p - offU) : -1;
 
-      const dependent = !(nz > 1e-12 * nHn) || !(nz > 0);
-      if (dependent) {
-        if (t1 === Infinity) {
-          // the new normal is a combination of active ones: consistent (ignore) or infeasible
-          if (viol <= 1e-8 * (1 + Math.abs(rhsOf(p)))) {
-            skipped[p] = 1;
-            break;
+      this.up = 0;
+      for (;;) {
+        if (++this.iterations > this.maxIt) return this.finish("iteration-limit");
+        np.fill(0);
+        this.normalAxpy(p, 1, np);
+        HF.apply(np, hn);
+        const k = active.length;
+        for (let a = 0; a < k; a++) w[a] = this.normalDot(active[a], hn);
+        const y = chol.forward(w);
+        const r = chol.backward(y);
+        for (let i = 0; i < dim; i++) tmp[i] = np[i]; // a loop: TypedArray.set costs more at these sizes
+        for (let a = 0; a < k; a++) this.normalAxpy(active[a], -r[a], tmp);
+        HF.apply(tmp, z);
+        const nz = this.normalDot(p, z);
+        const nHn = this.normalDot(p, hn);
+        const viol = this.normalDot(p, s) - this.rhsOf(p);
+        // dual direction of the fixed bounds: r_j = side_j * (tmp - B z)_j, read on them alone
+        if (q.hessian.applyBRows) {
+          let nFixed = 0;
+          for (let j = 0; j < dim; j++) if (fixedSide[j] !== 0) this.fixedList[nFixed++] = j;
+          q.hessian.applyBRows(z, this.fixedList, nFixed, bz);
+        } else q.hessian.applyB(z, bz);
+
+        let t1 = Infinity;
+        let lGen = -1;
+        let lBound = -1;
+        for (let a = 0; a < k; a++) {
+          if (active[a] < nE) continue;
+          if (r[a] > 1e-14 * (1 + Math.abs(u[a]))) {
+            const t = u[a] / r[a];
+            if (t < t1) {
+              t1 = t;
+              lGen = a;
+            }
           }
-          return finish("infeasible", iterations);
         }
-        dualStep(t1, r);
+        for (let j = 0; j < dim; j++) {
+          if (fixedSide[j] === 0) continue;
+          const rj = fixedSide[j] * (tmp[j] - bz[j]);
+          if (rj > 1e-14 * (1 + uB[j])) {
+            const t = uB[j] / rj;
+            if (t < t1) {
+              t1 = t;
+              lGen = -1;
+              lBound = j;
+            }
+          }
+        }
+
+        const dependent = !(nz > 1e-12 * nHn) || !(nz > 0);
+        if (dependent) {
+          if (t1 === Infinity) {
+            // the new normal is a combination of active ones: consistent (ignore) or infeasible
+            if (viol <= 1e-8 * (1 + Math.abs(this.rhsOf(p)))) {
+              this.skipped[p] = 1;
+              break;
+            }
+            return this.finish("infeasible");
+          }
+          this.dualStep(t1, r);
+          if (lGen >= 0) u[lGen] = 0;
+          this.dropBlocking(lBound, lGen);
+          continue;
+        }
+
+        const t2 = viol / nz;
+        const t = Math.min(t1, t2);
+        if (t !== 0) {
+          // a zero step (a multiplier already at zero) leaves s and every row value as they are
+          for (let i = 0; i < dim; i++) s[i] -= t * z[i];
+          for (let i = 0; i < nE; i++) vEq[i] -= t * rowDot(eq[i], z, base);
+          for (let i = 0; i < nI; i++) vIn[i] -= t * rowDot(ineq[i], z, base);
+        }
+        this.dualStep(t, r);
+        if (t2 <= t1) {
+          if (pBound >= 0) {
+            this.fixBound(pBound, p < offU ? -1 : 1, w.subarray(0, k), nHn);
+            uB[pBound] = this.up;
+          } else {
+            chol.append(y, Math.sqrt(nz));
+            active.push(p);
+            u.push(this.up);
+            isActive[p] = 1;
+          }
+          break;
+        }
         if (lGen >= 0) u[lGen] = 0;
-        dropBlocking(lBound, lGen);
-        continue;
+        this.dropBlocking(lBound, lGen);
       }
-
-      const t2 = viol / nz;
-      const t = Math.min(t1, t2);
-      if (t !== 0) {
-        // a zero step (a multiplier already at zero) leaves s and every row value as they are
-        for (let i = 0; i < dim; i++) s[i] -= t * z[i];
-        for (let i = 0; i < nE; i++) vEq[i] -= t * rowDot(eq[i], z, base);
-        for (let i = 0; i < nI; i++) vIn[i] -= t * rowDot(ineq[i], z, base);
-      }
-      dualStep(t, r);
-      if (t2 <= t1) {
-        if (pBound >= 0) {
-          fixBound(pBound, p < offU ? -1 : 1, w.subarray(0, k), nHn);
-          uB[pBound] = up;
-        } else {
-          chol.append(y, Math.sqrt(nz));
-          active.push(p);
-          u.push(up);
-          isActive[p] = 1;
-        }
-        break;
-      }
-      if (lGen >= 0) u[lGen] = 0;
-      dropBlocking(lBound, lGen);
     }
   }
 }
