@@ -99,6 +99,11 @@ export class ScaledProblem {
     return parts.join(", ");
   }
 
+  /** " at <the point>" for a message; formatted only when a check fails (at every call it cost more than the checks). */
+  private at(xs: Float64Array): string {
+    return ` at ${this.describePoint(xs)}`;
+  }
+
   private static rethrowAbort(e: unknown): void {
     if (e instanceof Error && e.name === "AbortError") throw e;
   }
@@ -113,21 +118,19 @@ export class ScaledProblem {
       ScaledProblem.rethrowAbort(e);
       return { ok: false, message: `The problem's evaluate() stopped with an error at ${this.describePoint(xs)}: ${e instanceof Error ? e.message : String(e)}.` };
     }
-    // the point is described only in a message: formatting it at every call cost more than the checks
-    const where = () => ` at ${this.describePoint(xs)}`;
-    if (!out || typeof out.f !== "number" || !Number.isFinite(out.f)) return { ok: false, message: `The objective returned ${out ? String(out.f) : "nothing"}${where()}.` };
+    if (!out || typeof out.f !== "number" || !Number.isFinite(out.f)) return { ok: false, message: `The objective returned ${out ? String(out.f) : "nothing"}${this.at(xs)}.` };
     const eqRaw = out.eq ?? new Float64Array(0);
     const ineqRaw = out.ineq ?? new Float64Array(0);
     if (eqRaw.length !== this.nEq) return { ok: false, message: `evaluate() returned ${eqRaw.length} equality values, but the problem declares nEq = ${this.nEq}.` };
     if (ineqRaw.length !== this.nIneq) return { ok: false, message: `evaluate() returned ${ineqRaw.length} inequality values, but the problem declares nIneq = ${this.nIneq}.` };
     const ce = new Float64Array(this.nEq);
     for (let i = 0; i < this.nEq; i++) {
-      if (!Number.isFinite(eqRaw[i])) return { ok: false, message: `The ${this.eqName(i)} returned ${eqRaw[i]}${where()}.` };
+      if (!Number.isFinite(eqRaw[i])) return { ok: false, message: `The ${this.eqName(i)} returned ${eqRaw[i]}${this.at(xs)}.` };
       ce[i] = eqRaw[i] * this.eqScale[i];
     }
     const ci = new Float64Array(this.nIneq);
     for (let i = 0; i < this.nIneq; i++) {
-      if (!Number.isFinite(ineqRaw[i])) return { ok: false, message: `The ${this.ineqName(i)} returned ${ineqRaw[i]}${where()}.` };
+      if (!Number.isFinite(ineqRaw[i])) return { ok: false, message: `The ${this.ineqName(i)} returned ${ineqRaw[i]}${this.at(xs)}.` };
       ci[i] = ineqRaw[i] * this.inScale[i];
     }
     return { ok: true, value: { f: out.f * this.fScale, ce, ci, fRaw: out.f, eqRaw: Float64Array.from(eqRaw), ineqRaw: Float64Array.from(ineqRaw) } };
@@ -167,10 +170,9 @@ export class ScaledProblem {
       ScaledProblem.rethrowAbort(e);
       return { ok: false, message: `The problem's derivatives() stopped with an error at ${this.describePoint(xs)}: ${e instanceof Error ? e.message : String(e)}.` };
     }
-    const where = () => ` at ${this.describePoint(xs)}`;
     const grad = out?.grad;
     if (!grad || grad.length !== this.n) return { ok: false, message: `derivatives() returned an objective gradient with ${grad ? grad.length : 0} entries instead of ${this.n}.` };
-    for (let j = 0; j < this.n; j++) if (!Number.isFinite(grad[j])) return { ok: false, message: `The objective gradient with respect to ${this.variableName(j)} is ${grad[j]}${where()}.` };
+    for (let j = 0; j < this.n; j++) if (!Number.isFinite(grad[j])) return { ok: false, message: `The objective gradient with respect to ${this.variableName(j)} is ${grad[j]}${this.at(xs)}.` };
     const eq = out.eq ?? [];
     const ineq = out.ineq ?? [];
     if (eq.length !== this.nEq) return { ok: false, message: `derivatives() returned ${eq.length} equality gradient rows instead of ${this.nEq}.` };
@@ -210,20 +212,19 @@ export class ScaledProblem {
   }
 
   private scaleDerivatives(xs: Float64Array, raw: { grad: Float64Array; eq: Row[]; ineq: Row[] }, rows: Int32Array): Checked<ScaledDerivatives> {
-    const where = () => ` at ${this.describePoint(xs)}`;
     const g = new Float64Array(this.n);
     for (let j = 0; j < this.n; j++) g[j] = raw.grad[j] * this.d[j] * this.fScale;
     const je: QpRow[] = [];
     for (let i = 0; i < this.nEq; i++) {
       const r = scaleUserRow(raw.eq[i], this.n, this.eqScale[i], this.d);
-      if (typeof r === "string") return { ok: false, message: `The gradient row of the ${this.eqName(i)} ${r}${where()}.` };
+      if (typeof r === "string") return { ok: false, message: `The gradient row of the ${this.eqName(i)} ${r}${this.at(xs)}.` };
       je.push(r);
     }
     const ji: (QpRow | null)[] = new Array(this.nIneq).fill(null);
     for (let k = 0; k < rows.length; k++) {
       const i = rows[k];
       const r = scaleUserRow(raw.ineq[k], this.n, this.inScale[i], this.d);
-      if (typeof r === "string") return { ok: false, message: `The gradient row of the ${this.ineqName(i)} ${r}${where()}.` };
+      if (typeof r === "string") return { ok: false, message: `The gradient row of the ${this.ineqName(i)} ${r}${this.at(xs)}.` };
       ji[i] = r;
     }
     return { ok: true, value: { g, je, ji } };

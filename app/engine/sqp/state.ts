@@ -137,7 +137,7 @@ export function throwIfAborted(ctx: SqpContext): void {
 
 /** Keeps the best feasible and the least violating iterate. */
 export function considerSnapshot(ctx: SqpContext, state: SqpState, snap: Snapshot): void {
-  const feas = (s: Snapshot) => s.viol <= ctx.tol;
-  if (feas(snap) ? !feas(state.best) || snap.pt.f < state.best.pt.f : !feas(state.best) && snap.viol < state.best.viol) state.best = snap;
+  const tol = ctx.tol;
+  if (snap.viol <= tol ? !(state.best.viol <= tol) || snap.pt.f < state.best.pt.f : !(state.best.viol <= tol) && snap.viol < state.best.viol) state.best = snap;
   if (snap.viol < state.leastViolating.viol) state.leastViolating = snap;
 }
