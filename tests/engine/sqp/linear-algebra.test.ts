@@ -121,19 +121,22 @@ describe.each([
     red.fix(4);
     red.fix(2);
     red.free(4);
-    const free = [0, 3, 4, 5];
-    const inv = invert(free.map((i) => free.map((j) => B[i][j])));
-    for (let a = 0; a < free.length; a++) {
-      const e = new Float64Array(n);
-      e[free[a]] = 1;
-      const o = new Float64Array(n);
-      red.apply(e, o);
-      for (let b = 0; b < free.length; b++) expect(o[free[b]]).toBeCloseTo(inv[b][a], 9);
-      expect(o[1]).toBe(0);
-      expect(o[2]).toBe(0);
-    }
+    expectInverseOfFreeBlock(red, B, [0, 3, 4, 5], n);
   });
 });
+
+/** The reduced inverse applied to each free unit vector: the column of inv(B_FF), and zero on the fixed variables. */
+function expectInverseOfFreeBlock(red: ReturnType<DenseBfgs["reduced"]>, B: number[][], free: number[], n: number) {
+  const inv = invert(free.map((i) => free.map((j) => B[i][j])));
+  for (let a = 0; a < free.length; a++) {
+    const e = new Float64Array(n);
+    e[free[a]] = 1;
+    const o = new Float64Array(n);
+    red.apply(e, o);
+    for (let b = 0; b < free.length; b++) expect(o[free[b]]).toBeCloseTo(inv[b][a], 9);
+    for (let j = 0; j < n; j++) if (!free.includes(j)) expect(o[j]).toBe(0);
+  }
+}
 
 describe("dense BFGS: the reduced inverse's shared block", () => {
   // The dense matrix lends one n^2 block to its newest reduced inverse (dense-bfgs.ts); a warm
@@ -152,15 +155,7 @@ describe("dense BFGS: the reduced inverse's shared block", () => {
     older.fixMany!([0, 3]);
     const red = h.reduced();
     red.fixMany!([1, 4, 5]);
-    const free = [0, 2, 3];
-    const inv = invert(free.map((i) => free.map((j) => B[i][j])));
-    for (let a = 0; a < free.length; a++) {
-      const e = new Float64Array(n);
-      e[free[a]] = 1;
-      const o = new Float64Array(n);
-      red.apply(e, o);
-      for (let b = 0; b < free.length; b++) expect(o[free[b]]).toBeCloseTo(inv[b][a], 9);
-    }
+    expectInverseOfFreeBlock(red, B, [0, 2, 3], n);
     expect(() => older.apply(new Float64Array(n), new Float64Array(n))).toThrow(/newer one/);
     expect(() => older.fix(2)).toThrow(/newer one/);
   });
