@@ -136,13 +136,13 @@ function compare(title: string, model: TrussModel, setups: OursSetup[]): Run[] {
   const rounds = members < REPEAT_BELOW ? repeat : 1;
   const ours: (Run | null)[] = setups.map(() => null);
   const refs = new Map<number, Run | null>();
+  // our starting designs for scipy, made once per start count (the model and LP do not change between rounds)
+  const designs = new Map<number, Float64Array[]>();
+  const startsFor = (count: number) => (count > 1 ? designs.get(count) ?? designs.set(count, ourStartingDesigns(model, count, lp)).get(count) : undefined);
   for (let round = 0; round < rounds; round++) {
     setups.forEach((s, i) => (ours[i] = faster(ours[i], oursWholeProcess(model, s))));
     const counts = [...new Set((ours as Run[]).map((r) => r.starts))].sort((a, b) => a - b);
-    for (const count of counts) {
-      const starts = count > 1 ? ourStartingDesigns(model, count, lp) : undefined;
-      refs.set(count, faster(refs.get(count) ?? null, scipyWholeProcess(model, scipyCap(ours as Run[], target), starts)));
-    }
+    for (const count of counts) refs.set(count, faster(refs.get(count) ?? null, scipyWholeProcess(model, scipyCap(ours as Run[], target), startsFor(count))));
   }
   const runs = ours as Run[];
   const single = refs.get(1) ?? null;
